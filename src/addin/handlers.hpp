@@ -1,0 +1,35 @@
+// One handler per cell function: converted cells in, what the cell shows out. Each does three
+// things in order: read the arguments, call the core, pick the output. Nothing statistical.
+#pragma once
+
+#include "addin/registry.hpp"
+
+namespace quadrat::addin {
+
+// CHECK — functions_check.cpp
+Table check_normal(const Arguments& a);
+Table check_variance(const Arguments& a);
+Table check_qq(const Arguments& a);
+Table check_model(const Arguments& a);
+
+// COMPARE — functions_compare.cpp
+Table compare_groups(const Arguments& a);
+Table compare_paired(const Arguments& a);
+Table compare_posthoc(const Arguments& a);
+Table compare_letters(const Arguments& a);
+Table compare_counts(const Arguments& a);
+Table compare_expected(const Arguments& a);
+
+// RELATE and FIT — functions_fit.cpp
+Table relate_correlation(const Arguments& a);
+Table fit_linear(const Arguments& a);
+Table fit_logistic(const Arguments& a);
+Table fit_points(const Arguments& a);
+Table fit_factorial(const Arguments& a);
+
+// ADJUST, DESCRIBE, ADVISE — functions_describe.cpp, functions_advise.cpp
+Table adjust_p(const Arguments& a);
+Table describe_groups(const Arguments& a);
+Table advise_test(const Arguments& a);
+
+}  // namespace quadrat::addin

@@ -1,0 +1,179 @@
+#include "addin/registry.hpp"
+
+#include <exception>
+
+#include "addin/handlers.hpp"
+#include "core/refusal.hpp"
+#include "core/result.hpp"
+
+namespace quadrat::addin {
+
+namespace {
+
+// Argument texts shared by many functions, so that the wizard says the same thing everywhere.
+constexpr const char* values_text = "Measurements: a column (long format) or a block of columns, one per group (wide format). Empty and text cells are missing.";
+constexpr const char* groups_text = "Group labels beside the values, same number of rows (site, zone, treatment).";
+constexpr const char* output_text = "What the cell shows: p (default), statistic, df, df2, n, estimate, ci-low, ci-high, effect, table (array) or report (a sentence).";
+constexpr const char* transform_text = "Transform before testing: none (default), log, log10, log1p, sqrt. Estimates are given back on the data's scale.";
+constexpr const char* level_text = "Confidence level: 0.95 (default) or a percentage such as 99.";
+
+}  // namespace
+
+const std::vector<FunctionInfo>& registry() {
+    static const std::vector<FunctionInfo> functions = {
+        {"CHECK.NORMAL", "checkNormal",
+         "Tests whether values look normally distributed (of one column, or of the residuals from the group means). Default output: the p-value (0 to 1); small p means not normal.",
+         {{"values", values_text, true},
+          {"groups", "Optional group labels: then the residuals from the group means are tested.", false},
+          {"method", "shapiro-wilk (default), shapiro-francia, anderson-darling, lilliefors, dagostino, jarque-bera.", false},
+          {"output", output_text, false}},
+         nullptr},
+        {"CHECK.VARIANCE", "checkVariance",
+         "Tests whether the groups have equal spread. Default output: the p-value (0 to 1); small p means the spreads differ.",
+         {{"values", values_text, true},
+          {"groups", groups_text, true},
+          {"method", "brown-forsythe (default), levene, bartlett, fligner, f-ratio (two groups).", false},
+          {"output", output_text, false}},
+         nullptr},
+        {"CHECK.QQ", "checkQq",
+         "Normal Q-Q plot data as an array (enter as array formula): normal quantile and sorted value, one row per input row.",
+         {{"values", values_text, true},
+          {"groups", "Optional group labels: then the residuals from the group means are plotted.", false}},
+         nullptr},
+        {"CHECK.MODEL", "checkModel",
+         "Regression diagnostics as a table (array formula): normality, constant variance, independence, linearity, collinearity, influence, outliers, each with a verdict ok or look.",
+         {{"y", "Response column (numbers).", true},
+          {"xs", "Predictor columns (numbers); a text first row names them.", true},
+          {"output", "table (default), or one check's number: normality, variance, linearity, independence, collinearity, influence, outliers.", false}},
+         nullptr},
+        {"COMPARE.GROUPS", "compareGroups",
+         "Tests a difference in location between two or more groups (Welch, pooled, or ranks). Default output: the p-value (0 to 1).",
+         {{"values", values_text, true},
+          {"groups", groups_text, true},
+          {"method", "welch (default), pooled, ranks.", false},
+          {"output", output_text, false},
+          {"transform", transform_text, false}},
+         nullptr},
+        {"COMPARE.PAIRED", "comparePaired",
+         "Tests the difference of readings paired by row (before/after, upstream/downstream), or one sample against a number. Default output: the p-value (0 to 1).",
+         {{"first", "First reading of each pair (numbers).", true},
+          {"second", "Second reading of each pair, same rows; or a single number for a one-sample test.", false},
+          {"method", "t (default), signed-rank, sign.", false},
+          {"output", output_text, false},
+          {"transform", transform_text, false}},
+         nullptr},
+        {"COMPARE.POSTHOC", "comparePosthoc",
+         "Every pair of groups with estimate, interval, statistic, p, adjusted p and significance, as an array (enter as array formula).",
+         {{"values", values_text, true},
+          {"groups", groups_text, true},
+          {"method", "tukey (default), games-howell, dunn, t-pairs, rank-pairs.", false},
+          {"adjust", "p-value adjustment for dunn, t-pairs, rank-pairs: holm (default), bonferroni, hochberg, hommel, bh, by, sidak.", false},
+          {"transform", transform_text, false},
+          {"level", level_text, false}},
+         nullptr},
+        {"COMPARE.LETTERS", "compareLetters",
+         "Compact letter display: groups sharing a letter do not differ significantly. Array (enter as array formula): group, n, mean, letters.",
+         {{"values", values_text, true},
+          {"groups", groups_text, true},
+          {"method", "tukey (default), games-howell, dunn, t-pairs, rank-pairs.", false},
+          {"level", level_text, false},
+          {"transform", transform_text, false}},
+         nullptr},
+        {"COMPARE.COUNTS", "compareCounts",
+         "Tests association between two categorical variables, from a block of counts or two label columns. Default output: the p-value (0 to 1).",
+         {{"counts_or_labels", "A block of counts (text first row and column name the categories), or a first label column.", true},
+          {"labels2", "Second label column, when the first argument holds labels.", false},
+          {"method", "chi-square (default), yates (2x2), g, fisher.", false},
+          {"output", output_text, false}},
+         nullptr},
+        {"COMPARE.EXPECTED", "compareExpected",
+         "Chi-square goodness of fit of observed counts against expected proportions or counts. Default output: the p-value (0 to 1).",
+         {{"observed", "Observed counts, one per category.", true},
+          {"expected", "Expected proportions or counts, same size (equal when omitted).", false},
+          {"output", output_text, false}},
+         nullptr},
+        {"RELATE.CORRELATION", "relateCorrelation",
+         "Correlation between two columns, paired by row. Default output: the p-value (0 to 1); estimate gives the coefficient (-1 to 1).",
+         {{"x", "First variable (numbers).", true},
+          {"y", "Second variable (numbers), same rows.", true},
+          {"method", "pearson (default), spearman, kendall.", false},
+          {"output", output_text, false}},
+         nullptr},
+        {"FIT.LINEAR", "fitLinear",
+         "Linear regression by least squares. Default: the coefficient table (array formula): term, estimate, std. error, t, p, ci-low, ci-high, VIF.",
+         {{"y", "Response column (numbers).", true},
+          {"xs", "Predictor columns (numbers); a text first row names them.", true},
+          {"output", "coefficients (default), model, r2, p, slope, intercept, sigma, report.", false},
+          {"level", level_text, false}},
+         nullptr},
+        {"FIT.LOGISTIC", "fitLogistic",
+         "Logistic regression for a 0/1 or two-label response. Default: the coefficient table (array formula) with odds ratios.",
+         {{"y", "Response: 0/1, or exactly two labels (present/absent).", true},
+          {"xs", "Predictor columns (numbers); a text first row names them.", true},
+          {"output", "coefficients (default), model.", false},
+          {"level", level_text, false}},
+         nullptr},
+        {"FIT.POINTS", "fitPoints",
+         "Per-row values of a linear fit, aligned with the raw rows (array formula): fitted, residual, standardized, studentized, leverage, Cook's distance.",
+         {{"y", "Response column (numbers).", true},
+          {"xs", "Predictor columns (numbers).", true},
+          {"what", "All six columns (default), or one: fitted, residual, standardized, studentized, leverage, cooks.", false}},
+         nullptr},
+        {"FIT.FACTORIAL", "fitFactorial",
+         "Two-way analysis of variance with interaction. Default: the ANOVA table (array formula).",
+         {{"values", "Measurements (numbers).", true},
+          {"factor1", "First factor's labels, same rows.", true},
+          {"factor2", "Second factor's labels, same rows.", true},
+          {"output", "table (default), p-first, p-second, p-interaction.", false},
+          {"sstype", "Sums of squares: 2 (default, Type II) or 3 (Type III).", false}},
+         nullptr},
+        {"ADJUST.P", "adjustP",
+         "Adjusts p-values for multiple comparisons; returns an array of the same shape. Blank cells stay blank.",
+         {{"pvalues", "p-values (0 to 1), any shape.", true},
+          {"method", "holm (default), bonferroni, hochberg, hommel, bh, by, sidak.", false}},
+         nullptr},
+        {"DESCRIBE.GROUPS", "describeGroups",
+         "Summary per group as an array (array formula): group, n, mean, SD, SE, ci-low, ci-high, median, minimum, maximum.",
+         {{"values", values_text, true},
+          {"groups", "Optional group labels, same rows as values.", false},
+          {"transform", "none (default), log, log10, log1p, sqrt: with a log, the geometric mean and its interval replace the mean.", false},
+          {"level", level_text, false}},
+         nullptr},
+        {"ADVISE.TEST", "adviseTest",
+         "Suggests which test fits these columns and why. A guide, not a verdict: check the design with a statistician before decisions that matter.",
+         {{"response", "The measured or counted variable.", true},
+          {"predictor", "Optional: group labels, a second measurement, or a second categorical variable.", false},
+          {"output", "report (default), method, transform, function, table.", false},
+          {"design", "auto (default), groups, paired, relationship.", false}},
+         nullptr},
+    };
+    return functions;
+}
+
+const FunctionInfo* find_function(std::string_view method) {
+    for (const auto& f : registry())
+        if (method == f.method) return &f;
+    return nullptr;
+}
+
+Table call_fenced(const FunctionInfo& function, const Arguments& arguments) noexcept {
+    try {
+        try {
+            if (!function.handler) return single(std::string(function.display_name) + " is not available in this version");
+            return function.handler(arguments);
+        } catch (const Refusal& r) {
+            return single(std::string(r.what()));
+        } catch (const std::bad_alloc&) {
+            return single(std::string("not enough memory for this range"));
+        } catch (const std::exception& e) {
+            return single(std::string("internal error in ") + function.display_name + ": " + e.what());
+        } catch (...) {
+            return single(std::string("internal error in ") + function.display_name);
+        }
+    } catch (...) {
+        // Building the refusal text itself failed (out of memory): a blank answer beats a crash.
+        return Table{};
+    }
+}
+
+}  // namespace quadrat::addin

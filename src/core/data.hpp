@@ -1,0 +1,86 @@
+// The data layer: the catalogue's rules for missing cells, header rows, long and wide format and
+// group order, applied once so that every function reads a sheet the same way.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "cells.hpp"
+
+namespace quadrat {
+
+inline constexpr std::size_t no_group = static_cast<std::size_t>(-1);
+
+// Missing markers of a label column: empty, n/a, na, -, —, ?, missing (any case, outer spaces ignored).
+bool is_missing_marker(std::string_view text);
+
+// A number used as a label (zone 2) shows as the office suite shows it: 2, 2.5, 1e-05.
+std::string number_label(double x);
+
+// How one argument's columns are read.
+enum class ColumnKind { numeric, label };
+
+// One argument block of a frame: a range whose columns are all read the same way, and the name
+// the argument has in the catalogue (for refusal texts).
+struct FrameBlock {
+    const Range* range;
+    ColumnKind kind;
+    std::string argument;
+};
+
+// Several arguments read side by side, row by row. A row is used when every cell is present
+// (a number in a numeric column, a non-missing label in a label column); a row that has
+// anything in it but is not used is dropped; a row with nothing at all is neither.
+struct Frame {
+    std::vector<std::string> names;                  // per column: header text, or "" when none
+    std::vector<ColumnKind> kinds;                   // per column
+    std::vector<std::vector<double>> numbers;        // per column, n_used values (numeric columns)
+    std::vector<std::vector<std::string>> labels;    // per column, n_used labels (label columns)
+    std::vector<std::size_t> used_rows;              // range row of each used observation
+    std::size_t rows = 0;                            // rows in each input range, header included
+    std::size_t n_used = 0;
+    std::size_t n_dropped = 0;
+    bool has_header = false;
+};
+
+// Reads the blocks (all with the same number of rows). A cell holding a formula error is a
+// refusal naming the cell. The first row is a header per the catalogue's rule.
+Frame read_frame(const std::vector<FrameBlock>& blocks);
+
+// Groups of one numeric variable, in order of first appearance.
+struct Groups {
+    std::vector<std::string> names;
+    std::vector<std::vector<double>> values;   // per group, in row order
+    std::size_t n_used = 0;
+    std::size_t n_dropped = 0;
+    bool wide = false;
+    bool has_header = false;
+    // Long format: for each row of the input range, the group of its used value (no_group when the
+    // row is the header, dropped or empty) and the value. Lets row-aligned outputs sit beside the data.
+    std::vector<std::size_t> row_group;
+    std::vector<double> row_value;
+
+    std::size_t group_count() const { return names.size(); }
+};
+
+// `values` with `groups` (long format), or `values` alone: one column is a single group (named by
+// its header, else "values"); two or more columns are wide format (one group per column, named by a
+// text first row, else "column 1", "column 2", …).
+Groups read_groups(const Range& values, const Range& groups);
+
+// One numeric column (the `values` of a one-variable function).
+struct Column {
+    std::string name;
+    std::vector<double> values;
+    std::size_t n_used = 0;
+    std::size_t n_dropped = 0;
+};
+Column read_column(const Range& values, const std::string& argument = "values");
+
+// "B17" style refusal text for an error cell, or "values holds an error in row 3" for an array.
+std::string error_cell_message(const Range& range, std::size_t row, std::size_t column,
+                               const std::string& argument);
+
+}  // namespace quadrat

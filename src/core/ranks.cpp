@@ -1,0 +1,39 @@
+#include "ranks.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <numeric>
+
+namespace quadrat {
+
+Ranking rank_with_ties(std::span<const double> values) {
+    const std::size_t n = values.size();
+    Ranking r;
+    r.ranks.assign(n, 0.0);
+    std::vector<std::size_t> order(n);
+    std::iota(order.begin(), order.end(), std::size_t{0});
+    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return values[a] < values[b]; });
+    for (std::size_t i = 0; i < n;) {
+        std::size_t j = i + 1;
+        while (j < n && values[order[j]] == values[order[i]]) ++j;
+        const double mid = 0.5 * static_cast<double>(i + 1 + j);  // mean of positions i+1 .. j
+        for (std::size_t k = i; k < j; ++k) r.ranks[order[k]] = mid;
+        const double t = static_cast<double>(j - i);
+        if (j - i > 1) {
+            r.tie_term += t * t * t - t;
+            ++r.tied_groups;
+        }
+        i = j;
+    }
+    return r;
+}
+
+double round_significant(double x, int digits) {
+    if (x == 0 || !std::isfinite(x)) return x;
+    const int magnitude = static_cast<int>(std::floor(std::log10(std::fabs(x))));
+    const double scale = std::pow(10.0, digits - 1 - magnitude);
+    if (!std::isfinite(scale) || scale == 0) return x;
+    return std::round(x * scale) / scale;
+}
+
+}  // namespace quadrat

@@ -1,0 +1,49 @@
+#include "report.hpp"
+
+#include <cmath>
+#include <cstdio>
+
+namespace quadrat {
+
+namespace {
+std::string printf_string(const char* format, double x) {
+    char buffer[64];
+    std::snprintf(buffer, sizeof buffer, format, x);
+    return buffer;
+}
+}  // namespace
+
+std::string format_p(double p) {
+    if (!std::isfinite(p)) return "p = n/a";
+    if (p < 0.001) return "p < 0.001";
+    // Round first so that 0.0005 does not print as "p = 0.001" by a different route than 0.0014.
+    return "p = " + printf_string("%.3f", p);
+}
+
+std::string format_number(double x) {
+    if (!std::isfinite(x)) return std::isnan(x) ? "n/a" : (x > 0 ? "infinity" : "-infinity");
+    const double a = std::fabs(x);
+    if (a == 0) return "0.00";
+    if (a >= 0.1) return printf_string("%.2f", x);
+    if (a >= 1e-4) {
+        // Three significant digits in fixed notation: 0.0123, 0.000123.
+        const int decimals = 2 - static_cast<int>(std::floor(std::log10(a)));
+        char format[16];
+        std::snprintf(format, sizeof format, "%%.%df", decimals);
+        return printf_string(format, x);
+    }
+    return printf_string("%.2e", x);
+}
+
+std::string format_df(double df) {
+    if (std::isfinite(df) && df == std::round(df)) return printf_string("%.0f", df);
+    return printf_string("%.1f", df);
+}
+
+std::string format_level(double level) {
+    const double percent = level * 100.0;
+    if (std::fabs(percent - std::round(percent)) < 1e-9) return printf_string("%.0f", percent) + "%";
+    return printf_string("%.1f", percent) + "%";
+}
+
+}  // namespace quadrat

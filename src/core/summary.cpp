@@ -1,0 +1,72 @@
+#include "summary.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+namespace quadrat {
+
+void Accumulator::add(double x) {
+    // Neumaier's variant of Kahan summation: also exact when |x| exceeds the running sum.
+    const double t = sum_ + x;
+    if (std::fabs(sum_) >= std::fabs(x))
+        compensation_ += (sum_ - t) + x;
+    else
+        compensation_ += (x - t) + sum_;
+    sum_ = t;
+}
+
+double sum(std::span<const double> xs) {
+    Accumulator acc;
+    for (double x : xs) acc.add(x);
+    return acc.sum();
+}
+
+double mean(std::span<const double> xs) {
+    if (xs.empty()) return std::numeric_limits<double>::quiet_NaN();
+    const double n = static_cast<double>(xs.size());
+    const double first = sum(xs) / n;
+    // One refinement pass: the mean of the residuals from the first estimate.
+    Accumulator residual;
+    for (double x : xs) residual.add(x - first);
+    return first + residual.sum() / n;
+}
+
+double sum_of_squares(std::span<const double> xs, double centre) {
+    Accumulator squares, deviations;
+    for (double x : xs) {
+        const double d = x - centre;
+        squares.add(d * d);
+        deviations.add(d);
+    }
+    // Correction term of the two-pass algorithm: removes the error left in `centre`.
+    const double n = static_cast<double>(xs.size());
+    const double s = deviations.sum();
+    return std::max(0.0, squares.sum() - s * s / n);
+}
+
+double variance(std::span<const double> xs) {
+    if (xs.size() < 2) return std::numeric_limits<double>::quiet_NaN();
+    return sum_of_squares(xs, mean(xs)) / static_cast<double>(xs.size() - 1);
+}
+
+double standard_deviation(std::span<const double> xs) { return std::sqrt(variance(xs)); }
+
+double median_of_sorted(std::span<const double> sorted) {
+    return quantile_of_sorted(sorted, 0.5);
+}
+
+double median(std::vector<double> xs) {
+    std::sort(xs.begin(), xs.end());
+    return median_of_sorted(xs);
+}
+
+double quantile_of_sorted(std::span<const double> sorted, double probability) {
+    if (sorted.empty()) return std::numeric_limits<double>::quiet_NaN();
+    const double h = (static_cast<double>(sorted.size()) - 1.0) * probability;
+    const auto lo = static_cast<std::size_t>(std::floor(h));
+    const std::size_t hi = std::min(lo + 1, sorted.size() - 1);
+    return sorted[lo] + (h - static_cast<double>(lo)) * (sorted[hi] - sorted[lo]);
+}
+
+}  // namespace quadrat

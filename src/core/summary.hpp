@@ -1,0 +1,38 @@
+// Descriptive building blocks shared by every family. Sums are centred first and accumulated
+// with Neumaier's compensated summation, so that data such as NIST's NumAcc4 (values near 1e7
+// differing in the eighth digit) keep their digits (Neumaier 1974, ZAMM 54, 39–51).
+#pragma once
+
+#include <cstddef>
+#include <span>
+#include <vector>
+
+namespace quadrat {
+
+// Compensated running sum.
+class Accumulator {
+public:
+    void add(double x);
+    double sum() const { return sum_ + compensation_; }
+
+private:
+    double sum_ = 0.0;
+    double compensation_ = 0.0;
+};
+
+double sum(std::span<const double> xs);
+double mean(std::span<const double> xs);
+// Σ(x − x̄)² with x̄ refined by one correction pass (two-pass algorithm with the Björck
+// correction term; Chan, Golub & LeVeque 1983, Am. Statistician 37, 242–247).
+double sum_of_squares(std::span<const double> xs, double centre);
+// Sample variance with denominator n − 1 (NaN for n < 2).
+double variance(std::span<const double> xs);
+double standard_deviation(std::span<const double> xs);
+
+// Median and type-7 quantile (linear interpolation between order statistics; Hyndman & Fan 1996,
+// Am. Statistician 50, 361–365). `sorted` must be sorted ascending.
+double median_of_sorted(std::span<const double> sorted);
+double median(std::vector<double> xs);
+double quantile_of_sorted(std::span<const double> sorted, double probability);
+
+}  // namespace quadrat

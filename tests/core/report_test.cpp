@@ -1,0 +1,60 @@
+// Report number formats: common practice in field reports, no single published source
+// (FUNCTIONS.md, "Outputs"): p with three decimals, p < 0.001 below that, two decimals for
+// statistics, three significant digits below 0.1, Welch df with one decimal.
+#include <gtest/gtest.h>
+
+#include "core/keywords.hpp"
+#include "core/refusal.hpp"
+#include "core/report.hpp"
+#include "core/result.hpp"
+
+namespace quadrat {
+namespace {
+
+TEST(ReportFormat, PValues) {
+    EXPECT_EQ(format_p(0.0342), "p = 0.034");
+    EXPECT_EQ(format_p(0.0021), "p = 0.002");
+    EXPECT_EQ(format_p(0.00099), "p < 0.001");
+    EXPECT_EQ(format_p(1.0), "p = 1.000");
+}
+
+TEST(ReportFormat, Numbers) {
+    EXPECT_EQ(format_number(3.4129), "3.41");
+    EXPECT_EQ(format_number(-0.1249), "-0.12");
+    EXPECT_EQ(format_number(0.012345), "0.0123");
+    EXPECT_EQ(format_number(0.00012345), "0.000123");
+    EXPECT_EQ(format_number(0.0), "0.00");
+    EXPECT_EQ(format_df(37.43), "37.4");
+    EXPECT_EQ(format_df(38.0), "38");
+    EXPECT_EQ(format_level(0.95), "95%");
+    EXPECT_EQ(format_level(0.999), "99.9%");
+}
+
+TEST(Keywords, MatchIgnoringCaseAndDefaultWhenBlank) {
+    const std::vector<std::string> methods = {"welch", "pooled", "ranks"};
+    EXPECT_EQ(match_keyword("", methods, "method"), "welch");
+    EXPECT_EQ(match_keyword(" Pooled ", methods, "method"), "pooled");
+    try {
+        match_keyword("anova", methods, "method");
+        FAIL();
+    } catch (const Refusal& r) {
+        EXPECT_STREQ(r.what(), "unknown method 'anova'; valid: welch, pooled, ranks");
+    }
+}
+
+TEST(SelectOutput, PicksQuantityTableOrRefuses) {
+    TestResult r;
+    r.test = "Welch two-sample t-test";
+    r.add("statistic", 2.5).add("p", 0.03);
+    const auto outputs = standard_outputs();
+    EXPECT_EQ(std::get<double>(select_output(r, "", {"p", "statistic", "table"})[0][0]), 0.03);
+    EXPECT_EQ(std::get<double>(select_output(r, "STATISTIC", outputs)[0][0]), 2.5);
+    const Table t = select_output(r, "table", outputs);
+    ASSERT_EQ(t.size(), 4u);
+    EXPECT_EQ(std::get<std::string>(t[1][1]), "Welch two-sample t-test");
+    EXPECT_THROW(select_output(r, "effect", outputs), Refusal);
+    EXPECT_THROW(select_output(r, "bogus", outputs), Refusal);
+}
+
+}  // namespace
+}  // namespace quadrat
