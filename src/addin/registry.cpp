@@ -138,7 +138,7 @@ const std::vector<FunctionInfo>& registry() {
           {"groups", "Optional group labels, same rows as values.", false},
           {"transform", "none (default), log, log10, log1p, sqrt: with a log, the geometric mean and its interval replace the mean.", false},
           {"level", level_text, false}},
-         nullptr},
+         &describe_groups},
         {"ADVISE.TEST", "adviseTest",
          "Suggests which test fits these columns and why. A guide, not a verdict: check the design with a statistician before decisions that matter.",
          {{"response", "The measured or counted variable.", true},

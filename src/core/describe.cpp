@@ -1,0 +1,78 @@
+#include "describe.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include <boost/math/distributions/students_t.hpp>
+
+#include "refusal.hpp"
+#include "summary.hpp"
+
+namespace quadrat {
+
+namespace {
+
+CellValue number_or_blank(double x) {
+    if (std::isfinite(x)) return x;
+    return std::monostate{};
+}
+
+std::string mean_header(Transform t) {
+    if (is_ratio_scale(t)) return "geometric mean";
+    if (t == Transform::none) return "mean";
+    return "back-transformed mean";
+}
+
+}  // namespace
+
+Table describe_groups(const Groups& groups, Transform transform, double level) {
+    if (groups.n_used == 0) throw Refusal("values holds no numbers");
+    Table table;
+    table.push_back({std::string("group"), std::string("n"), mean_header(transform), std::string("SD"),
+                     std::string("SE"), std::string("ci-low"), std::string("ci-high"), std::string("median"),
+                     std::string("minimum"), std::string("maximum")});
+
+    // The transform's domain is checked over all groups at once, so the refusal counts every cell.
+    std::vector<std::vector<double>> transformed = groups.values;
+    apply_transform(transform, transformed);
+
+    for (std::size_t g = 0; g < groups.group_count(); ++g) {
+        const std::vector<double>& raw = groups.values[g];
+        const std::vector<double>& scaled = transformed[g];
+        const std::size_t n = raw.size();
+        std::vector<CellValue> row{groups.names[g], static_cast<double>(n)};
+        if (n == 0) {
+            // A wide-format column with no numbers: a row of its own, so the table keeps one row per column.
+            row.resize(10, std::monostate{});
+            table.push_back(std::move(row));
+            continue;
+        }
+        std::vector<double> sorted = raw;
+        std::sort(sorted.begin(), sorted.end());
+
+        const double sd = standard_deviation(raw);  // NaN for n = 1 → blank
+        const double se = sd / std::sqrt(static_cast<double>(n));
+        const double centre = mean(scaled);
+        double low = std::numeric_limits<double>::quiet_NaN();
+        double high = low;
+        if (n >= 2) {
+            const double scaled_se = standard_deviation(scaled) / std::sqrt(static_cast<double>(n));
+            const boost::math::students_t t_dist(static_cast<double>(n - 1));
+            const double t = boost::math::quantile(t_dist, 0.5 + level / 2.0);
+            low = back_transform(transform, centre - t * scaled_se);
+            high = back_transform(transform, centre + t * scaled_se);
+        }
+        row.push_back(back_transform(transform, centre));
+        row.push_back(number_or_blank(sd));
+        row.push_back(number_or_blank(se));
+        row.push_back(number_or_blank(low));
+        row.push_back(number_or_blank(high));
+        row.push_back(median_of_sorted(sorted));
+        row.push_back(sorted.front());
+        row.push_back(sorted.back());
+        table.push_back(std::move(row));
+    }
+    return table;
+}
+
+}  // namespace quadrat

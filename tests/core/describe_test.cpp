@@ -1,0 +1,113 @@
+// DESCRIBE.GROUPS against NumPy and a 40-digit mpmath Student quantile
+// (tests/reference/generate_describe.py → describe.json)
+// and through the glue (registry, argument reading, fence).
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <fstream>
+#include <nlohmann/json.hpp>
+
+#include "addin/registry.hpp"
+#include "core/describe.hpp"
+#include "core/refusal.hpp"
+
+namespace quadrat {
+namespace {
+
+nlohmann::json load_reference(const char* name) {
+    std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/" + name);
+    return nlohmann::json::parse(in);
+}
+
+double number_at(const Table& t, std::size_t row, std::size_t column) { return std::get<double>(t.at(row).at(column)); }
+
+void expect_close(double actual, double expected, double relative, const std::string& what) {
+    EXPECT_LE(std::fabs(actual - expected), relative * std::fabs(expected)) << what << ": " << actual << " vs " << expected;
+}
+
+TEST(DescribeGroups, MatchesNumPyAndMpmath) {
+    const auto reference = load_reference("describe.json");
+    for (const auto& c : reference["cases"]) {
+        Groups g;
+        for (const auto& group : c["groups"]) {
+            g.names.push_back(group["name"]);
+            g.values.push_back(group["values"].get<std::vector<double>>());
+            g.n_used += g.values.back().size();
+        }
+        const Transform t = parse_transform(c["transform"]);
+        const Table table = describe_groups(g, t, c["level"]);
+        ASSERT_EQ(table.size(), g.names.size() + 1);
+        for (std::size_t i = 0; i < g.names.size(); ++i) {
+            const auto& r = c["groups"][i];
+            const std::string what = std::string(c["data"]) + "/" + std::string(c["transform"]) + "/" + g.names[i];
+            // Closed forms on a few values: agreement to 1e-12 relative (rounding only).
+            EXPECT_EQ(number_at(table, i + 1, 1), r["n"].get<double>());
+            expect_close(number_at(table, i + 1, 2), r["centre"], 1e-12, what + " centre");
+            expect_close(number_at(table, i + 1, 7), r["median"], 1e-12, what + " median");
+            expect_close(number_at(table, i + 1, 8), r["minimum"], 0, what + " minimum");
+            expect_close(number_at(table, i + 1, 9), r["maximum"], 0, what + " maximum");
+            if (r.contains("sd")) {
+                expect_close(number_at(table, i + 1, 3), r["sd"], 1e-12, what + " SD");
+                expect_close(number_at(table, i + 1, 4), r["se"], 1e-12, what + " SE");
+                // Student t quantile from Boost.Math against mpmath at 40 digits: rounding only, 1e-12.
+                expect_close(number_at(table, i + 1, 5), r["ci_low"], 1e-12, what + " ci-low");
+                expect_close(number_at(table, i + 1, 6), r["ci_high"], 1e-12, what + " ci-high");
+            } else {
+                // A single value has no SD: the cells are blank, not 0 and not an error.
+                EXPECT_TRUE(std::holds_alternative<std::monostate>(table[i + 1][3])) << what;
+                EXPECT_TRUE(std::holds_alternative<std::monostate>(table[i + 1][5])) << what;
+            }
+        }
+    }
+}
+
+TEST(DescribeGroups, HeaderNamesTheGeometricMeanUnderLog) {
+    Groups g;
+    g.names = {"a"};
+    g.values = {{1, 10, 100}};
+    g.n_used = 3;
+    EXPECT_EQ(std::get<std::string>(describe_groups(g, Transform::none, 0.95)[0][2]), "mean");
+    const Table t = describe_groups(g, Transform::log10, 0.95);
+    EXPECT_EQ(std::get<std::string>(t[0][2]), "geometric mean");
+    // Geometric mean of 1, 10, 100 is 10 exactly on paper; 1e-14 for rounding in log10/pow.
+    EXPECT_NEAR(std::get<double>(t[1][2]), 10.0, 1e-13);
+}
+
+TEST(DescribeGroups, LogOfZeroIsARefusalCountingTheCells) {
+    Groups g;
+    g.names = {"a", "b"};
+    g.values = {{0, 1, 2}, {-1, 3}};
+    g.n_used = 5;
+    try {
+        describe_groups(g, Transform::log, 0.95);
+        FAIL();
+    } catch (const Refusal& r) {
+        EXPECT_STREQ(r.what(), "transform 'log' needs values > 0; 2 values are not");
+    }
+}
+
+TEST(DescribeGroupsCell, ReadsLongFormatThroughTheRegistry) {
+    const auto* f = addin::find_function("describeGroups");
+    ASSERT_NE(f, nullptr);
+    Range values = Range::column({1, 2, 3, 10, 20});
+    values.cells.insert(values.cells.begin(), Cell::make_text("depth_cm"));
+    values.rows = 6;
+    Range groups = Range::text_column({"plot", "north", "north", "north", "south", "south"});
+    const Table t = addin::call_fenced(*f, {values, groups, Range::omitted_argument(), Range::omitted_argument()});
+    ASSERT_EQ(t.size(), 3u);
+    EXPECT_EQ(std::get<std::string>(t[1][0]), "north");
+    EXPECT_EQ(std::get<double>(t[1][2]), 2.0);
+    EXPECT_EQ(std::get<double>(t[2][2]), 15.0);
+}
+
+TEST(DescribeGroupsCell, BadLevelAndKeywordAreRefusalTexts) {
+    const auto* f = addin::find_function("describeGroups");
+    const Range values = Range::column({1, 2, 3});
+    const Table bad_level = addin::call_fenced(*f, {values, Range::omitted_argument(), Range::omitted_argument(), Range::scalar(Cell::make_number(120))});
+    EXPECT_EQ(std::get<std::string>(bad_level[0][0]), "level must be a fraction such as 0.95 or a percentage from 50 to 99.9");
+    const Table bad_transform = addin::call_fenced(*f, {values, Range::omitted_argument(), Range::scalar(Cell::make_text("ln")), Range::omitted_argument()});
+    EXPECT_EQ(std::get<std::string>(bad_transform[0][0]), "unknown transform 'ln'; valid: none, log, log10, log1p, sqrt");
+}
+
+}  // namespace
+}  // namespace quadrat
