@@ -131,7 +131,7 @@ const std::vector<FunctionInfo>& registry() {
          "Adjusts p-values for multiple comparisons; returns an array of the same shape. Blank cells stay blank.",
          {{"pvalues", "p-values (0 to 1), any shape.", true},
           {"method", "holm (default), bonferroni, hochberg, hommel, bh, by, sidak.", false}},
-         nullptr},
+         adjust_p},
         {"DESCRIBE.GROUPS", "describeGroups",
          "Summary per group as an array (array formula): group, n, mean, SD, SE, ci-low, ci-high, median, minimum, maximum.",
          {{"values", values_text, true},
