@@ -1,0 +1,32 @@
+// COMPARE.COUNTS, COMPARE.EXPECTED, FIT.LOGISTIC and FIT.FACTORIAL: read the arguments, call the
+// core, pick the output.
+#include "addin/arguments.hpp"
+#include "addin/handlers.hpp"
+#include "core/counts.hpp"
+#include "core/keywords.hpp"
+
+namespace quadrat::addin {
+
+namespace {
+// An argument by position; one the caller left off reads as omitted.
+const Range& argument(const Arguments& a, std::size_t i) {
+    static const Range omitted = Range::omitted_argument();
+    return i < a.size() ? a[i] : omitted;
+}
+}  // namespace
+
+Table compare_counts(const Arguments& a) {
+    // One argument: a block of counts; two: two label columns cross-tabulated.
+    const bool labels = !is_blank(argument(a, 1));
+    const ContingencyTable table = labels ? cross_tabulate(argument(a, 0), argument(a, 1)) : read_count_block(argument(a, 0));
+    const std::string method = keyword_argument(argument(a, 2), "method");
+    return select_output(quadrat::compare_counts(table, method), keyword_argument(argument(a, 3), "output"), count_outputs());
+}
+
+Table compare_expected(const Arguments& a) {
+    const ExpectedInput in = read_expected_input(argument(a, 0), argument(a, 1));
+    return select_output(quadrat::compare_expected(in.observed, in.expected, in.n_dropped),
+                         keyword_argument(argument(a, 2), "output"), expected_outputs());
+}
+
+}  // namespace quadrat::addin

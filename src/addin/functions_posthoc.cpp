@@ -1,0 +1,40 @@
+// Handlers of the post-hoc family: ADJUST.P, COMPARE.POSTHOC, COMPARE.LETTERS.
+// Read the arguments, call the core, shape what the cells show. Nothing statistical here.
+#include <vector>
+
+#include "addin/arguments.hpp"
+#include "addin/handlers.hpp"
+#include "core/adjust.hpp"
+#include "core/data.hpp"
+#include "core/refusal.hpp"
+
+namespace quadrat::addin {
+
+// ADJUST.P(pvalues; [method]): the same shape back; blank cells stay blank and are not counted.
+Table adjust_p(const Arguments& a) {
+    const Range& cells = a[0];
+    const Adjustment method = parse_adjustment(keyword_argument(a[1], "method"));
+    std::vector<double> p;
+    std::vector<std::size_t> where;  // index into cells of each p-value
+    for (std::size_t row = 0; row < cells.rows; ++row)
+        for (std::size_t col = 0; col < cells.columns; ++col) {
+            const Cell& c = cells.at(row, col);
+            if (c.kind == CellKind::error) throw Refusal(error_cell_message(cells, row, col, "pvalues"));
+            if (c.kind == CellKind::empty || (c.kind == CellKind::text && c.text.empty())) continue;
+            const std::string place = cells.is_reference ? cell_address(cells, row, col)
+                                                         : "pvalues cell " + std::to_string(row * cells.columns + col + 1);
+            if (c.kind == CellKind::text)
+                throw Refusal(place + " holds text ('" + c.text + "'); pvalues takes p-values from 0 to 1 or blank cells");
+            if (!(c.number >= 0.0 && c.number <= 1.0))
+                throw Refusal(place + " holds " + number_label(c.number) + "; a p-value lies between 0 and 1");
+            p.push_back(c.number);
+            where.push_back(row * cells.columns + col);
+        }
+    if (p.empty()) throw Refusal("pvalues holds no p-values; give a range of numbers from 0 to 1");
+    const std::vector<double> adjusted = quadrat::adjust_p(p, method);
+    Table out(cells.rows, std::vector<CellValue>(cells.columns));
+    for (std::size_t i = 0; i < p.size(); ++i) out[where[i] / cells.columns][where[i] % cells.columns] = adjusted[i];
+    return out;
+}
+
+}  // namespace quadrat::addin

@@ -1,0 +1,94 @@
+// The glue of the categorical family: arguments in, what the cell shows out, through the fence.
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+#include "addin/registry.hpp"
+
+namespace quadrat::addin {
+namespace {
+
+Cell num(double x) { return Cell::make_number(x); }
+Cell txt(const char* s) { return Cell::make_text(s); }
+
+Range block(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
+    Range r;
+    r.rows = rows;
+    r.columns = columns;
+    r.cells = std::move(cells);
+    r.is_reference = true;
+    r.first_row = 1;
+    r.first_column = 1;
+    return r;
+}
+
+Range keyword(const char* s) { return Range::scalar(txt(s)); }
+
+Table call(const char* method, const Arguments& args) {
+    const FunctionInfo* f = find_function(method);
+    EXPECT_NE(f, nullptr);
+    return call_fenced(*f, args);
+}
+
+double number_of(const Table& t) {
+    EXPECT_EQ(t.size(), 1u);
+    EXPECT_TRUE(std::holds_alternative<double>(t[0][0]));
+    return std::holds_alternative<double>(t[0][0]) ? std::get<double>(t[0][0]) : NAN;
+}
+
+std::string text_of(const Table& t) {
+    EXPECT_EQ(t.size(), 1u);
+    return std::holds_alternative<std::string>(t[0][0]) ? std::get<std::string>(t[0][0]) : "(not text)";
+}
+
+const Range omitted = Range::omitted_argument();
+
+// Agresti (2002), Categorical Data Analysis, §3.5.1, tea tasting (from memory): Fisher p = 0.486
+// = 34/70 exactly; tolerance 1e-12.
+TEST(CompareCountsFunction, BlockWithNamesAndMethod) {
+    Range tea = block(3, 3, {txt("guess"), txt("milk first"), txt("tea first"),
+                             txt("milk first"), num(3), num(1),
+                             txt("tea first"), num(1), num(3)});
+    EXPECT_NEAR(number_of(call("compareCounts", {tea, omitted, keyword("Fisher"), omitted})), 34.0 / 70.0, 1e-12);
+    // Common practice, no source: φ of this table is (9 − 1)/√(4·4·4·4) = 0.5; tolerance 1e-12.
+    EXPECT_NEAR(number_of(call("compareCounts", {tea, omitted, keyword("fisher"), keyword("effect")})), 0.5, 1e-12);
+    EXPECT_EQ(text_of(call("compareCounts", {tea, omitted, keyword("fisher"), keyword("statistic")})),
+              "output 'statistic' is not available for Fisher's exact test");
+    const Table table = call("compareCounts", {tea, omitted, omitted, keyword("table")});
+    ASSERT_EQ(table.size(), 10u);
+    EXPECT_EQ(std::get<std::string>(table[1][1]), "Pearson's chi-square test of association");
+    EXPECT_EQ(std::get<std::string>(table[8][0]), "smallest expected count");
+    EXPECT_EQ(std::get<double>(table[9][1]), 4.0);  // all four expected counts are 2
+    EXPECT_EQ(text_of(call("compareCounts", {tea, omitted, omitted, keyword("report")})),
+              "Pearson's chi-square test of association: χ²(1) = 2.00, p = 0.157, n = 8; φ = 0.50");
+    EXPECT_EQ(text_of(call("compareCounts", {tea, omitted, keyword("exact"), omitted})),
+              "unknown method 'exact'; valid: chi-square, yates, g, fisher");
+}
+
+TEST(CompareCountsFunction, TwoLabelColumns) {
+    Range zone = Range::text_column({"zone", "low", "low", "high", "high", "low", "high", "-"});
+    Range found = Range::text_column({"snail", "yes", "yes", "no", "no", "yes", "yes", "no"});
+    // 2×2 [[3, 0], [1, 2]]: n = 6, one row dropped for the missing zone.
+    EXPECT_EQ(number_of(call("compareCounts", {zone, found, omitted, keyword("n")})), 6.0);
+    const Table t = call("compareCounts", {zone, found, omitted, keyword("table")});
+    EXPECT_EQ(std::get<std::string>(t[6][0]), "n dropped");
+    EXPECT_EQ(std::get<double>(t[6][1]), 1.0);
+}
+
+TEST(CompareExpectedFunction, SexRatioAndRefusals) {
+    Range voles = block(3, 1, {txt("voles"), num(58), num(42)});
+    // scipy.stats.chisquare([58, 42]) 1.10 via tests/reference/generate_categorical.py: χ² = 2.56
+    // exactly ((8² + 8²)/50); tolerance 1e-12.
+    EXPECT_NEAR(number_of(call("compareExpected", {voles, omitted, keyword("statistic")})), 2.56, 1e-12);
+    Range ratio = block(1, 2, {num(1), num(1)});
+    ratio.is_reference = false;  // an inline array {1, 1}
+    EXPECT_NEAR(number_of(call("compareExpected", {voles, ratio, keyword("statistic")})), 2.56, 1e-12);
+    EXPECT_EQ(text_of(call("compareExpected", {voles, omitted, keyword("effect")})),
+              "unknown output 'effect'; valid: p, statistic, df, n, table, report");
+    Range bad = block(2, 1, {num(5), num(2.5)});
+    EXPECT_EQ(text_of(call("compareExpected", {bad, omitted, omitted})),
+              "B3 holds 2.5; counts must be whole numbers (use the raw counts, not percentages)");
+}
+
+}  // namespace
+}  // namespace quadrat::addin

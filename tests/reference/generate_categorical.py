@@ -1,0 +1,153 @@
+#!/usr/bin/python3
+"""Reference values for the categorical family (COMPARE.COUNTS, COMPARE.EXPECTED, FIT.LOGISTIC,
+FIT.FACTORIAL). Run with Debian's /usr/bin/python3 (SciPy 1.10, statsmodels 0.13):
+
+    /usr/bin/python3 tests/reference/generate_categorical.py
+
+writes tests/reference/categorical.json beside this script. Every data set is an invented field
+scenario or is drawn from a generator with a fixed seed. Where no library has the method (the
+Freeman-Halton exact test on r x c tables), the value is computed here from the published formula
+in exact rational arithmetic.
+"""
+import json
+import math
+import os
+from fractions import Fraction
+from itertools import product
+
+import numpy as np
+import scipy
+import scipy.stats as st
+from scipy.stats.contingency import association, expected_freq
+
+OUT = {"generator": "tests/reference/generate_categorical.py",
+       "scipy": scipy.__version__}
+
+
+def fnum(x):
+    return float(x)
+
+
+# ----------------------------------------------------------------------------------------------
+# COMPARE.COUNTS
+
+def freeman_halton_p(table):
+    """Freeman & Halton (1951): sum of P(table) over all tables with the observed margins whose
+    probability is no larger than the observed one (relative tolerance 1e-7), in exact fractions."""
+    R, C = len(table), len(table[0])
+    rows = [sum(r) for r in table]
+    cols = [sum(table[i][j] for i in range(R)) for j in range(C)]
+    N = sum(rows)
+    f = math.factorial
+    const = Fraction(math.prod(f(r) for r in rows) * math.prod(f(c) for c in cols), f(N))
+
+    def prob(t):
+        return const / math.prod(f(x) for row in t for x in row)
+
+    p_obs = prob(table)
+    bound = p_obs * Fraction(10**7 + 1, 10**7)
+    total = Fraction(0)
+
+    def columns_of(col_total, remaining):
+        # every way to split col_total among rows within the remaining row totals
+        def rec(i, left):
+            if i == R - 1:
+                if left <= remaining[i]:
+                    yield (left,)
+                return
+            for v in range(0, min(left, remaining[i]) + 1):
+                for rest in rec(i + 1, left - v):
+                    yield (v,) + rest
+        yield from rec(0, col_total)
+
+    def rec_cols(j, remaining, cols_so_far):
+        nonlocal total
+        if j == C - 1:
+            t = [list(r) for r in zip(*(cols_so_far + [tuple(remaining)]))]
+            p = prob(t)
+            if p <= bound:
+                total += p
+            return
+        for col in columns_of(cols[j], remaining):
+            rec_cols(j + 1, [remaining[i] - col[i] for i in range(R)], cols_so_far + [col])
+
+    rec_cols(0, rows, [])
+    return float(total)
+
+
+count_tables = {
+    # Tea tasting (Fisher's lady): 4 cups of each kind, 3 of each guessed right.
+    "tea": [[3, 1], [1, 3]],
+    # Mayfly nymphs present/absent in riffle and pool kick samples (invented).
+    "mayfly_2x2": [[23, 9], [12, 21]],
+    # A 2x2 with an empty cell: invasive snail found at 0 of 7 upstream sites (invented).
+    "snail_zero": [[0, 7], [5, 4]],
+    # Habitat (riffle, run, pool) by dominant substrate (gravel, sand, silt, bedrock) (invented).
+    "substrate_3x4": [[12, 7, 3, 9], [5, 14, 8, 2], [6, 3, 15, 11]],
+    # Marsh zone by bird guild, 2x3 (invented).
+    "guild_2x3": [[23, 12, 5], [9, 14, 17]],
+    # Small r x c tables for the Freeman-Halton exact test (invented).
+    "small_2x3": [[3, 1, 0], [1, 3, 4]],
+    "small_3x3": [[2, 0, 1], [1, 3, 0], [0, 1, 4]],
+    # Huge counts: regional survey totals (invented), far beyond any integer product of 32 bits.
+    "huge_2x2": [[1000000000, 1200000000], [1100000000, 900000000]],
+}
+# Random 2x2 tables with a fixed seed, for Fisher across a range of sizes and imbalances.
+rng = np.random.default_rng(20261202)
+for k in range(12):
+    scale = [5, 20, 200, 3000][k % 4]
+    count_tables[f"random_2x2_{k}"] = rng.integers(0, scale, size=(2, 2)).tolist()
+
+counts = {}
+for name, t in count_tables.items():
+    a = np.array(t, dtype=float)
+    if (a.sum(axis=0) == 0).any() or (a.sum(axis=1) == 0).any():
+        continue
+    entry = {"table": t}
+    chi2, p, dof, exp = st.chi2_contingency(a, correction=False)
+    entry["chi-square"] = {"statistic": fnum(chi2), "p": fnum(p), "df": int(dof)}
+    g, pg, _, _ = st.chi2_contingency(a, correction=False, lambda_="log-likelihood")
+    entry["g"] = {"statistic": fnum(g), "p": fnum(pg), "df": int(dof)}
+    if a.shape == (2, 2):
+        y, py, _, _ = st.chi2_contingency(a, correction=True)
+        entry["yates"] = {"statistic": fnum(y), "p": fnum(py), "df": 1}
+        if a.sum() < 2**30:
+            entry["fisher"] = {"p": fnum(st.fisher_exact(a.astype(np.int64), alternative="two-sided")[1])}
+    elif a.sum() <= 30:
+        entry["fisher"] = {"p": freeman_halton_p(t), "source": "Freeman-Halton, exact fractions"}
+    entry["effect"] = fnum(association(a.astype(np.int64), method="cramer"))
+    entry["n"] = fnum(a.sum())
+    e = expected_freq(a)
+    entry["smallest expected count"] = fnum(e.min())
+    entry["cells expected below 5"] = int((e < 5).sum())
+    counts[name] = entry
+OUT["counts"] = counts
+
+# ----------------------------------------------------------------------------------------------
+# COMPARE.EXPECTED
+
+expected_cases = {
+    # Sex ratio of a trapped vole sample against 1:1 (invented).
+    "sex_ratio": ([58, 42], [1, 1]),
+    # Four colour morphs of a beetle against a 9:3:3:1 ratio (invented).
+    "morphs_9331": ([301, 110, 95, 38], [9, 3, 3, 1]),
+    # Nest boxes used per side of a wood, equal shares (expected omitted) (invented).
+    "boxes_equal": ([12, 19, 25, 8], None),
+    # Expected given as proportions that do not sum to the observed total.
+    "proportions": ([30, 45, 25], [0.25, 0.5, 0.25]),
+}
+expected = {}
+for name, (obs, exp) in expected_cases.items():
+    o = np.array(obs, dtype=float)
+    e = np.full(len(o), o.sum() / len(o)) if exp is None else np.array(exp, float) / sum(exp) * o.sum()
+    chi2, p = st.chisquare(o, e)
+    expected[name] = {"observed": obs, "expected": exp, "statistic": fnum(chi2), "p": fnum(p),
+                      "df": len(o) - 1, "n": fnum(o.sum()), "smallest expected count": fnum(e.min())}
+OUT["expected"] = expected
+
+if __name__ == "__main__":
+    path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "categorical.json")
+    with open(path, "w") as fh:
+        json.dump(OUT, fh, indent=1, sort_keys=True)
+        fh.write("\n")
+    print("wrote", path)
