@@ -1,0 +1,71 @@
+// The result cache: same data and options → one computation; any change → a new one.
+// Behaviour checks, no numbers from a source.
+#include <gtest/gtest.h>
+
+#include "addin/memo.hpp"
+#include "core/refusal.hpp"
+
+namespace quadrat::addin {
+namespace {
+
+TestResult counted(int& calls) {
+    ++calls;
+    TestResult r;
+    r.test = "counting test";
+    r.add("p", 0.5);
+    return r;
+}
+
+Arguments arguments_with_output(const char* output) {
+    return {Range::column({1, 2, 3}), Range::text_column({"a", "a", "b"}), Range::scalar(Cell::make_text(output))};
+}
+
+TEST(ResultCache, DifferentOutputsOfTheSameTestComputeOnce) {
+    forget_all();
+    int calls = 0;
+    remembered("f", arguments_with_output("p"), 2, [&] { return counted(calls); });
+    remembered("f", arguments_with_output("statistic"), 2, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 1);
+    EXPECT_EQ(remembered_hits(), 1u);
+}
+
+TEST(ResultCache, AChangedCellOrFunctionRecomputes) {
+    forget_all();
+    int calls = 0;
+    Arguments a = arguments_with_output("p");
+    remembered("f", a, 2, [&] { return counted(calls); });
+    a[0].cells[1].number = 2.0000000000000004;  // the next double: still a different cell
+    remembered("f", a, 2, [&] { return counted(calls); });
+    remembered("g", a, 2, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 3);
+}
+
+TEST(ResultCache, IsBoundedAndKeepsTheMostRecent) {
+    forget_all();
+    int calls = 0;
+    for (int i = 0; i < 40; ++i) {
+        Arguments a = {Range::column({static_cast<double>(i)})};
+        remembered("f", a, 9, [&] { return counted(calls); });
+    }
+    EXPECT_EQ(calls, 40);
+    remembered("f", {Range::column({39.0})}, 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 40);  // the most recent is kept
+    remembered("f", {Range::column({0.0})}, 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 41);  // the oldest was evicted
+}
+
+TEST(ResultCache, ARefusalIsNotKept) {
+    forget_all();
+    int calls = 0;
+    const Arguments a = arguments_with_output("p");
+    auto refuse = [&]() -> TestResult {
+        ++calls;
+        throw Refusal("no");
+    };
+    EXPECT_THROW(remembered("f", a, 2, refuse), Refusal);
+    EXPECT_THROW(remembered("f", a, 2, refuse), Refusal);
+    EXPECT_EQ(calls, 2);
+}
+
+}  // namespace
+}  // namespace quadrat::addin
