@@ -1,0 +1,30 @@
+// CHECK.NORMAL, CHECK.VARIANCE, CHECK.QQ: read the arguments, call the core, pick the output.
+#include "addin/arguments.hpp"
+#include "addin/handlers.hpp"
+#include "core/data.hpp"
+#include "core/keywords.hpp"
+#include "core/normality.hpp"
+#include "core/result.hpp"
+
+namespace quadrat::addin {
+
+namespace {
+// The outputs a normality test has: `df` only for the χ² tests (dagostino, jarque-bera).
+const std::vector<std::string>& normality_outputs() {
+    static const std::vector<std::string> keys = {"p", "statistic", "df", "n", "table", "report"};
+    return keys;
+}
+}  // namespace
+
+Table check_normal(const Arguments& a) {
+    const Groups g = read_groups(a[0], a[1]);
+    const std::string method = match_keyword(keyword_argument(a[2], "method"), normality_methods(), "method");
+    return select_output(quadrat::check_normal(g, method), keyword_argument(a[3], "output"), normality_outputs());
+}
+
+Table check_qq(const Arguments& a) {
+    const Groups g = read_groups(a[0], a[1]);
+    return quadrat::check_qq(g, a[0].rows);
+}
+
+}  // namespace quadrat::addin
