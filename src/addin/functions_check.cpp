@@ -5,6 +5,7 @@
 #include "core/keywords.hpp"
 #include "core/normality.hpp"
 #include "core/result.hpp"
+#include "core/variance.hpp"
 
 namespace quadrat::addin {
 
@@ -20,6 +21,13 @@ Table check_normal(const Arguments& a) {
     const Groups g = read_groups(a[0], a[1]);
     const std::string method = match_keyword(keyword_argument(a[2], "method"), normality_methods(), "method");
     return select_output(quadrat::check_normal(g, method), keyword_argument(a[3], "output"), normality_outputs());
+}
+
+Table check_variance(const Arguments& a) {
+    const Groups g = read_groups(a[0], a[1]);
+    const std::string method = match_keyword(keyword_argument(a[2], "method"), variance_methods(), "method");
+    static const std::vector<std::string> outputs = {"p", "statistic", "df", "df2", "n", "table", "report"};
+    return select_output(quadrat::check_variance(g, method), keyword_argument(a[3], "output"), outputs);
 }
 
 Table check_qq(const Arguments& a) {

@@ -102,6 +102,28 @@ TEST(CheckNormalCell, WideFormatTestsResidualsFromColumnMeans) {
     EXPECT_EQ(number_of(t), 10);
 }
 
+TEST(CheckVarianceCell, DefaultIsBrownForsytheP) {
+    const Table p = call("checkVariance", {conductivity(), springs(), omitted(), omitted()});
+    const Table f = call("checkVariance", {conductivity(), springs(), keyword("brown-forsythe"), keyword("p")});
+    EXPECT_TRUE(std::isfinite(number_of(p)));
+    EXPECT_EQ(number_of(p), number_of(f));
+    EXPECT_EQ(number_of(call("checkVariance", {conductivity(), springs(), omitted(), keyword("df2")})), 9);
+    const Table t = call("checkVariance", {conductivity(), springs(), keyword("F-RATIO"), keyword("table")});
+    ASSERT_EQ(t.size(), 2u + 6u + 4u + 1u);  // header, test, statistic, df, df2, p, n, n dropped, 2 × (n, variance), ratio
+    EXPECT_EQ(std::get<std::string>(t[8][0]), "east: n");
+    EXPECT_EQ(std::get<double>(t[8][1]), 5);
+    EXPECT_EQ(std::get<std::string>(t[12][0]), "variance ratio");
+    const std::string report = text_of(call("checkVariance", {conductivity(), springs(), keyword("bartlett"), keyword("report")}));
+    EXPECT_NE(report.find("Bartlett"), std::string::npos) << report;
+}
+
+TEST(CheckVarianceCell, ThreeLabelsForFRatio) {
+    const Range values = Range::column({1, 2, 3, 4, 5, 7, 2, 9, 4});
+    const Range labels = Range::text_column({"high", "high", "high", "low", "low", "low", "mid", "mid", "mid"});
+    EXPECT_EQ(text_of(call("checkVariance", {values, labels, keyword("f-ratio"), omitted()})),
+              "groups has 3 labels (high, low, mid); method 'f-ratio' compares exactly 2");
+}
+
 TEST(CheckQQCell, RowAlignedTwoColumnsBlankBeyondN) {
     const Table t = call("checkQq", {conductivity(), omitted()});
     ASSERT_EQ(t.size(), 13u);  // as many rows as the input range, header and missing row included
@@ -118,6 +140,14 @@ TEST(CheckQQCell, RowAlignedTwoColumnsBlankBeyondN) {
     EXPECT_EQ(std::get<double>(t[10][1]), 420);
     EXPECT_TRUE(std::holds_alternative<std::monostate>(t[11][0]));
     EXPECT_TRUE(std::holds_alternative<std::monostate>(t[12][1]));
+}
+
+TEST(CheckQQCell, WideFormatIsRefused) {
+    Range wide;
+    wide.rows = 3;
+    wide.columns = 2;
+    for (double x : {1.0, 10.0, 2.0, 12.0, 4.0, 11.0}) wide.cells.push_back(Cell::make_number(x));
+    EXPECT_NE(text_of(call("checkQq", {wide, omitted()})).find("one column"), std::string::npos);
 }
 
 TEST(CheckQQCell, WithGroupsPlotsResiduals) {

@@ -206,7 +206,9 @@ def variance_cases():
     out = []
     for case in cases:
         gs = [np.asarray(v, dtype=float) for v in case["groups"].values()]
-        row = {"name": case["name"], "groups": {k: list(map(float, v)) for k, v in case["groups"].items()}}
+        # A list, not an object: JSON readers may sort an object's keys, and group order matters.
+        row = {"name": case["name"],
+               "groups": [{"name": k, "values": list(map(float, v))} for k, v in case["groups"].items()]}
         bf = scipy.stats.levene(*gs, center="median")
         lv = scipy.stats.levene(*gs, center="mean")
         ba = scipy.stats.bartlett(*gs)
