@@ -53,7 +53,7 @@ const std::vector<FunctionInfo>& registry() {
           {"method", "welch (default), pooled, ranks.", false},
           {"output", output_text, false},
           {"transform", transform_text, false}},
-         nullptr},
+         compare_groups},
         {"COMPARE.PAIRED", "comparePaired",
          "Tests the difference of readings paired by row (before/after, upstream/downstream), or one sample against a number. Default output: the p-value (0 to 1).",
          {{"first", "First reading of each pair (numbers).", true},
