@@ -61,7 +61,7 @@ const std::vector<FunctionInfo>& registry() {
           {"method", "t (default), signed-rank, sign.", false},
           {"output", output_text, false},
           {"transform", transform_text, false}},
-         nullptr},
+         compare_paired},
         {"COMPARE.POSTHOC", "comparePosthoc",
          "Every pair of groups with estimate, interval, statistic, p, adjusted p and significance, as an array (enter as array formula).",
          {{"values", values_text, true},

@@ -114,7 +114,7 @@ double omega_squared(const AnovaTable& t) {
 TestResult classic_one_way_anova(std::span<const std::vector<double>> groups) {
     const AnovaTable t = one_way_anova_table(groups);
     TestResult r;
-    r.test = "classic one-way ANOVA";
+    r.test = "Classic one-way ANOVA";
     r.add("statistic", t.f)
         .add("df", t.df_between)
         .add("df2", t.df_within)
@@ -302,9 +302,11 @@ TestResult compare_groups(const Groups& g, const std::string& method_given, Tran
                                       : ratio                             ? "geometric mean"
                                       : transform == Transform::none      ? "mean"
                                                                           : "mean (back-transformed)";
+    // Medians straight from the data (a monotone transform keeps the middle value; for an even
+    // count the data's own midpoint is what a person checks against), means back-transformed.
     for (std::size_t i = 0; i < k; ++i) {
         r.add(g.names[i] + ": n", static_cast<double>(g.values[i].size()));
-        r.add(g.names[i] + ": " + location_name, back_transform(transform, locations[i]));
+        r.add(g.names[i] + ": " + location_name, ranks ? median(g.values[i]) : back_transform(transform, locations[i]));
     }
 
     // The report sentence.

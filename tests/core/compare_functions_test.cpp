@@ -11,7 +11,7 @@ namespace quadrat::addin {
 namespace {
 
 Range text(const std::string& s) { return Range::scalar(Cell::make_text(s)); }
-[[maybe_unused]] Range number(double x) { return Range::scalar(Cell::make_number(x)); }
+Range number(double x) { return Range::scalar(Cell::make_number(x)); }
 const Range omitted = Range::omitted_argument();
 
 Table call(const char* method, const Arguments& a) {
@@ -81,6 +81,47 @@ TEST(CompareGroupsCell, Refusals) {
     EXPECT_EQ(text_of(call("compareGroups", {with_zero, nitrate_groups(), omitted, omitted, text("log")})).rfind("transform 'log'", 0), 0u);
     // Fewer arguments than the function has: the missing ones are omitted, not out of range.
     EXPECT_GT(number_of(call("compareGroups", {nitrate_values(), nitrate_groups()})), 0.0);
+}
+
+// Paired readings with header texts naming the two sides, a missing reading (dropped) and the
+// one-sample form with a typed number in `second`.
+Range before() {
+    Range r = Range::column({0, 8.1, 7.9, 8.4, 0, 8.8, 7.6});
+    r.cells[0] = Cell::make_text("above");
+    r.cells[4] = Cell::make_text("-");
+    return r;
+}
+Range after() {
+    Range r = Range::column({0, 7.5, 7.7, 7.6, 7.0, 8.1, 7.5});
+    r.cells[0] = Cell::make_text("below");
+    return r;
+}
+
+TEST(ComparePairedCell, PairsAndOneSample) {
+    const double p = number_of(call("comparePaired", {before(), after()}));
+    EXPECT_GT(p, 0.0);
+    EXPECT_LT(p, 1.0);
+    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), omitted, text("n")})), 5);
+    // Mean of the 5 differences 0.6, 0.2, 0.8, 0.7, 0.1 = 0.48 (by hand). Tolerance 1e-12.
+    EXPECT_NEAR(number_of(call("comparePaired", {before(), after(), text("t"), text("estimate")})), 0.48, 1e-12);
+    const std::string report = text_of(call("comparePaired", {before(), after(), omitted, text("report")}));
+    EXPECT_NE(report.find("(above − below; 95% CI"), std::string::npos) << report;
+    // Sign test: 5 of 5 positive.
+    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), text("SIGN"), text("statistic")})), 5);
+    // One sample: 5 used values of `above` against 8 (mean 8.16, by hand).
+    EXPECT_NEAR(number_of(call("comparePaired", {before(), number(8), omitted, text("estimate")})), 0.16, 1e-12);
+    const Table t = call("comparePaired", {before(), number(8), text("signed-rank"), text("table")});
+    ASSERT_GE(t.size(), 3u);
+    EXPECT_EQ(std::get<std::string>(t[1][1]).rfind("Wilcoxon one-sample signed-rank test", 0), 0u);
+}
+
+TEST(ComparePairedCell, Refusals) {
+    EXPECT_EQ(text_of(call("comparePaired", {before(), omitted})).rfind("second is missing", 0), 0u);
+    EXPECT_EQ(text_of(call("comparePaired", {before(), after(), text("wilcoxon")})),
+              "unknown method 'wilcoxon'; valid: t, signed-rank, sign");
+    EXPECT_EQ(text_of(call("comparePaired", {before(), text("seven")})).rfind("second must be", 0), 0u);
+    Range short_after = Range::column({1, 2, 3});
+    EXPECT_EQ(text_of(call("comparePaired", {before(), short_after})).find("same number of rows") != std::string::npos, true);
 }
 
 }  // namespace

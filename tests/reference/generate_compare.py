@@ -181,8 +181,50 @@ def paired_reference(d, exact):
         out_sr["ci-high"] = walsh[M - k]
     pos = int((nz > 0).sum())
     b = st.binomtest(pos, n, 0.5, alternative='two-sided')
-    out_sign = {"statistic": pos, "p": float(b.pvalue), "n": n, "estimate": float(np.median(nz))}
+    out_sign = {"statistic": pos, "p": float(b.pvalue), "n": n, "estimate": float(np.median(nz)),
+                "effect": 4 * tplus / (n * (n + 1)) - 1}
+    # Order-statistic interval at the binomial critical value (largest k with P(X <= k-1) <= alpha/2).
+    ks = [k for k in range(1, n + 1) if st.binom.cdf(k - 1, n, 0.5) <= alpha_half]
+    if ks:
+        k = max(ks)
+        out_sign["ci-low"], out_sign["ci-high"] = float(nz[k - 1]), float(nz[n - k])
     return {"t": out_t, "signed-rank": out_sr, "sign": out_sign}
+
+
+# ---------------------------------------------------------------- NIST StRD univariate ceilings
+def strd_univariate_ceilings():
+    """LRE of the exact mean and SD of the binary64 inputs against NIST's certified values: what a
+    double-precision program can reach at best (the README gives this ceiling for ANOVA and
+    regression only). Exact rational arithmetic (fractions), square root in 50-digit decimal."""
+    from decimal import Decimal, getcontext
+    getcontext().prec = 50
+    folder = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..", "..", "shared",
+                          "reference", "nist-strd", "univariate")
+    out = {}
+    for name in sorted(os.listdir(folder)):
+        if not name.endswith(".dat"):
+            continue
+        lines = open(os.path.join(folder, name)).read().splitlines()
+        cert = {}
+        for line in lines:
+            if "ybar:" in line:
+                cert["mean"] = Decimal(line.split("ybar:")[1].split()[0])
+            if " s:" in line and "Deviation" in line:
+                cert["sd"] = Decimal(line.split(" s:")[1].split()[0])
+        start = [i for i, l in enumerate(lines) if l.startswith("Data: Y")][0] + 2
+        xs = [Fraction(float(l.split()[0])) for l in lines[start:] if l.strip()]
+        n = len(xs)
+        mean = sum(xs) / n
+        var = sum((x - mean) ** 2 for x in xs) / (n - 1)
+        exact_mean = Decimal(mean.numerator) / Decimal(mean.denominator)
+        exact_sd = (Decimal(var.numerator) / Decimal(var.denominator)).sqrt()
+
+        def lre(x, c):
+            if x == c:
+                return 15.0
+            return min(15.0, float(-(abs(x - c) / abs(c)).log10()))
+        out[name[:-4]] = {"n": n, "mean": lre(exact_mean, cert["mean"]), "sd": lre(exact_sd, cert["sd"])}
+    return out
 
 
 def main():
@@ -260,8 +302,11 @@ def main():
     ref = paired_reference(ph - 7.0, True)
     cases["ph"] = {"first": flt(ph), "second": 7.0, **ref}
 
+    strd = strd_univariate_ceilings()
+
     out = {"generator": "tests/reference/generate_compare.py", "scipy": scipy.__version__,
-           "statsmodels": statsmodels.__version__, "numpy": np.__version__, "level": LEVEL, "cases": cases}
+           "statsmodels": statsmodels.__version__, "numpy": np.__version__, "level": LEVEL, "cases": cases,
+           "strd_univariate_ceiling": strd}
     path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "compare.json")
     with open(path, "w") as f:
         json.dump(out, f, indent=1)
