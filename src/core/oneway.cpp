@@ -1,0 +1,339 @@
+#include "oneway.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+#include <boost/math/distributions/chi_squared.hpp>
+#include <boost/math/distributions/fisher_f.hpp>
+
+#include "keywords.hpp"
+#include "ranks.hpp"
+#include "refusal.hpp"
+#include "report.hpp"
+#include "summary.hpp"
+#include "two_groups.hpp"
+
+namespace quadrat {
+
+namespace {
+
+// Every group scaled by one power of two (exact), so that squares of huge or tiny values stay
+// finite; sums of squares come back multiplied by 1/scale².
+struct ScaledGroups {
+    std::vector<std::vector<double>> groups;
+    double scale = 1;
+};
+
+ScaledGroups scale_groups(std::span<const std::vector<double>> groups) {
+    std::vector<std::span<const double>> views(groups.begin(), groups.end());
+    ScaledGroups s;
+    s.scale = power_of_two_scale(views);
+    s.groups.assign(groups.begin(), groups.end());
+    for (auto& g : s.groups)
+        for (double& x : g) x *= s.scale;
+    return s;
+}
+
+void require_k_groups(std::span<const std::vector<double>> groups) {
+    if (groups.size() < 2) throw Refusal("needs at least 2 groups, found " + std::to_string(groups.size()));
+    for (std::size_t i = 0; i < groups.size(); ++i)
+        if (groups[i].size() < 2)
+            throw Refusal("group " + std::to_string(i + 1) + " has " + std::to_string(groups[i].size()) +
+                          " value(s); each group needs at least 2");
+}
+
+std::vector<double> group_means(std::span<const std::vector<double>> groups) {
+    std::vector<double> means;
+    for (const auto& g : groups) means.push_back(mean(g));
+    return means;
+}
+
+std::vector<double> group_medians(std::span<const std::vector<double>> groups) {
+    std::vector<double> medians;
+    for (const auto& g : groups) medians.push_back(median(g));
+    return medians;
+}
+
+// Largest minus smallest of the group locations.
+double location_range(const std::vector<double>& locations) {
+    const auto [lowest, highest] = std::minmax_element(locations.begin(), locations.end());
+    return *highest - *lowest;
+}
+
+std::size_t total_count(std::span<const std::vector<double>> groups) {
+    std::size_t n = 0;
+    for (const auto& g : groups) n += g.size();
+    return n;
+}
+
+}  // namespace
+
+AnovaTable one_way_anova_table(std::span<const std::vector<double>> raw_groups) {
+    require_k_groups(raw_groups);
+    ScaledGroups scaled = scale_groups(raw_groups);
+    auto& groups = scaled.groups;
+    const std::size_t k = groups.size(), n = total_count(groups);
+
+    // Centre everything on the grand mean first: the deviations carry all the digits that matter.
+    std::vector<double> all;
+    all.reserve(n);
+    for (const auto& g : groups) all.insert(all.end(), g.begin(), g.end());
+    const double centre = mean(all);
+    for (auto& g : groups)
+        for (double& x : g) x -= centre;
+    for (double& x : all) x -= centre;
+    const double grand = mean(all);  // ≈ 0, the residual error of `centre`
+
+    Accumulator between, within;
+    for (const auto& g : groups) {
+        const double m = mean(g);
+        between.add(static_cast<double>(g.size()) * (m - grand) * (m - grand));
+        within.add(sum_of_squares(g, m));
+    }
+    const double unscale = 1.0 / (scaled.scale * scaled.scale);
+    AnovaTable t;
+    t.ss_between = between.sum() * unscale;
+    t.ss_within = within.sum() * unscale;
+    t.df_between = static_cast<double>(k - 1);
+    t.df_within = static_cast<double>(n - k);
+    if (!(within.sum() > 0))
+        throw Refusal("every group has zero spread (all values equal within each group); the F-test needs spread");
+    t.ms_between = t.ss_between / t.df_between;
+    t.ms_within = t.ss_within / t.df_within;
+    // F from the scaled sums, so that it stays finite even where the unscaled SS would not.
+    t.f = (between.sum() / t.df_between) / (within.sum() / t.df_within);
+    const boost::math::fisher_f dist(t.df_between, t.df_within);
+    t.p = cdf(complement(dist, t.f));
+    return t;
+}
+
+double omega_squared(const AnovaTable& t) {
+    return (t.ss_between - t.df_between * t.ms_within) / (t.ss_between + t.ss_within + t.ms_within);
+}
+
+TestResult classic_one_way_anova(std::span<const std::vector<double>> groups) {
+    const AnovaTable t = one_way_anova_table(groups);
+    TestResult r;
+    r.test = "Classic one-way ANOVA";
+    r.add("statistic", t.f)
+        .add("df", t.df_between)
+        .add("df2", t.df_within)
+        .add("p", t.p)
+        .add("n", static_cast<double>(total_count(groups)))
+        .add("estimate", location_range(group_means(groups)))
+        .add("effect", omega_squared(t));
+    return r;
+}
+
+TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) {
+    require_k_groups(raw_groups);
+    const ScaledGroups scaled = scale_groups(raw_groups);
+    const auto& groups = scaled.groups;
+    const double k = static_cast<double>(groups.size());
+
+    std::vector<double> means, weights;
+    Accumulator weight_total;
+    for (std::size_t i = 0; i < groups.size(); ++i) {
+        const double m = mean(groups[i]);
+        const double var = sum_of_squares(groups[i], m) / static_cast<double>(groups[i].size() - 1);
+        if (!(var > 0))
+            throw Refusal("group " + std::to_string(i + 1) +
+                          " has zero spread; Welch's ANOVA weights each group by n/variance — use method 'pooled' or 'ranks'");
+        means.push_back(m);
+        weights.push_back(static_cast<double>(groups[i].size()) / var);
+        weight_total.add(weights.back());
+    }
+    const double w = weight_total.sum();
+    // Weighted grand mean, centred on the first group's mean so the sum carries only differences.
+    Accumulator weighted;
+    for (std::size_t i = 0; i < means.size(); ++i) weighted.add(weights[i] * (means[i] - means[0]));
+    const double weighted_mean = means[0] + weighted.sum() / w;
+    Accumulator spread, lambda;
+    for (std::size_t i = 0; i < means.size(); ++i) {
+        const double d = means[i] - weighted_mean;
+        spread.add(weights[i] * d * d);
+        const double share = 1 - weights[i] / w;
+        lambda.add(share * share / static_cast<double>(groups[i].size() - 1));
+    }
+    const double a = spread.sum() / (k - 1);
+    const double b = 1 + 2 * (k - 2) / (k * k - 1) * lambda.sum();
+    const double f = a / b;
+    const double df2 = (k * k - 1) / (3 * lambda.sum());
+    const boost::math::fisher_f dist(k - 1, df2);
+
+    TestResult r;
+    r.test = "Welch's one-way ANOVA";
+    r.add("statistic", f)
+        .add("df", k - 1)
+        .add("df2", df2)
+        .add("p", cdf(complement(dist, f)))
+        .add("n", static_cast<double>(total_count(raw_groups)))
+        .add("estimate", location_range(group_means(raw_groups)))
+        .add("effect", omega_squared(one_way_anova_table(raw_groups)));
+    return r;
+}
+
+TestResult kruskal_wallis_test(std::span<const std::vector<double>> groups) {
+    require_k_groups(groups);
+    std::vector<double> all;
+    for (const auto& g : groups) all.insert(all.end(), g.begin(), g.end());
+    const double n = static_cast<double>(all.size());
+    const Ranking ranking = rank_with_ties(all);
+    const double tie_correction = 1 - ranking.tie_term / (n * n * n - n);
+    if (!(tie_correction > 0)) throw Refusal("all values are equal; a rank test needs at least two different values");
+
+    // H = 12/(N(N+1))·Σ n_i (R̄_i − (N+1)/2)², centred on the mean rank, divided by the tie correction.
+    Accumulator spread;
+    std::size_t offset = 0;
+    for (const auto& g : groups) {
+        Accumulator rank_sum;
+        for (std::size_t j = 0; j < g.size(); ++j) rank_sum.add(ranking.ranks[offset + j]);
+        offset += g.size();
+        const double size = static_cast<double>(g.size());
+        const double d = rank_sum.sum() / size - (n + 1) / 2;
+        spread.add(size * d * d);
+    }
+    const double h = 12 / (n * (n + 1)) * spread.sum() / tie_correction;
+    const double df = static_cast<double>(groups.size() - 1);
+    const boost::math::chi_squared dist(df);
+
+    TestResult r;
+    r.test = "Kruskal–Wallis test";
+    r.add("statistic", h)
+        .add("df", df)
+        .add("p", cdf(complement(dist, h)))
+        .add("n", n)
+        .add("estimate", location_range(group_medians(groups)))
+        .add("effect", h / (n - 1));
+    return r;
+}
+
+namespace {
+
+// Inserts a quantity right after `after` (at the end when absent).
+void insert_after(TestResult& r, const std::string& after, Quantity q) {
+    auto it = std::find_if(r.quantities.begin(), r.quantities.end(), [&](const Quantity& x) { return x.label == after; });
+    r.quantities.insert(it == r.quantities.end() ? it : it + 1, std::move(q));
+}
+
+void replace_number(TestResult& r, const std::string& label, double value) {
+    for (auto& q : r.quantities)
+        if (q.label == label && std::holds_alternative<double>(q.value)) q.value = value;
+}
+
+std::string scale_words(Transform t) {
+    return t == Transform::log1p ? "the log(x+1) scale" : "the " + transform_keyword(t) + " scale";
+}
+
+// "0.12 (95% CI 0.05 to 0.19)" parts, or the text the interval cells hold.
+std::string interval_words(const TestResult& r, double level) {
+    const CellValue* low = r.find("ci-low");
+    const CellValue* high = r.find("ci-high");
+    if (!low || !high) return {};
+    if (std::holds_alternative<std::string>(*low)) return "; " + std::get<std::string>(*low);
+    return "; " + format_level(level) + " CI " + format_number(std::get<double>(*low)) + " to " +
+           format_number(std::get<double>(*high));
+}
+
+}  // namespace
+
+TestResult compare_groups(const Groups& g, const std::string& method_given, Transform transform, double level) {
+    const std::string method = match_keyword(method_given, {"welch", "pooled", "ranks"}, "method");
+    const std::size_t k = g.group_count();
+    if (k < 2)
+        throw Refusal("needs at least 2 groups, found 1 (" + (k ? g.names[0] : std::string("none")) +
+                      "); give group labels in groups, or two or more columns of values");
+    for (std::size_t i = 0; i < k; ++i)
+        if (g.values[i].size() < 2)
+            throw Refusal("group '" + g.names[i] + "' has " + std::to_string(g.values[i].size()) +
+                          (g.values[i].size() == 1 ? " value" : " values") + "; each group needs at least 2");
+    std::vector<std::vector<double>> values = g.values;
+    apply_transform(transform, values);
+    const bool ranks = method == "ranks";
+    // Zero spread named by group, before the methods' own generic refusals.
+    if (method == "welch" && k > 2)
+        for (std::size_t i = 0; i < k; ++i)
+            if (std::all_of(values[i].begin(), values[i].end(), [&](double x) { return x == values[i][0]; }))
+                throw Refusal("group '" + g.names[i] +
+                              "' has zero spread; Welch's ANOVA weights each group by n/variance — use method 'pooled' or 'ranks'");
+
+    TestResult r;
+    if (k == 2) {
+        if (method == "welch") r = welch_t_test(values[0], values[1], level);
+        if (method == "pooled") r = pooled_t_test(values[0], values[1], level);
+        if (ranks) r = rank_sum_test(values[0], values[1], level);
+    } else {
+        if (method == "welch") r = welch_one_way_anova(values);
+        if (method == "pooled") r = classic_one_way_anova(values);
+        if (ranks) r = kruskal_wallis_test(values);
+    }
+    insert_after(r, "n", {"n dropped", static_cast<double>(g.n_dropped)});
+
+    // Which groups the estimate compares: first and second, or the largest and smallest location.
+    const std::vector<double> locations = ranks ? group_medians(values) : group_means(values);
+    std::size_t high = 0, low = 1;
+    if (k > 2) {
+        high = static_cast<std::size_t>(std::max_element(locations.begin(), locations.end()) - locations.begin());
+        low = static_cast<std::size_t>(std::min_element(locations.begin(), locations.end()) - locations.begin());
+    }
+    const bool ratio = is_ratio_scale(transform);
+    const std::string direction = g.names[high] + (ratio ? " ÷ " : " − ") + g.names[low];
+
+    // Back to the data's scale: a log difference becomes a ratio; log1p and sqrt differences stay.
+    if (ratio)
+        for (const char* label : {"estimate", "ci-low", "ci-high"}) replace_number(r, label, back_transform(transform, r.number(label)));
+    if (transform != Transform::none) {
+        std::string note = transform_keyword(transform) + ": the test ran on transformed values; ";
+        const std::string subject = k == 2 ? (ranks ? "the estimate and interval are the Hodges–Lehmann shift"
+                                                    : "the estimate and interval are the mean difference")
+                                           : (ranks ? "the estimate is the largest minus smallest median"
+                                                    : "the estimate is the largest minus smallest mean");
+        if (ratio)
+            note += k == 2 ? "the estimate and interval are a ratio (" + direction + ")" + (ranks ? "" : " of geometric means")
+                           : "the estimate is the ratio of the largest to the smallest " +
+                                 std::string(ranks ? "median" : "geometric mean") + " (" + direction + ")";
+        else
+            note += subject + " on " + scale_words(transform);
+        r.add("transform", note);
+    }
+
+    // Per-group rows on the data's scale.
+    const std::string location_name = ranks                                ? "median"
+                                      : ratio                             ? "geometric mean"
+                                      : transform == Transform::none      ? "mean"
+                                                                          : "mean (back-transformed)";
+    // Medians straight from the data (a monotone transform keeps the middle value; for an even
+    // count the data's own midpoint is what a person checks against), means back-transformed.
+    for (std::size_t i = 0; i < k; ++i) {
+        r.add(g.names[i] + ": n", static_cast<double>(g.values[i].size()));
+        r.add(g.names[i] + ": " + location_name, ranks ? median(g.values[i]) : back_transform(transform, locations[i]));
+    }
+
+    // The report sentence.
+    const double statistic = r.number("statistic");
+    std::string s = r.test + ": ";
+    if (k == 2 && !ranks) s += "t(" + format_df(r.number("df")) + ") = " + format_number(statistic);
+    if (k == 2 && ranks) s += "U = " + format_df(statistic);
+    if (k > 2 && !ranks) s += "F(" + format_df(r.number("df")) + ", " + format_df(r.number("df2")) + ") = " + format_number(statistic);
+    if (k > 2 && ranks) s += "H(" + format_df(r.number("df")) + ") = " + format_number(statistic);
+    s += ", " + format_p(r.number("p")) + "; ";
+    const std::string on_scale = (!ratio && transform != Transform::none) ? " on " + scale_words(transform) : "";
+    const double estimate = r.number("estimate");
+    if (k == 2) {
+        s += ratio ? (ranks ? "Hodges–Lehmann ratio " : "ratio of geometric means ")
+                   : (ranks ? "Hodges–Lehmann shift" + on_scale + " " : "mean difference" + on_scale + " ");
+        s += format_number(estimate) + " (" + direction + interval_words(r, level) + "), ";
+        s += ranks ? "rank-biserial r = " : "Hedges' g = ";
+    } else {
+        const std::string what = ranks ? "median" : "mean";
+        s += ratio ? "ratio of largest to smallest " + std::string(ranks ? "median " : "geometric mean ")
+                   : "largest minus smallest " + what + on_scale + " ";
+        s += format_number(estimate) + " (" + direction + "), ";
+        s += ranks ? "ε² = " : "ω² = ";
+    }
+    s += format_number(r.number("effect"));
+    r.report = s;
+    return r;
+}
+
+}  // namespace quadrat

@@ -1,0 +1,128 @@
+// Glue tests of COMPARE.GROUPS and COMPARE.PAIRED: cells in through the registry and the fence,
+// what the cell shows out. Numbers are checked in the core tests; here the wiring and refusals.
+#include <gtest/gtest.h>
+
+#include <cmath>
+
+#include "addin/registry.hpp"
+#include "core/cells.hpp"
+
+namespace quadrat::addin {
+namespace {
+
+Range text(const std::string& s) { return Range::scalar(Cell::make_text(s)); }
+Range number(double x) { return Range::scalar(Cell::make_number(x)); }
+const Range omitted = Range::omitted_argument();
+
+Table call(const char* method, const Arguments& a) {
+    const FunctionInfo* f = find_function(method);
+    EXPECT_NE(f, nullptr);
+    EXPECT_NE(f->handler, nullptr) << method << " has no handler";
+    return call_fenced(*f, a);
+}
+
+double number_of(const Table& t) {
+    EXPECT_EQ(t.size(), 1u);
+    if (t.size() != 1 || !std::holds_alternative<double>(t[0][0])) return std::nan("");
+    return std::get<double>(t[0][0]);
+}
+
+std::string text_of(const Table& t) {
+    if (t.size() != 1 || !std::holds_alternative<std::string>(t[0][0])) return "(not a text)";
+    return std::get<std::string>(t[0][0]);
+}
+
+// Long format with a header row, a dropped row (n/a) and an empty row: the catalogue's data rules.
+Range nitrate_values() {
+    Range r = Range::column({0, 1.2, 1.4, 0, 1.1, 1.6, 0.8, 0.7, 0.9, 1.0});
+    r.cells[0] = Cell::make_text("nitrate");
+    r.cells[3] = Cell::make_text("n/a");
+    return r;
+}
+Range nitrate_groups() {
+    return Range::text_column({"site", "up", "up", "up", "up", "up", "down", "down", "down", "down"});
+}
+
+TEST(CompareGroupsCell, DefaultIsWelchP) {
+    const Table p = call("compareGroups", {nitrate_values(), nitrate_groups()});
+    const double value = number_of(p);
+    EXPECT_GT(value, 0.0);
+    EXPECT_LT(value, 1.0);
+    // n counts used rows (8), n dropped the n/a row (1): FUNCTIONS.md "Missing data".
+    EXPECT_EQ(number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("n")})), 8);
+    const Table t = call("compareGroups", {nitrate_values(), nitrate_groups(), text("Pooled"), text("table")});
+    ASSERT_GE(t.size(), 8u);
+    EXPECT_EQ(std::get<std::string>(t[0][0]), "quantity");
+    EXPECT_EQ(std::get<std::string>(t[1][1]), "Student's two-sample t-test (pooled variance)");
+    EXPECT_EQ(std::get<std::string>(t[6][0]), "n dropped");
+    EXPECT_EQ(std::get<double>(t[6][1]), 1.0);
+    const std::string report = text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("report")}));
+    EXPECT_EQ(report.rfind("Welch two-sample t-test: t(", 0), 0u) << report;
+    EXPECT_NE(report.find("(up − down; 95% CI"), std::string::npos) << report;
+}
+
+TEST(CompareGroupsCell, RanksAndTransform) {
+    const double u = number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), text("ranks"), text("statistic")}));
+    // U₁ of {1.2,1.4,1.1,1.6} against {0.8,0.7,0.9,1.0}: every "up" value beats every "down" one, U₁ = 16 (by hand).
+    EXPECT_EQ(u, 16.0);
+    const double ratio = number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("estimate"), text("log")}));
+    EXPECT_GT(ratio, 1.0);
+}
+
+TEST(CompareGroupsCell, Refusals) {
+    EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), text("anova")})),
+              "unknown method 'anova'; valid: welch, pooled, ranks");
+    EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("slope")})).rfind("unknown output", 0), 0u);
+    Range one = Range::text_column({"site", "up", "up", "up", "up", "up", "up", "up", "up", "up"});
+    EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), one})).rfind("needs at least 2 groups", 0), 0u);
+    // A refusal, never a number, when the transform cannot take a value.
+    Range with_zero = nitrate_values();
+    with_zero.cells[1] = Cell::make_number(0.0);
+    EXPECT_EQ(text_of(call("compareGroups", {with_zero, nitrate_groups(), omitted, omitted, text("log")})).rfind("transform 'log'", 0), 0u);
+    // Fewer arguments than the function has: the missing ones are omitted, not out of range.
+    EXPECT_GT(number_of(call("compareGroups", {nitrate_values(), nitrate_groups()})), 0.0);
+}
+
+// Paired readings with header texts naming the two sides, a missing reading (dropped) and the
+// one-sample form with a typed number in `second`.
+Range before() {
+    Range r = Range::column({0, 8.1, 7.9, 8.4, 0, 8.8, 7.6});
+    r.cells[0] = Cell::make_text("above");
+    r.cells[4] = Cell::make_text("-");
+    return r;
+}
+Range after() {
+    Range r = Range::column({0, 7.5, 7.7, 7.6, 7.0, 8.1, 7.5});
+    r.cells[0] = Cell::make_text("below");
+    return r;
+}
+
+TEST(ComparePairedCell, PairsAndOneSample) {
+    const double p = number_of(call("comparePaired", {before(), after()}));
+    EXPECT_GT(p, 0.0);
+    EXPECT_LT(p, 1.0);
+    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), omitted, text("n")})), 5);
+    // Mean of the 5 differences 0.6, 0.2, 0.8, 0.7, 0.1 = 0.48 (by hand). Tolerance 1e-12.
+    EXPECT_NEAR(number_of(call("comparePaired", {before(), after(), text("t"), text("estimate")})), 0.48, 1e-12);
+    const std::string report = text_of(call("comparePaired", {before(), after(), omitted, text("report")}));
+    EXPECT_NE(report.find("(above − below; 95% CI"), std::string::npos) << report;
+    // Sign test: 5 of 5 positive.
+    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), text("SIGN"), text("statistic")})), 5);
+    // One sample: 5 used values of `above` against 8 (mean 8.16, by hand).
+    EXPECT_NEAR(number_of(call("comparePaired", {before(), number(8), omitted, text("estimate")})), 0.16, 1e-12);
+    const Table t = call("comparePaired", {before(), number(8), text("signed-rank"), text("table")});
+    ASSERT_GE(t.size(), 3u);
+    EXPECT_EQ(std::get<std::string>(t[1][1]).rfind("Wilcoxon one-sample signed-rank test", 0), 0u);
+}
+
+TEST(ComparePairedCell, Refusals) {
+    EXPECT_EQ(text_of(call("comparePaired", {before(), omitted})).rfind("second is missing", 0), 0u);
+    EXPECT_EQ(text_of(call("comparePaired", {before(), after(), text("wilcoxon")})),
+              "unknown method 'wilcoxon'; valid: t, signed-rank, sign");
+    EXPECT_EQ(text_of(call("comparePaired", {before(), text("seven")})).rfind("second must be", 0), 0u);
+    Range short_after = Range::column({1, 2, 3});
+    EXPECT_EQ(text_of(call("comparePaired", {before(), short_after})).find("same number of rows") != std::string::npos, true);
+}
+
+}  // namespace
+}  // namespace quadrat::addin
