@@ -1,0 +1,44 @@
+// FIT.LINEAR, FIT.POINTS, CHECK.MODEL and RELATE.CORRELATION: read the cells, call the core, pick
+// the output. Nothing statistical here.
+#include "addin/arguments.hpp"
+#include "addin/handlers.hpp"
+#include "core/correlation.hpp"
+#include "core/diagnostics.hpp"
+#include "core/keywords.hpp"
+#include "core/linear_model.hpp"
+
+namespace quadrat::addin {
+
+namespace {
+LinearModel fit_regression(const RegressionData& data) {
+    return fit_least_squares(data.y, data.predictors, data.names, true);
+}
+}  // namespace
+
+Table fit_linear(const Arguments& a) {
+    const RegressionData data = read_regression(a[0], a[1]);
+    const std::string output = match_keyword(keyword_argument(a[2], "output"), linear_outputs(), "output");
+    const double level = level_argument(a[3]);
+    return linear_output(fit_regression(data), data.n_dropped, output, level);
+}
+
+Table fit_points(const Arguments& a) {
+    const RegressionData data = read_regression(a[0], a[1]);
+    const std::string given = keyword_argument(a[2], "what");
+    const std::string what = given.empty() ? given : match_keyword(given, point_columns(), "what");
+    return fit_points_table(fit_regression(data), data, what);
+}
+
+Table check_model(const Arguments& a) {
+    const RegressionData data = read_regression(a[0], a[1]);
+    const std::string output = match_keyword(keyword_argument(a[2], "output"), check_model_outputs(), "output");
+    return check_model_output(fit_regression(data), data, output);
+}
+
+Table relate_correlation(const Arguments& a) {
+    const std::string method = match_keyword(keyword_argument(a[2], "method"), {"pearson", "spearman", "kendall"}, "method");
+    return select_output(quadrat::relate_correlation(a[0], a[1], method), keyword_argument(a[3], "output"),
+                         standard_outputs());
+}
+
+}  // namespace quadrat::addin

@@ -1,0 +1,234 @@
+#include "correlation.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdint>
+#include <limits>
+#include <numeric>
+#include <vector>
+
+#include <boost/math/distributions/normal.hpp>
+#include <boost/math/distributions/students_t.hpp>
+
+#include "data.hpp"
+#include "ranks.hpp"
+#include "refusal.hpp"
+#include "report.hpp"
+#include "summary.hpp"
+
+namespace quadrat {
+
+namespace {
+
+constexpr double not_defined = std::numeric_limits<double>::quiet_NaN();
+
+void refuse_unusable(std::span<const double> x, std::span<const double> y) {
+    if (x.size() != y.size()) throw Refusal("x and y must have the same number of values");
+    if (x.size() < 3) throw Refusal("needs at least 3 rows with both x and y, found " + std::to_string(x.size()));
+    const auto constant = [](std::span<const double> v) {
+        return std::all_of(v.begin(), v.end(), [&](double a) { return a == v[0]; });
+    };
+    if (constant(x)) throw Refusal("x is constant (every used row holds " + format_number(x[0]) + "); a correlation needs spread in both");
+    if (constant(y)) throw Refusal("y is constant (every used row holds " + format_number(y[0]) + "); a correlation needs spread in both");
+}
+
+// r from centred cross-products, with compensated sums.
+double pearson_r(std::span<const double> x, std::span<const double> y) {
+    const double mx = mean(x), my = mean(y);
+    Accumulator sxy;
+    for (std::size_t i = 0; i < x.size(); ++i) sxy.add((x[i] - mx) * (y[i] - my));
+    const double r = sxy.sum() / std::sqrt(sum_of_squares(x, mx) * sum_of_squares(y, my));
+    return std::clamp(r, -1.0, 1.0);
+}
+
+// t = r √(df/(1 − r²)) and its two-sided p; |r| = 1 gives t infinite and p = 0.
+void add_t_test(TestResult& result, double r, double n) {
+    const double df = n - 2.0;
+    const double one_minus = (1.0 - r) * (1.0 + r);
+    const double t = one_minus > 0 ? r * std::sqrt(df / one_minus) : std::copysign(std::numeric_limits<double>::infinity(), r);
+    const double p = std::isfinite(t)
+                         ? 2.0 * boost::math::cdf(boost::math::complement(boost::math::students_t(df), std::fabs(t)))
+                         : 0.0;
+    result.add("statistic", t);
+    result.add("df", df);
+    result.add("p", p);
+}
+
+// Inversions of v (pairs i < j with v[i] > v[j]), counted while merge-sorting v in place.
+std::uint64_t count_inversions(std::vector<double>& v, std::vector<double>& buffer, std::size_t lo, std::size_t hi) {
+    if (hi - lo < 2) return 0;
+    const std::size_t mid = lo + (hi - lo) / 2;
+    std::uint64_t swaps = count_inversions(v, buffer, lo, mid) + count_inversions(v, buffer, mid, hi);
+    std::size_t i = lo, j = mid, out = lo;
+    while (i < mid && j < hi) {
+        if (v[j] < v[i]) {
+            swaps += mid - i;  // v[j] jumps every remaining element of the left half
+            buffer[out++] = v[j++];
+        } else {
+            buffer[out++] = v[i++];
+        }
+    }
+    while (i < mid) buffer[out++] = v[i++];
+    while (j < hi) buffer[out++] = v[j++];
+    std::copy(buffer.begin() + static_cast<std::ptrdiff_t>(lo), buffer.begin() + static_cast<std::ptrdiff_t>(hi),
+              v.begin() + static_cast<std::ptrdiff_t>(lo));
+    return swaps;
+}
+
+// Tie sums over runs of equal values in a sorted sequence: Σ t(t−1)/2, Σ t(t−1)(t−2),
+// Σ t(t−1)(2t+5).
+struct TieSums {
+    double pairs = 0, cubic = 0, variance = 0;
+};
+template <typename Equal>
+TieSums tie_sums(std::size_t n, Equal equal) {
+    TieSums s;
+    std::size_t run = 1;
+    for (std::size_t i = 1; i <= n; ++i) {
+        if (i < n && equal(i - 1, i)) {
+            ++run;
+            continue;
+        }
+        const double t = static_cast<double>(run);
+        s.pairs += t * (t - 1) / 2;
+        s.cubic += t * (t - 1) * (t - 2);
+        s.variance += t * (t - 1) * (2 * t + 5);
+        run = 1;
+    }
+    return s;
+}
+
+// P(I ≤ c) for the number of inversions I of a random permutation of n (Mahonian numbers),
+// by the recurrence of adding one element at a time, kept as probabilities (each step divides
+// by j). O(n c); called only for n < 50, so c < 613.
+double inversions_cdf(std::size_t n, std::size_t c) {
+    std::vector<double> f(c + 1, 0.0), next(c + 1);
+    f[0] = 1.0;
+    for (std::size_t j = 2; j <= n; ++j) {
+        // next[m] = (f[m] + f[m−1] + … + f[m−j+1]) / j
+        double window = 0;
+        for (std::size_t m = 0; m <= c; ++m) {
+            window += f[m];
+            if (m >= j) window -= f[m - j];
+            next[m] = window / static_cast<double>(j);
+        }
+        f.swap(next);
+    }
+    double total = 0;
+    for (double v : f) total += v;
+    return total;
+}
+
+}  // namespace
+
+TestResult pearson_correlation(std::span<const double> x, std::span<const double> y, double level) {
+    refuse_unusable(x, y);
+    const double n = static_cast<double>(x.size());
+    const double r = pearson_r(x, y);
+    TestResult result;
+    result.test = "Pearson correlation";
+    add_t_test(result, r, n);
+    result.add("estimate", r);
+    // Fisher's z: atanh(r) is near normal with SE 1/√(n − 3); needs n ≥ 4.
+    double low = not_defined, high = not_defined;
+    if (n > 3) {
+        const double z = std::atanh(r);
+        const double q = boost::math::quantile(boost::math::complement(boost::math::normal(), (1.0 - level) / 2.0));
+        const double se = 1.0 / std::sqrt(n - 3.0);
+        low = std::tanh(z - q * se);
+        high = std::tanh(z + q * se);
+    }
+    result.add("ci-low", low);
+    result.add("ci-high", high);
+    result.report = "Pearson correlation: r = " + format_number(r);
+    if (std::isfinite(low))
+        result.report += " (" + format_level(level) + " CI " + format_number(low) + " to " + format_number(high) + ")";
+    result.report += ", t(" + format_df(n - 2) + ") = " + format_number(result.number("statistic")) + ", " +
+                     format_p(result.number("p"));
+    return result;
+}
+
+TestResult spearman_correlation(std::span<const double> x, std::span<const double> y) {
+    refuse_unusable(x, y);
+    const Ranking rx = rank_with_ties(x), ry = rank_with_ties(y);
+    const double r = pearson_r(rx.ranks, ry.ranks);
+    const double n = static_cast<double>(x.size());
+    TestResult result;
+    result.test = "Spearman rank correlation";
+    add_t_test(result, r, n);
+    result.add("estimate", r);
+    result.report = "Spearman rank correlation: ρ = " + format_number(r) + ", t(" + format_df(n - 2) +
+                    ") = " + format_number(result.number("statistic")) + ", " + format_p(result.number("p"));
+    return result;
+}
+
+TestResult kendall_correlation(std::span<const double> x, std::span<const double> y) {
+    refuse_unusable(x, y);
+    const std::size_t n = x.size();
+
+    // Knight (1966): sort by x, then y; ties in x and joint ties are runs of the sorted pairs.
+    std::vector<std::size_t> order(n);
+    std::iota(order.begin(), order.end(), std::size_t{0});
+    std::sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+        return x[a] < x[b] || (x[a] == x[b] && y[a] < y[b]);
+    });
+    const TieSums x_ties = tie_sums(n, [&](std::size_t a, std::size_t b) { return x[order[a]] == x[order[b]]; });
+    const TieSums joint_ties = tie_sums(n, [&](std::size_t a, std::size_t b) {
+        return x[order[a]] == x[order[b]] && y[order[a]] == y[order[b]];
+    });
+    // Discordant pairs are the inversions of y in that order (pairs tied in x are already in y order).
+    std::vector<double> ys(n), buffer(n);
+    for (std::size_t i = 0; i < n; ++i) ys[i] = y[order[i]];
+    const double discordant = static_cast<double>(count_inversions(ys, buffer, 0, n));
+    const TieSums y_ties = tie_sums(n, [&](std::size_t a, std::size_t b) { return ys[a] == ys[b]; });
+
+    const double nn = static_cast<double>(n);
+    const double total = nn * (nn - 1) / 2;
+    const double concordant_minus_discordant = total - x_ties.pairs - y_ties.pairs + joint_ties.pairs - 2 * discordant;
+    const double tau = concordant_minus_discordant / std::sqrt((total - x_ties.pairs) * (total - y_ties.pairs));
+
+    TestResult result;
+    result.test = "Kendall's tau-b";
+    const bool exact = x_ties.pairs == 0 && y_ties.pairs == 0 && n < 50;
+    double p;
+    if (exact) {
+        // Two-sided: twice the smaller tail of the inversion count (the distribution is symmetric).
+        const auto inversions = static_cast<std::size_t>(discordant);
+        const std::size_t all = n * (n - 1) / 2;
+        const std::size_t c = std::min(inversions, all - inversions);
+        p = 4 * c == n * (n - 1) ? 1.0 : std::min(1.0, 2.0 * inversions_cdf(n, c));
+        result.add("statistic", tau);
+    } else {
+        // Tie-corrected variance of C − D (Kendall 1970, eq. 4.3).
+        const double v0 = nn * (nn - 1) * (2 * nn + 5);
+        const double variance = (v0 - x_ties.variance - y_ties.variance) / 18.0 +
+                                (2 * x_ties.pairs) * (2 * y_ties.pairs) / (2 * nn * (nn - 1)) +
+                                x_ties.cubic * y_ties.cubic / (9 * nn * (nn - 1) * (nn - 2));
+        const double z = concordant_minus_discordant / std::sqrt(variance);
+        p = 2.0 * boost::math::cdf(boost::math::complement(boost::math::normal(), std::fabs(z)));
+        result.add("statistic", z);
+    }
+    result.add("p", p);
+    result.add("estimate", tau);
+    result.report = "Kendall's tau-b: τ = " + format_number(tau) +
+                    (exact ? std::string(", exact ") : ", z = " + format_number(result.number("statistic")) + ", ") +
+                    format_p(p);
+    return result;
+}
+
+TestResult relate_correlation(const Range& x, const Range& y, const std::string& method) {
+    if (x.empty()) throw Refusal("x is empty");
+    if (y.empty()) throw Refusal("y is empty");
+    if (x.columns != 1) throw Refusal("x must be one column (found " + std::to_string(x.columns) + ")");
+    if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
+    const Frame f = read_frame({{&x, ColumnKind::numeric, "x"}, {&y, ColumnKind::numeric, "y"}});
+    TestResult r = method == "spearman" ? spearman_correlation(f.numbers[0], f.numbers[1])
+                 : method == "kendall"  ? kendall_correlation(f.numbers[0], f.numbers[1])
+                                        : pearson_correlation(f.numbers[0], f.numbers[1]);
+    r.add("n", static_cast<double>(f.n_used));
+    r.add("n dropped", static_cast<double>(f.n_dropped));
+    r.report += ", n = " + std::to_string(f.n_used);
+    return r;
+}
+
+}  // namespace quadrat

@@ -1,0 +1,266 @@
+#include "diagnostics.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <limits>
+
+#include <boost/math/distributions/chi_squared.hpp>
+#include <boost/math/distributions/fisher_f.hpp>
+
+#include "keywords.hpp"
+#include "refusal.hpp"
+#include "report.hpp"
+#include "summary.hpp"
+
+#if __has_include("normality.hpp")
+#include "normality.hpp"
+#define QUADRAT_HAS_SHAPIRO_WILK 1
+#endif
+
+namespace quadrat {
+
+namespace {
+
+constexpr double not_defined = std::numeric_limits<double>::quiet_NaN();
+
+// A leverage this close to 1 means the row fits itself exactly: its residual is 0 and every
+// ratio with 1 − h below is not defined.
+constexpr double leverage_one = 1.0 - 1e-10;
+
+CellValue number_or_blank(double x) {
+    if (std::isfinite(x)) return x;
+    return std::monostate{};
+}
+
+std::string count_rows(std::size_t count) { return std::to_string(count) + (count == 1 ? " row" : " rows"); }
+
+}  // namespace
+
+Influence influence_measures(const LinearModel& m) {
+    const std::size_t n = m.n;
+    Influence inf;
+    inf.standardized.assign(n, not_defined);
+    inf.studentized.assign(n, not_defined);
+    inf.cooks.assign(n, not_defined);
+    if (m.perfect_fit || !(m.sigma > 0)) return inf;  // σ = 0: no residual is out of scale
+
+    const double s = m.sigma;
+    const double df = m.df_residual;
+    const double p = static_cast<double>(m.parameters);
+    for (std::size_t i = 0; i < n; ++i) {
+        const double h = m.leverage[i];
+        if (h >= leverage_one) continue;
+        const double e = m.residuals[i];
+        const double r = e / (s * std::sqrt(1.0 - h));
+        inf.standardized[i] = r;
+        inf.cooks[i] = r * r * h / (p * (1.0 - h));
+        // Deleting row i: s₍ᵢ₎² = (rss − e²/(1 − h)) / (df − 1) (Belsley, Kuh & Welsch 1980, eq. 2.8).
+        if (df > 1) {
+            const double deleted = (m.rss - e * e / (1.0 - h)) / (df - 1.0);
+            if (deleted > 0) inf.studentized[i] = e / (std::sqrt(deleted) * std::sqrt(1.0 - h));
+        }
+    }
+    return inf;
+}
+
+const std::vector<std::string>& point_columns() {
+    static const std::vector<std::string> keys = {"fitted", "residual", "standardized", "studentized", "leverage", "cooks"};
+    return keys;
+}
+
+Table fit_points_table(const LinearModel& m, const RegressionData& data, const std::string& what) {
+    const Influence inf = influence_measures(m);
+    const std::vector<const std::vector<double>*> columns = {&m.fitted,      &m.residuals, &inf.standardized,
+                                                             &inf.studentized, &m.leverage, &inf.cooks};
+    const auto& keys = point_columns();
+    if (!what.empty()) {
+        const std::size_t c = static_cast<std::size_t>(std::find(keys.begin(), keys.end(), what) - keys.begin());
+        if (c >= keys.size()) throw Refusal("unknown what '" + what + "'; valid: " + join(keys));
+        Table t(data.rows, std::vector<CellValue>(1));
+        for (std::size_t i = 0; i < m.n; ++i) t[data.used_rows[i]][0] = number_or_blank((*columns[c])[i]);
+        return t;
+    }
+    // All six under a header row: it takes the input's header row when there is one (same size as
+    // the input), else sits on top (one row more).
+    const std::size_t offset = data.has_header ? 0 : 1;
+    Table t(data.rows + offset, std::vector<CellValue>(keys.size()));
+    for (std::size_t c = 0; c < keys.size(); ++c) t[0][c] = keys[c];
+    for (std::size_t i = 0; i < m.n; ++i)
+        for (std::size_t c = 0; c < keys.size(); ++c)
+            t[data.used_rows[i] + offset][c] = number_or_blank((*columns[c])[i]);
+    return t;
+}
+
+ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
+    if (m.perfect_fit)
+        throw Refusal("the fit is perfect (every residual is 0): there is nothing to check");
+    ModelChecks c;
+    const std::size_t n = m.n;
+    const double nn = static_cast<double>(n);
+    const std::size_t k = data.predictors.size();
+
+    // Residual normality: Shapiro–Wilk on the residuals (Royston 1995, from the normality family).
+#ifdef QUADRAT_HAS_SHAPIRO_WILK
+    try {
+        const TestResult sw = shapiro_wilk(m.residuals);
+        c.normality_w = sw.number("statistic");
+        c.normality_p = sw.number("p");
+    } catch (const Refusal& r) {
+        c.normality_w = c.normality_p = not_defined;
+        c.normality_note = r.what();
+    }
+#else
+    c.normality_w = c.normality_p = not_defined;
+    c.normality_note = "Shapiro–Wilk is not available in this build";
+#endif
+
+    // Constant variance: Breusch–Pagan in Koenker's studentized form, LM = n R² of the squared
+    // residuals on the predictors, χ² with k df (Breusch & Pagan 1979, Econometrica 47, 1287–1294;
+    // Koenker 1981, J. Econometrics 17, 107–112).
+    try {
+        std::vector<double> squared(n);
+        for (std::size_t i = 0; i < n; ++i) squared[i] = m.residuals[i] * m.residuals[i];
+        const LinearModel aux = fit_least_squares(squared, data.predictors, data.names, true);
+        c.variance_lm = nn * aux.r2;
+        c.variance_df = static_cast<double>(k);
+        const boost::math::chi_squared dist(c.variance_df);
+        c.variance_p = boost::math::cdf(boost::math::complement(dist, std::max(0.0, c.variance_lm)));
+    } catch (const Refusal&) {
+        // Squared residuals all equal (or too few rows): the auxiliary regression has nothing to explain.
+        c.variance_lm = c.variance_p = not_defined;
+        c.variance_note = "not defined: the squared residuals do not vary";
+    }
+
+    // Independence in row order: Durbin–Watson (Durbin & Watson 1950, Biometrika 37, 409–428).
+    {
+        Accumulator differences, squares;
+        for (std::size_t i = 0; i < n; ++i) {
+            squares.add(m.residuals[i] * m.residuals[i]);
+            if (i > 0) {
+                const double d = m.residuals[i] - m.residuals[i - 1];
+                differences.add(d * d);
+            }
+        }
+        c.durbin_watson = differences.sum() / squares.sum();
+    }
+
+    // Linearity: Ramsey's RESET, adding the squared and cubed fitted values, F test of the two
+    // added terms (Ramsey 1969, JRSS B 31, 350–371). The fitted values are standardized first:
+    // the same column space, better conditioned.
+    c.reset_df = 2;
+    c.reset_df2 = nn - static_cast<double>(m.parameters) - 2.0;
+    try {
+        if (c.reset_df2 < 1) throw Refusal("needs at least " + std::to_string(m.parameters + 3) + " rows");
+        const double centre = mean(m.fitted);
+        const double spread = std::sqrt(sum_of_squares(m.fitted, centre) / nn);
+        if (!(spread > 0)) throw Refusal("the fitted values do not vary");
+        std::vector<std::vector<double>> augmented = data.predictors;
+        std::vector<std::string> names = data.names;
+        std::vector<double> square(n), cube(n);
+        for (std::size_t i = 0; i < n; ++i) {
+            const double z = (m.fitted[i] - centre) / spread;
+            square[i] = z * z;
+            cube[i] = z * z * z;
+        }
+        augmented.push_back(std::move(square));
+        augmented.push_back(std::move(cube));
+        names.push_back("fitted²");
+        names.push_back("fitted³");
+        const LinearModel wide = fit_least_squares(data.y, augmented, names, true);
+        if (wide.perfect_fit) throw Refusal("the augmented model fits exactly");
+        c.reset_f = ((m.rss - wide.rss) / 2.0) / (wide.rss / c.reset_df2);
+        c.reset_f = std::max(0.0, c.reset_f);
+        const boost::math::fisher_f dist(c.reset_df, c.reset_df2);
+        c.reset_p = boost::math::cdf(boost::math::complement(dist, c.reset_f));
+    } catch (const Refusal& r) {
+        c.reset_f = c.reset_p = not_defined;
+        c.linearity_note = std::string("not defined: ") + r.what();
+    }
+
+    // Collinearity: the largest variance inflation factor.
+    c.max_vif = 0;
+    for (std::size_t j = 0; j < m.parameters; ++j)
+        if (std::isfinite(m.vif[j])) c.max_vif = std::max(c.max_vif, m.vif[j]);
+
+    // Influence and outliers.
+    const Influence inf = influence_measures(m);
+    const double cooks_cut = 4.0 / nn;
+    const double leverage_cut = 2.0 * static_cast<double>(m.parameters) / nn;
+    c.max_cooks = not_defined;
+    for (std::size_t i = 0; i < n; ++i) {
+        if (std::isfinite(inf.cooks[i])) {
+            c.max_cooks = std::isfinite(c.max_cooks) ? std::max(c.max_cooks, inf.cooks[i]) : inf.cooks[i];
+            if (inf.cooks[i] > cooks_cut) ++c.cooks_above;
+        }
+        if (m.leverage[i] > leverage_cut) ++c.high_leverage;
+        if (std::isfinite(inf.studentized[i]) && std::fabs(inf.studentized[i]) > 3.0) ++c.outliers;
+    }
+    return c;
+}
+
+const std::vector<std::string>& check_model_outputs() {
+    static const std::vector<std::string> keys = {"table",        "normality",    "variance", "independence",
+                                                  "linearity",    "collinearity", "influence", "outliers"};
+    return keys;
+}
+
+Table check_model_output(const LinearModel& m, const RegressionData& data, const std::string& output) {
+    const ModelChecks c = check_model(m, data);
+    const auto need = [](double x, const std::string& what, const std::string& note) -> Table {
+        if (!std::isfinite(x)) throw Refusal(what + " is " + (note.empty() ? "not defined for these data" : note));
+        return single(x);
+    };
+    if (output == "normality") return need(c.normality_p, "the normality check", c.normality_note);
+    if (output == "variance") return need(c.variance_p, "the constant-variance check", c.variance_note);
+    if (output == "independence") return single(c.durbin_watson);
+    if (output == "linearity") return need(c.reset_p, "the linearity check", c.linearity_note);
+    if (output == "collinearity") return single(c.max_vif);
+    if (output == "influence") return need(c.max_cooks, "the influence check", "");
+    if (output == "outliers") return single(static_cast<double>(c.outliers));
+
+    // The table. Screening rules of common practice, no single source; stated in the rule column.
+    const double nn = static_cast<double>(m.n);
+    const std::string ok = "ok", look = "look";
+    const auto verdict_p = [&](double p) -> CellValue {
+        if (!std::isfinite(p)) return std::monostate{};
+        return p < 0.05 ? look : ok;
+    };
+    const std::size_t predictors = data.predictors.size();
+    Table t;
+    t.push_back({std::string("check"), std::string("statistic"), std::string("p"), std::string("rule"), std::string("verdict")});
+    t.push_back({std::string("normality"), number_or_blank(c.normality_w), number_or_blank(c.normality_p),
+                 c.normality_note.empty() ? std::string("Shapiro–Wilk W on the residuals; look when p < 0.05")
+                                          : "Shapiro–Wilk W on the residuals: " + c.normality_note,
+                 verdict_p(c.normality_p)});
+    t.push_back({std::string("variance"), number_or_blank(c.variance_lm), number_or_blank(c.variance_p),
+                 c.variance_note.empty()
+                     ? "Breusch–Pagan (studentized) LM, χ² with " + format_df(c.variance_df) +
+                           " df; look when p < 0.05"
+                     : "Breusch–Pagan (studentized): " + c.variance_note,
+                 verdict_p(c.variance_p)});
+    t.push_back({std::string("independence"), c.durbin_watson, std::monostate{},
+                 std::string("Durbin–Watson in row order; ok from 1.5 to 2.5"),
+                 (c.durbin_watson < 1.5 || c.durbin_watson > 2.5) ? look : ok});
+    t.push_back({std::string("linearity"), number_or_blank(c.reset_f), number_or_blank(c.reset_p),
+                 c.linearity_note.empty()
+                     ? "RESET with fitted² and fitted³, F(2, " + format_df(c.reset_df2) + "); look when p < 0.05"
+                     : "RESET: " + c.linearity_note,
+                 verdict_p(c.reset_p)});
+    t.push_back({std::string("collinearity"), c.max_vif, std::monostate{},
+                 predictors == 1 ? std::string("largest VIF (one predictor: always 1); look when > 10")
+                                 : std::string("largest VIF; look when > 10"),
+                 c.max_vif > 10 ? look : ok});
+    char cuts[160];
+    std::snprintf(cuts, sizeof cuts, "largest Cook's distance; %s above 4/n = %s; %s with leverage above 2p/n = %s",
+                  count_rows(c.cooks_above).c_str(), format_number(4.0 / nn).c_str(),
+                  count_rows(c.high_leverage).c_str(), format_number(2.0 * static_cast<double>(m.parameters) / nn).c_str());
+    t.push_back({std::string("influence"), number_or_blank(c.max_cooks), std::monostate{}, std::string(cuts),
+                 c.cooks_above > 0 ? look : ok});
+    t.push_back({std::string("outliers"), static_cast<double>(c.outliers), std::monostate{},
+                 std::string("rows with |externally studentized residual| > 3; look when any"),
+                 c.outliers > 0 ? look : ok});
+    return t;
+}
+
+}  // namespace quadrat

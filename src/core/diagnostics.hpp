@@ -1,0 +1,56 @@
+// Regression diagnostics: per-row influence measures (FIT.POINTS) and the screening checks of
+// CHECK.MODEL. Definitions follow Belsley, Kuh & Welsch (1980), Regression Diagnostics, Wiley,
+// ch. 2, and Cook (1977), Technometrics 19, 15–18.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "cells.hpp"
+#include "linear_model.hpp"
+
+namespace quadrat {
+
+// Per observation; NaN where a measure is not defined (σ = 0, leverage 1, or no degrees of
+// freedom left once the row is deleted).
+struct Influence {
+    std::vector<double> standardized;  // internally studentized: e / (s √(1 − h))
+    std::vector<double> studentized;   // externally studentized: e / (s₍ᵢ₎ √(1 − h))
+    std::vector<double> cooks;         // Cook's distance: r² h / (p (1 − h))
+};
+Influence influence_measures(const LinearModel& model);
+
+// FIT.POINTS' column keywords, in table order.
+const std::vector<std::string>& point_columns();
+
+// FIT.POINTS: `what` empty gives all six columns under a header row (in place of the input's
+// header row when it has one, else on top); a keyword gives that column alone with exactly the
+// input's rows. Rows not used stay blank.
+Table fit_points_table(const LinearModel& model, const RegressionData& data, const std::string& what);
+
+// The numbers behind CHECK.MODEL's rows (NaN where a check could not be computed; `*_note` then
+// says why).
+struct ModelChecks {
+    double normality_w = 0, normality_p = 0;       // Shapiro–Wilk on the residuals
+    std::string normality_note;
+    double variance_lm = 0, variance_p = 0, variance_df = 0;  // Breusch–Pagan, studentized (Koenker)
+    std::string variance_note;
+    double durbin_watson = 0;
+    double reset_f = 0, reset_p = 0, reset_df = 0, reset_df2 = 0;  // RESET, fitted² and fitted³
+    std::string linearity_note;
+    double max_vif = 0;
+    double max_cooks = 0;
+    std::size_t cooks_above = 0;      // rows with Cook's distance > 4/n
+    std::size_t high_leverage = 0;    // rows with leverage > 2p/n
+    std::size_t outliers = 0;         // rows with |externally studentized residual| > 3
+};
+ModelChecks check_model(const LinearModel& model, const RegressionData& data);
+
+// CHECK.MODEL's output keywords, default (`table`) first.
+const std::vector<std::string>& check_model_outputs();
+
+// CHECK.MODEL: the table of checks, or one check's number.
+Table check_model_output(const LinearModel& model, const RegressionData& data, const std::string& output);
+
+}  // namespace quadrat

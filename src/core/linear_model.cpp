@@ -1,0 +1,397 @@
+#include "linear_model.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <numbers>
+
+#include <Eigen/Dense>
+#include <boost/math/distributions/fisher_f.hpp>
+#include <boost/math/distributions/students_t.hpp>
+
+#include "data.hpp"
+#include "keywords.hpp"
+#include "refusal.hpp"
+#include "report.hpp"
+#include "summary.hpp"
+
+namespace quadrat {
+
+namespace {
+
+// The QR runs in extended precision (x87 long double, 64-bit significand): about three more
+// digits than double on the hardest certified designs (NIST Wampler5, Filip) for O(n p²) work.
+using Real = long double;
+using Matrix = Eigen::Matrix<Real, Eigen::Dynamic, Eigen::Dynamic>;
+using Vector = Eigen::Matrix<Real, Eigen::Dynamic, 1>;
+using RowVector = Eigen::Matrix<Real, 1, Eigen::Dynamic>;
+
+constexpr double not_defined = std::numeric_limits<double>::quiet_NaN();
+
+// More predictor columns than this would make a single cell recompute for seconds (the cost is
+// O(n p²)); no field table has them. Our bound, no source.
+constexpr std::size_t max_predictors = 100;
+
+// A pivot of the column-scaled R below this fraction of the largest is taken as a linear
+// dependence. Exactly collinear columns give about 1e-16; the hardest certified design (NIST
+// Filip, a degree-10 polynomial) gives about 1e-9 after centring and scaling, and is kept.
+constexpr double rank_tolerance = 1e-12;
+
+// Residuals whose root mean square is within this many units of rounding of the data's magnitude
+// are rounding, not misfit: the fit is perfect (NIST Wampler1 and Wampler2 certify σ = 0).
+constexpr double perfect_fit_ulps = 64.0;
+
+// Σx², uncentred (the total sum of squares of a model through the origin).
+double sum_of_raw_squares(std::span<const double> xs) {
+    Accumulator acc;
+    for (double v : xs) acc.add(v * v);
+    return acc.sum();
+}
+
+// 2^k nearest to x (> 0): scaling by it is exact, so it changes the conditioning, not the data.
+double power_of_two_near(double x) { return std::ldexp(1.0, std::ilogb(x)); }
+
+std::string list_names(const std::vector<std::string>& names, std::size_t count) {
+    std::string s;
+    const std::size_t shown = std::min<std::size_t>(count, 5);
+    for (std::size_t j = 0; j < shown; ++j) s += (j ? ", " : "") + names[j];
+    if (count > shown) s += ", …";
+    return s;
+}
+
+// Numerical rank of the first `count` columns of X.
+Eigen::Index rank_of_leading(const Matrix& x, Eigen::Index count) {
+    Eigen::ColPivHouseholderQR<Matrix> qr(x.leftCols(count));
+    qr.setThreshold(rank_tolerance);
+    return qr.rank();
+}
+
+// The first column (in column order) that is a linear combination of those before it.
+[[noreturn]] void refuse_collinear(const Matrix& x, const std::vector<std::string>& names, bool intercept) {
+    for (Eigen::Index j = 1; j <= x.cols(); ++j)
+        if (rank_of_leading(x, j) < j) {
+            const auto col = static_cast<std::size_t>(j - 1);
+            if (col == 0)  // only reachable without intercept: the first column is (numerically) zero
+                throw Refusal(names[0] + " is zero in every used row; it cannot be estimated");
+            throw Refusal(names[col] + " is a linear combination of " + list_names(names, col) +
+                          (intercept ? " and the intercept" : "") +
+                          " (collinear predictors); remove one of them");
+        }
+    throw Refusal("the predictors are collinear; remove one of them");
+}
+
+double two_sided_t_p(double t, double df) {
+    if (!std::isfinite(t)) return not_defined;
+    const boost::math::students_t dist(df);
+    return 2.0 * boost::math::cdf(boost::math::complement(dist, std::fabs(t)));
+}
+
+}  // namespace
+
+double LinearModel::ci_low(std::size_t j, double level) const {
+    const boost::math::students_t dist(df_residual);
+    const double q = boost::math::quantile(boost::math::complement(dist, (1.0 - level) / 2.0));
+    return estimate[j] - q * std_error[j];
+}
+
+double LinearModel::ci_high(std::size_t j, double level) const {
+    const boost::math::students_t dist(df_residual);
+    const double q = boost::math::quantile(boost::math::complement(dist, (1.0 - level) / 2.0));
+    return estimate[j] + q * std_error[j];
+}
+
+LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::vector<double>>& predictors,
+                              const std::vector<std::string>& names, bool intercept) {
+    const std::size_t n = y.size();
+    const std::size_t k = predictors.size();
+    const std::size_t parameters = k + (intercept ? 1 : 0);
+
+    // Edge cases first, each with what to do about it.
+    if (parameters == 0) throw Refusal("the model has no terms");
+    if (k > max_predictors)
+        throw Refusal("xs has " + std::to_string(k) + " columns; at most " + std::to_string(max_predictors) +
+                      " predictors are fitted");
+    if (n <= parameters)
+        throw Refusal("needs more complete rows than terms: found " + std::to_string(n) + " rows for " +
+                      std::to_string(parameters) + " terms; add rows or remove predictors");
+    for (double v : y)
+        if (!std::isfinite(v)) throw Refusal("y holds a value that is not a finite number");
+    for (std::size_t j = 0; j < k; ++j)
+        for (double v : predictors[j])
+            if (!std::isfinite(v)) throw Refusal(names[j] + " holds a value that is not a finite number");
+
+    // Centre y and the predictors when there is an intercept: the intercept's column is then
+    // orthogonal to the rest and the QR works on the spread, not on the level (Longley's x6 ≈ 1950).
+    const double y_centre = intercept ? mean(y) : 0.0;
+    const double tss = intercept ? sum_of_squares(y, y_centre) : sum_of_raw_squares(y);
+    if (tss == 0.0)
+        throw Refusal(intercept ? "y is constant (every used row holds " + format_number(y[0]) +
+                                      "); there is no variation to explain"
+                                : "y is zero in every used row; there is nothing to explain");
+
+    std::vector<double> centre(k, 0.0), scale(k, 1.0);
+    Matrix x(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(k));
+    for (std::size_t j = 0; j < k; ++j) {
+        const std::vector<double>& column = predictors[j];
+        centre[j] = intercept ? mean(column) : 0.0;
+        const double spread = std::sqrt(intercept ? sum_of_squares(column, centre[j]) : sum_of_raw_squares(column));
+        if (spread == 0.0)
+            throw Refusal(intercept ? names[j] + " is constant (every used row holds " + format_number(column[0]) +
+                                          "); a constant predictor cannot be told apart from the intercept"
+                                    : names[j] + " is zero in every used row; it cannot be estimated");
+        scale[j] = power_of_two_near(spread);
+        for (std::size_t i = 0; i < n; ++i)
+            x(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = (static_cast<Real>(column[i]) - centre[j]) / scale[j];
+    }
+    Vector yc(static_cast<Eigen::Index>(n));
+    for (std::size_t i = 0; i < n; ++i) yc(static_cast<Eigen::Index>(i)) = static_cast<Real>(y[i]) - y_centre;
+
+    Eigen::ColPivHouseholderQR<Matrix> qr(x);
+    qr.setThreshold(rank_tolerance);
+    if (qr.rank() < static_cast<Eigen::Index>(k)) refuse_collinear(x, names, intercept);
+
+    // Solve on the centred, scaled columns; then refine (Björck 1967): the residuals of the data
+    // as given are accumulated in extended precision and the correction is solved with the same
+    // factors. Working from the raw data, not the centred copy, lets an exact fit come out exact
+    // (Wampler1) and keeps the intercept's digits when the centres are large (Wampler5, x⁵ ≈ 3e6).
+    const Vector beta = qr.solve(yc);
+    std::vector<double> slope(k);
+    for (std::size_t j = 0; j < k; ++j) slope[j] = static_cast<double>(beta(static_cast<Eigen::Index>(j)) / scale[j]);
+    double b0 = 0.0;
+    if (intercept) {
+        long double level = y_centre;
+        for (std::size_t j = 0; j < k; ++j) level -= static_cast<long double>(slope[j]) * centre[j];
+        b0 = static_cast<double>(level);
+    }
+    std::vector<long double> raw_residual(n);
+    const auto compute_residuals = [&] {
+        long double total = 0;
+        for (std::size_t i = 0; i < n; ++i) {
+            long double r = static_cast<long double>(y[i]) - b0;
+            for (std::size_t j = 0; j < k; ++j) r -= static_cast<long double>(slope[j]) * predictors[j][i];
+            raw_residual[i] = r;
+            total += r;
+        }
+        return intercept ? total / static_cast<long double>(n) : 0.0L;
+    };
+    Vector residual(static_cast<Eigen::Index>(n));
+    for (int step = 0; step < 3; ++step) {
+        const long double mean_residual = compute_residuals();
+        for (std::size_t i = 0; i < n; ++i)
+            residual(static_cast<Eigen::Index>(i)) = raw_residual[i] - mean_residual;
+        const Vector correction = qr.solve(residual);
+        long double level = static_cast<long double>(b0) + mean_residual;
+        for (std::size_t j = 0; j < k; ++j) {
+            const double delta = static_cast<double>(correction(static_cast<Eigen::Index>(j)) / scale[j]);
+            slope[j] += delta;
+            level -= static_cast<long double>(delta) * centre[j];
+        }
+        b0 = intercept ? static_cast<double>(level) : 0.0;
+    }
+    compute_residuals();
+    for (std::size_t i = 0; i < n; ++i) residual(static_cast<Eigen::Index>(i)) = raw_residual[i];
+
+    LinearModel m;
+    m.intercept = intercept;
+    m.n = n;
+    m.parameters = parameters;
+    m.df_model = static_cast<double>(k);
+    m.df_residual = static_cast<double>(n - parameters);
+    m.tss = tss;
+
+    long double rss = 0;
+    for (long double r : raw_residual) rss += r * r;
+    m.rss = static_cast<double>(rss);
+
+    if (intercept) {
+        m.terms.push_back("intercept");
+        m.estimate.push_back(b0);
+    }
+    for (std::size_t j = 0; j < k; ++j) {
+        m.terms.push_back(names[j]);
+        m.estimate.push_back(slope[j]);
+    }
+
+    // Perfect fit: residuals no larger than the rounding of the data (see perfect_fit_ulps).
+    double magnitude = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+        double row = std::fabs(y[i]) + (intercept ? std::fabs(m.estimate[0]) : 0.0);
+        for (std::size_t j = 0; j < k; ++j) row += std::fabs(slope[j] * predictors[j][i]);
+        magnitude = std::max(magnitude, row);
+    }
+    const double rms = std::sqrt(m.rss / static_cast<double>(n));
+    m.perfect_fit = rms <= perfect_fit_ulps * std::numeric_limits<double>::epsilon() * magnitude;
+    if (m.perfect_fit) {
+        m.rss = 0.0;
+        residual.setZero();
+    }
+    m.sigma = std::sqrt(m.rss / m.df_residual);
+
+    // (X'X)⁻¹ of the scaled centred columns is G G' with G = P R⁻¹ (Xs P = Q R).
+    const Eigen::Index kk = static_cast<Eigen::Index>(k);
+    const Matrix r_inverse = qr.matrixR().topLeftCorner(kk, kk).triangularView<Eigen::Upper>().solve(
+        Matrix::Identity(kk, kk));
+    const Matrix g = qr.colsPermutation() * r_inverse;
+
+    if (intercept) {
+        // var(b0) = σ² (1/n + x̄' (Xc'Xc)⁻¹ x̄): the centred columns are orthogonal to the constant.
+        RowVector centre_scaled(kk);
+        for (std::size_t j = 0; j < k; ++j) centre_scaled(static_cast<Eigen::Index>(j)) = centre[j] / scale[j];
+        const double quad = static_cast<double>((centre_scaled * g).squaredNorm());
+        m.std_error.push_back(m.sigma * std::sqrt(1.0 / static_cast<double>(n) + quad));
+        m.vif.push_back(not_defined);
+    }
+    for (std::size_t j = 0; j < k; ++j) {
+        const auto jj = static_cast<Eigen::Index>(j);
+        const double row_norm2 = static_cast<double>(g.row(jj).squaredNorm());
+        m.std_error.push_back(m.sigma * std::sqrt(row_norm2) / scale[j]);
+        // VIF_j = (C⁻¹)_jj C_jj for the centred cross-product C: scale-free, and equal to
+        // 1/(1 − R²_j) of x_j on the other predictors (Marquardt 1970, Technometrics 12, 591–612).
+        m.vif.push_back(intercept ? row_norm2 * static_cast<double>(x.col(jj).squaredNorm()) : not_defined);
+    }
+
+    for (std::size_t j = 0; j < parameters; ++j) {
+        const double t = m.perfect_fit ? not_defined : m.estimate[j] / m.std_error[j];
+        m.t.push_back(t);
+        m.p.push_back(two_sided_t_p(t, m.df_residual));
+    }
+
+    m.r2 = m.perfect_fit ? 1.0 : 1.0 - m.rss / tss;
+    const double df_total = m.df_residual + m.df_model;
+    m.adj_r2 = m.perfect_fit ? 1.0 : 1.0 - (m.rss / m.df_residual) / (tss / df_total);
+    if (m.perfect_fit || k == 0) {
+        m.f_statistic = not_defined;
+        m.f_p = not_defined;
+    } else {
+        m.f_statistic = ((tss - m.rss) / m.df_model) / (m.rss / m.df_residual);
+        const boost::math::fisher_f dist(m.df_model, m.df_residual);
+        m.f_p = boost::math::cdf(boost::math::complement(dist, m.f_statistic));
+    }
+
+    // Gaussian log-likelihood at the maximum, σ̂² = rss/n, with its constants.
+    const double nn = static_cast<double>(n);
+    if (m.perfect_fit) {
+        m.log_likelihood = m.aic = m.bic = not_defined;
+    } else {
+        m.log_likelihood = -0.5 * nn * (std::log(2.0 * std::numbers::pi) + std::log(m.rss / nn) + 1.0);
+        const double counted = static_cast<double>(parameters + 1);
+        m.aic = -2.0 * m.log_likelihood + 2.0 * counted;
+        m.bic = -2.0 * m.log_likelihood + std::log(nn) * counted;
+    }
+
+    // Per row: residuals, fitted values, leverage h_i = 1/n + ‖xs_i G‖² (0 without the 1/n when
+    // there is no intercept). O(n p²), no n×n hat matrix.
+    m.residuals.resize(n);
+    m.fitted.resize(n);
+    m.leverage.resize(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        const auto ii = static_cast<Eigen::Index>(i);
+        m.residuals[i] = static_cast<double>(residual(ii));
+        m.fitted[i] = static_cast<double>(static_cast<Real>(y[i]) - residual(ii));
+        const double h = static_cast<double>((x.row(ii) * g).squaredNorm()) + (intercept ? 1.0 / nn : 0.0);
+        m.leverage[i] = std::min(h, 1.0);
+    }
+    return m;
+}
+
+RegressionData read_regression(const Range& y, const Range& xs) {
+    if (y.empty()) throw Refusal("y is empty");
+    if (xs.empty()) throw Refusal("xs is empty");
+    if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
+    const Frame f = read_frame({{&y, ColumnKind::numeric, "y"}, {&xs, ColumnKind::numeric, "xs"}});
+    RegressionData d;
+    d.y = f.numbers[0];
+    d.predictors.assign(f.numbers.begin() + 1, f.numbers.end());
+    for (std::size_t j = 0; j < xs.columns; ++j) {
+        const Cell& head = xs.at(0, j);
+        const bool named = f.has_header && head.kind == CellKind::text && !f.names[j + 1].empty();
+        d.names.push_back(named ? f.names[j + 1] : "x" + std::to_string(j + 1));
+    }
+    d.used_rows = f.used_rows;
+    d.rows = f.rows;
+    d.n_dropped = f.n_dropped;
+    d.has_header = f.has_header;
+    return d;
+}
+
+const std::vector<std::string>& linear_outputs() {
+    static const std::vector<std::string> keys = {"coefficients", "model", "r2",    "p",
+                                                  "slope",        "intercept", "sigma", "report"};
+    return keys;
+}
+
+namespace {
+CellValue number_or_blank(double x) {
+    if (std::isfinite(x)) return x;
+    return std::monostate{};
+}
+}  // namespace
+
+Table coefficient_table(const LinearModel& m, double level) {
+    Table t;
+    t.reserve(m.parameters + 1);
+    t.push_back({std::string("term"), std::string("estimate"), std::string("std. error"), std::string("t"),
+                 std::string("p"), std::string("ci-low"), std::string("ci-high"), std::string("VIF")});
+    for (std::size_t j = 0; j < m.parameters; ++j)
+        t.push_back({m.terms[j], m.estimate[j], m.std_error[j], number_or_blank(m.t[j]), number_or_blank(m.p[j]),
+                     m.ci_low(j, level), m.ci_high(j, level), number_or_blank(m.vif[j])});
+    return t;
+}
+
+TestResult model_summary(const LinearModel& m, std::size_t n_dropped, double level) {
+    TestResult r;
+    r.test = m.intercept ? "linear regression (ordinary least squares)"
+                         : "linear regression through the origin (ordinary least squares)";
+    r.add("r2", m.r2);
+    r.add("adj-r2", m.adj_r2);
+    r.add("statistic", m.f_statistic);
+    r.add("df", m.df_model);
+    r.add("df2", m.df_residual);
+    r.add("p", m.f_p);
+    r.add("sigma", m.sigma);
+    r.add("aic", m.aic);
+    r.add("bic", m.bic);
+    r.add("n", static_cast<double>(m.n));
+    r.add("n dropped", static_cast<double>(n_dropped));
+
+    const bool one_predictor = m.intercept && m.parameters == 2;
+    std::string s = "Linear regression: ";
+    if (m.perfect_fit) {
+        s += "perfect fit (R² = 1, residual SD 0, n = " + std::to_string(m.n) +
+             "): the coefficients are exact; standard errors are 0, and t, F and p are not defined";
+        if (one_predictor) s += "; slope " + format_number(m.estimate[1]);
+    } else {
+        s += "R² = " + format_number(m.r2) + ", F(" + format_df(m.df_model) + ", " + format_df(m.df_residual) +
+             ") = " + format_number(m.f_statistic) + ", " + format_p(m.f_p) + ", n = " + std::to_string(m.n);
+        if (one_predictor)
+            s += "; slope " + format_number(m.estimate[1]) + " (" + format_level(level) + " CI " +
+                 format_number(m.ci_low(1, level)) + " to " + format_number(m.ci_high(1, level)) + ")";
+    }
+    r.report = s;
+    return r;
+}
+
+Table linear_output(const LinearModel& m, std::size_t n_dropped, const std::string& output, double level) {
+    if (output == "coefficients") return coefficient_table(m, level);
+    const TestResult summary = model_summary(m, n_dropped, level);
+    if (output == "model") {
+        // The catalogue's model table: `model` (not `test`) under the header; undefined values blank.
+        Table t = summary.table();
+        t[1][0] = std::string("model");
+        for (auto& row : t)
+            if (const double* v = std::get_if<double>(&row[1]); v && !std::isfinite(*v)) row[1] = std::monostate{};
+        return t;
+    }
+    if (output == "slope" || output == "intercept") {
+        if (!m.intercept || m.parameters != 2)
+            throw Refusal("output '" + output + "' needs exactly one predictor (xs has " +
+                          std::to_string(m.parameters - (m.intercept ? 1 : 0)) +
+                          " columns); use output 'coefficients' for the whole table");
+        return single(m.estimate[output == "slope" ? 1 : 0]);
+    }
+    if (m.perfect_fit && output == "p")
+        throw Refusal("the fit is perfect (residual SD 0): the F test's p is not defined");
+    return select_output(summary, output, {"r2", "p", "sigma", "report"});
+}
+
+}  // namespace quadrat
