@@ -4,6 +4,7 @@
 #include "addin/handlers.hpp"
 #include "core/counts.hpp"
 #include "core/keywords.hpp"
+#include "core/logistic.hpp"
 
 namespace quadrat::addin {
 
@@ -27,6 +28,14 @@ Table compare_expected(const Arguments& a) {
     const ExpectedInput in = read_expected_input(argument(a, 0), argument(a, 1));
     return select_output(quadrat::compare_expected(in.observed, in.expected, in.n_dropped),
                          keyword_argument(argument(a, 2), "output"), expected_outputs());
+}
+
+Table fit_logistic(const Arguments& a) {
+    const LogisticData data = read_logistic_data(argument(a, 0), argument(a, 1));
+    const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), logistic_outputs(), "output");
+    const double level = level_argument(argument(a, 3));
+    const LogisticFit fit = quadrat::fit_logistic(data);
+    return output == "model" ? logistic_model(fit) : logistic_coefficients(fit, level);
 }
 
 }  // namespace quadrat::addin

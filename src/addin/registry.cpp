@@ -112,7 +112,7 @@ const std::vector<FunctionInfo>& registry() {
           {"xs", "Predictor columns (numbers); a text first row names them.", true},
           {"output", "coefficients (default), model.", false},
           {"level", level_text, false}},
-         nullptr},
+         fit_logistic},
         {"FIT.POINTS", "fitPoints",
          "Per-row values of a linear fit, aligned with the raw rows (array formula): fitted, residual, standardized, studentized, leverage, Cook's distance.",
          {{"y", "Response column (numbers).", true},

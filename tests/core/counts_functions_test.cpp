@@ -2,6 +2,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <variant>
 
 #include "addin/registry.hpp"
 
@@ -88,6 +89,28 @@ TEST(CompareExpectedFunction, SexRatioAndRefusals) {
     Range bad = block(2, 1, {num(5), num(2.5)});
     EXPECT_EQ(text_of(call("compareExpected", {bad, omitted, omitted})),
               "B3 holds 2.5; counts must be whole numbers (use the raw counts, not percentages)");
+}
+
+TEST(FitLogisticFunction, CoefficientsModelAndRefusals) {
+    // Invented: mussel present (1) at 12 sites against depth (m), outcomes overlapping.
+    Range y = block(13, 1, {txt("mussel"), num(0), num(0), num(1), num(0), num(0), num(1), num(0), num(1), num(1), num(0), num(1), num(1)});
+    Range depth = block(13, 1, {txt("depth"), num(0.3), num(0.5), num(0.6), num(0.9), num(1.1), num(1.2), num(1.6), num(1.8),
+                                num(2.0), num(2.3), num(2.6), num(2.9)});
+    const Table coefficients = call("fitLogistic", {y, depth, omitted, omitted});
+    ASSERT_EQ(coefficients.size(), 3u);
+    ASSERT_EQ(coefficients[0].size(), 8u);
+    EXPECT_EQ(std::get<std::string>(coefficients[0][6]), "OR ci-low");
+    EXPECT_EQ(std::get<std::string>(coefficients[1][0]), "intercept");
+    EXPECT_EQ(std::get<std::string>(coefficients[2][0]), "depth");
+    // Common practice, no source: the odds ratio is e^estimate; tolerance 1e-12 relative.
+    EXPECT_NEAR(std::get<double>(coefficients[2][5]), std::exp(std::get<double>(coefficients[2][1])),
+                1e-12 * std::get<double>(coefficients[2][5]));
+    const Table model = call("fitLogistic", {y, depth, keyword("MODEL"), omitted});
+    ASSERT_EQ(model.size(), 13u);
+    EXPECT_EQ(std::get<std::string>(model[2][0]), "event");
+    EXPECT_EQ(std::get<std::string>(model[2][1]), "1");
+    EXPECT_EQ(text_of(call("fitLogistic", {y, depth, keyword("r2"), omitted})),
+              "unknown output 'r2'; valid: coefficients, model");
 }
 
 }  // namespace

@@ -145,6 +145,61 @@ for name, (obs, exp) in expected_cases.items():
                       "df": len(o) - 1, "n": fnum(o.sum()), "smallest expected count": fnum(e.min())}
 OUT["expected"] = expected
 
+
+# ----------------------------------------------------------------------------------------------
+# FIT.LOGISTIC: statsmodels Logit, Newton with a tight tolerance
+
+import statsmodels.api as sm  # noqa: E402
+
+OUT["statsmodels"] = sm.__version__
+
+
+def logistic_case(y, xs, names, level=0.95):
+    X = sm.add_constant(np.column_stack(xs))
+    res = sm.Logit(np.asarray(y, float), X).fit(method="newton", tol=1e-14, maxiter=200, disp=0)
+    assert res.mle_retvals["converged"]
+    ci = np.exp(res.conf_int(alpha=1 - level))
+    # statsmodels fits the null model by a second optimisation (llnull, converged only to its
+    # default tolerance, about 1e-10 relative); the intercept-only maximum has the closed form
+    # -2 sum(y log ybar + (1 - y) log(1 - ybar)), used here for the null deviance, the LR test
+    # and McFadden's pseudo-R2.
+    yy = np.asarray(y, float)
+    ybar = yy.mean()
+    null_dev = -2 * np.sum(yy * np.log(ybar) + (1 - yy) * np.log(1 - ybar))
+    dev = -2 * res.llf
+    return {
+        "y": list(map(float, y)), "xs": [list(map(float, x)) for x in xs], "names": names, "level": level,
+        "estimate": res.params.tolist(), "std_error": res.bse.tolist(), "z": res.tvalues.tolist(),
+        "p": res.pvalues.tolist(), "or_low": ci[:, 0].tolist(), "or_high": ci[:, 1].tolist(),
+        "deviance": fnum(dev), "null_deviance": fnum(null_dev),
+        "statistic": fnum(null_dev - dev), "df": fnum(res.df_model),
+        "lr_p": fnum(st.chi2.sf(null_dev - dev, res.df_model)),
+        "aic": fnum(res.aic), "pseudo_r2": fnum(1 - dev / null_dev), "n": int(res.nobs),
+        "statsmodels_llnull_deviance": fnum(-2 * res.llnull),
+    }
+
+
+rng = np.random.default_rng(7101)
+# Brook trout present (1) or absent (0) at 60 stream reaches against water temperature (deg C)
+# and dissolved oxygen (mg/L) (invented, drawn with a fixed seed).
+temp = np.round(rng.uniform(8, 22, 60), 1)
+oxygen = np.round(rng.normal(8, 1.5, 60), 2)
+eta = 6 - 0.45 * temp + 0.6 * (oxygen - 8)
+trout = (rng.uniform(size=60) < 1 / (1 + np.exp(-eta))).astype(int)
+# Mussel found at 40 sites against depth (m), one predictor.
+depth = np.round(rng.uniform(0.2, 3.0, 40), 2)
+mussel = (rng.uniform(size=40) < 1 / (1 + np.exp(-(-2.0 + 1.3 * depth)))).astype(int)
+# Badly scaled: a fern present at 80 plots against elevation (m, 1200-1800) and canopy cover (0-1).
+elevation = np.round(rng.uniform(1200, 1800, 80), 0)
+canopy = np.round(rng.uniform(0, 1, 80), 3)
+fern = (rng.uniform(size=80) < 1 / (1 + np.exp(-(-9 + 0.006 * elevation + 1.5 * canopy)))).astype(int)
+
+OUT["logistic"] = {
+    "trout": logistic_case(trout, [temp, oxygen], ["temperature", "oxygen"]),
+    "mussel": logistic_case(mussel, [depth], ["depth"], level=0.90),
+    "fern": logistic_case(fern, [elevation, canopy], ["elevation", "canopy"]),
+}
+
 if __name__ == "__main__":
     path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "categorical.json")
     with open(path, "w") as fh:

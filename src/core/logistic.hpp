@@ -1,0 +1,53 @@
+// Logistic regression for a binary response: maximum likelihood by Newton–Raphson (IRLS), Wald
+// intervals for the odds ratios, the likelihood-ratio test of the whole model.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "cells.hpp"
+#include "result.hpp"
+
+namespace quadrat {
+
+// The response coded 0/1 (1 = the event) and the predictor columns, rows aligned.
+struct LogisticData {
+    std::vector<double> y;
+    std::vector<std::vector<double>> xs;  // per predictor, n values
+    std::vector<std::string> names;       // per predictor: header text, else x1, x2, …
+    std::string event;                    // the label modelled: "1" for a 0/1 response
+    std::size_t n_dropped = 0;
+};
+
+// Reads `y` (0/1 numbers, or exactly two labels: the later one in case-insensitive character
+// order is the event, `present` over `absent`) and `xs` (numeric columns; a text first row names
+// them), with the catalogue's missing-data and header rules.
+LogisticData read_logistic_data(const Range& y, const Range& xs);
+
+struct LogisticFit {
+    std::vector<std::string> terms;  // "intercept", then the predictors
+    std::vector<double> estimate, std_error, z, p;
+    std::string event;
+    double deviance = 0, null_deviance = 0;
+    double lr_statistic = 0, df = 0, lr_p = 0;
+    double aic = 0, pseudo_r2 = 0;
+    double n = 0, n_dropped = 0;
+    int iterations = 0;
+};
+
+// Maximum-likelihood fit. Refuses too few rows, a constant or collinear predictor, and data where
+// the outcome is (quasi-)completely separated, naming the predictor: the estimate does not exist
+// there, and a huge coefficient would pretend that it does.
+LogisticFit fit_logistic(const LogisticData& data);
+
+// The outputs of FIT.LOGISTIC.
+const std::vector<std::string>& logistic_outputs();
+// `coefficients`: header row, then term, estimate, std. error, z, p, odds ratio, OR ci-low,
+// OR ci-high (Wald interval at `level`) for the intercept and each predictor.
+Table logistic_coefficients(const LogisticFit& fit, double level);
+// `model`: label/value table (model, event, deviance, null deviance, statistic, df, p, aic,
+// pseudo-r2, n, n dropped, iterations).
+Table logistic_model(const LogisticFit& fit);
+
+}  // namespace quadrat
