@@ -107,7 +107,8 @@ Cell cell_from(const css::uno::Any& value) {
 // (A:A) costs its used rows; the start is never moved, so row positions and cell names stay
 // true. Cells come in one getDataArray() call; an error cell arrives as a void value and is
 // looked up to name its error (#DIV/0!, Err:504, …).
-Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference) {
+Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows) {
+    sheet_rows = 0;
     if (!reference.is()) return Range::omitted_argument();
     Range range;
     range.is_reference = true;
@@ -115,6 +116,7 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
     const css::table::CellRangeAddress address = addressable->getRangeAddress();
     range.first_row = static_cast<std::size_t>(address.StartRow);
     range.first_column = static_cast<std::size_t>(address.StartColumn);
+    sheet_rows = static_cast<std::size_t>(address.EndRow - address.StartRow + 1);
 
     sal_Int32 last_row = address.EndRow;
     sal_Int32 last_column = address.EndColumn;
@@ -212,6 +214,47 @@ css::uno::Any any_from(const Table& table) {
     return css::uno::Any(block);
 }
 
+// The arguments of one call, converted in order.
+class Call {
+public:
+    explicit Call(std::size_t count) { arguments_.reserve(count); }
+
+    void reference(const css::uno::Reference<css::table::XCellRange>& argument) {
+        std::size_t sheet_rows = 0;
+        arguments_.push_back(from_reference(argument, sheet_rows));
+        if (sheet_rows > arguments_.back().rows) clipped_.push_back({sheet_rows, arguments_.back().rows});
+    }
+    void value(const css::uno::Any& argument) { arguments_.push_back(from_any(argument)); }
+
+    // A reference is read down to the end of the used area only, but an optional (`any`)
+    // argument such as `groups` = A:A arrives whole from Calc. A block spanning exactly the rows of
+    // a clipped reference is cut the same way when what is cut is empty, so that values B:B and
+    // groups A:A keep the same number of rows, as they have on the sheet.
+    const Arguments& aligned() {
+        for (const Clip& clip : clipped_)
+            for (Range& block : arguments_) {
+                if (block.is_reference || block.omitted || block.rows != clip.sheet_rows) continue;
+                const std::size_t kept = clip.used_rows * block.columns;
+                bool cut_is_empty = true;
+                for (std::size_t i = kept; i < block.cells.size() && cut_is_empty; ++i)
+                    cut_is_empty = block.cells[i].kind == quadrat::CellKind::empty;
+                if (!cut_is_empty) continue;
+                block.cells.resize(kept);
+                block.cells.shrink_to_fit();
+                block.rows = clip.used_rows;
+            }
+        return arguments_;
+    }
+
+private:
+    struct Clip {
+        std::size_t sheet_rows;
+        std::size_t used_rows;
+    };
+    Arguments arguments_;
+    std::vector<Clip> clipped_;
+};
+
 class Functions : public cppu::WeakImplHelper3<org::quadrat::XFunctions, css::lang::XServiceInfo, css::lang::XServiceName> {
 public:
     // The cell functions, one per shipped registry row (generated).
@@ -233,14 +276,13 @@ public:
 
 private:
     // The fence around one call: conversions in, the fenced handler, conversion out.
-    static css::uno::Any answer(const char* method, const std::function<void(Arguments&)>& convert) noexcept {
+    static css::uno::Any answer(const char* method, const std::function<void(Call&)>& convert) noexcept {
         try {
             const quadrat::addin::FunctionInfo* function = quadrat::addin::find_function(method);
             if (!function) return css::uno::Any(OUString("this function is not available in this version"));
-            Arguments arguments;
-            arguments.reserve(function->arguments.size());
-            convert(arguments);
-            return any_from(quadrat::addin::call_fenced(*function, arguments));
+            Call call(function->arguments.size());
+            convert(call);
+            return any_from(quadrat::addin::call_fenced(*function, call.aligned()));
         } catch (const std::bad_alloc&) {
             return css::uno::Any(OUString("not enough memory for this range"));
         } catch (const css::uno::Exception& e) {
