@@ -1,0 +1,314 @@
+// The UNO seam: the only file that sees office types. Thin and boring on purpose.
+// Each cell function (generated into functions.inc from the registry) does the same three steps:
+// convert the arguments into quadrat::Range → quadrat::addin::call_fenced → convert the Table
+// back into what the cell shows. A second fence here catches whatever the conversions throw, so
+// no exception ever crosses the UNO boundary (a crash would take the user's office down).
+//
+// Registered through configuration only (extension/quadrat.components + CalcAddIns.xcu): the
+// implementation offers the service org.quadrat.Functions and not the generic add-in service,
+// so Calc takes names and wizard texts from the .xcu and loads this library on first use.
+
+#include <cmath>
+#include <functional>
+#include <string>
+
+#include <com/sun/star/lang/XServiceInfo.hpp>
+#include <com/sun/star/lang/XServiceName.hpp>
+#include <com/sun/star/sheet/FormulaResult.hpp>
+#include <com/sun/star/sheet/XCellRangeAddressable.hpp>
+#include <com/sun/star/sheet/XCellRangeData.hpp>
+#include <com/sun/star/sheet/XSheetCellCursor.hpp>
+#include <com/sun/star/sheet/XSheetCellRange.hpp>
+#include <com/sun/star/sheet/XSpreadsheet.hpp>
+#include <com/sun/star/sheet/XUsedAreaCursor.hpp>
+#include <com/sun/star/table/CellRangeAddress.hpp>
+#include <com/sun/star/table/XCell.hpp>
+#include <com/sun/star/table/XCellRange.hpp>
+#include <com/sun/star/uno/XComponentContext.hpp>
+#include <cppuhelper/factory.hxx>
+#include <cppuhelper/implbase3.hxx>
+#include <cppuhelper/implementationentry.hxx>
+#include <cppuhelper/supportsservice.hxx>
+#include <org/quadrat/XFunctions.hpp>
+#include <rtl/string.hxx>
+#include <rtl/ustring.hxx>
+
+#include "addin/registry.hpp"
+#include "core/cells.hpp"
+
+namespace css = com::sun::star;
+using rtl::OString;
+using rtl::OUString;
+
+namespace {
+
+using quadrat::Cell;
+using quadrat::CellValue;
+using quadrat::Range;
+using quadrat::Table;
+using quadrat::addin::Arguments;
+
+constexpr const char* implementation_name = "org.quadrat.calc.Functions";
+constexpr const char* service_name = "org.quadrat.Functions";
+
+std::string to_utf8(const OUString& text) {
+    const OString bytes = rtl::OUStringToOString(text, RTL_TEXTENCODING_UTF8);
+    return std::string(bytes.getStr(), bytes.getLength());
+}
+
+OUString from_utf8(const std::string& text) {
+    return OUString(text.data(), static_cast<sal_Int32>(text.size()), RTL_TEXTENCODING_UTF8);
+}
+
+// The name Calc shows for an error code (ScGlobal's FormulaError values; the rest as Err:nnn).
+std::string error_name(sal_Int32 code) {
+    switch (code) {
+        case 532: return "#DIV/0!";
+        case 519: return "#VALUE!";
+        case 524: return "#REF!";
+        case 525: return "#NAME?";
+        case 503: return "#NUM!";
+        case 521: return "#NULL!";
+        case 32767: return "#N/A";
+        default: return "Err:" + std::to_string(code);
+    }
+}
+
+// One value as handed over by Calc (from getDataArray or an `any` argument). Logicals arrive as
+// 1/0; an empty string is an empty cell. A void value inside an `any` block is an empty cell.
+Cell cell_from(const css::uno::Any& value) {
+    switch (value.getValueTypeClass()) {
+        case css::uno::TypeClass_DOUBLE:
+        case css::uno::TypeClass_FLOAT:
+        case css::uno::TypeClass_LONG:
+        case css::uno::TypeClass_SHORT:
+        case css::uno::TypeClass_HYPER:
+        case css::uno::TypeClass_BYTE: {
+            double x = 0.0;
+            value >>= x;
+            return Cell::make_number(x);
+        }
+        case css::uno::TypeClass_BOOLEAN: {
+            bool b = false;
+            value >>= b;
+            return Cell::make_number(b ? 1.0 : 0.0);
+        }
+        case css::uno::TypeClass_STRING: {
+            OUString s;
+            value >>= s;
+            if (s.isEmpty()) return Cell{};
+            return Cell::make_text(to_utf8(s));
+        }
+        default: return Cell{};
+    }
+}
+
+// A reference argument. Only the part inside the sheet's used area is read, so a whole column
+// (A:A) costs its used rows; the start is never moved, so row positions and cell names stay
+// true. Cells come in one getDataArray() call; an error cell arrives as a void value and is
+// looked up to name its error (#DIV/0!, Err:504, …).
+Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows) {
+    sheet_rows = 0;
+    if (!reference.is()) return Range::omitted_argument();
+    Range range;
+    range.is_reference = true;
+    css::uno::Reference<css::sheet::XCellRangeAddressable> addressable(reference, css::uno::UNO_QUERY_THROW);
+    const css::table::CellRangeAddress address = addressable->getRangeAddress();
+    range.first_row = static_cast<std::size_t>(address.StartRow);
+    range.first_column = static_cast<std::size_t>(address.StartColumn);
+    sheet_rows = static_cast<std::size_t>(address.EndRow - address.StartRow + 1);
+
+    sal_Int32 last_row = address.EndRow;
+    sal_Int32 last_column = address.EndColumn;
+    css::uno::Reference<css::sheet::XSheetCellRange> sheet_range(reference, css::uno::UNO_QUERY);
+    if (sheet_range.is()) {
+        css::uno::Reference<css::sheet::XSpreadsheet> sheet = sheet_range->getSpreadsheet();
+        css::uno::Reference<css::sheet::XSheetCellCursor> cursor = sheet->createCursor();
+        css::uno::Reference<css::sheet::XUsedAreaCursor> used(cursor, css::uno::UNO_QUERY);
+        css::uno::Reference<css::sheet::XCellRangeAddressable> used_address(cursor, css::uno::UNO_QUERY);
+        if (used.is() && used_address.is()) {
+            used->gotoStartOfUsedArea(false);
+            used->gotoEndOfUsedArea(true);
+            const css::table::CellRangeAddress area = used_address->getRangeAddress();
+            last_row = std::min(last_row, area.EndRow);
+            last_column = std::min(last_column, area.EndColumn);
+        }
+    }
+    if (last_row < address.StartRow || last_column < address.StartColumn) {
+        // Wholly below or right of the used area: nothing in it.
+        range.columns = static_cast<std::size_t>(address.EndColumn - address.StartColumn + 1);
+        return range;
+    }
+
+    css::uno::Reference<css::table::XCellRange> used_part =
+        reference->getCellRangeByPosition(0, 0, last_column - address.StartColumn, last_row - address.StartRow);
+    css::uno::Reference<css::sheet::XCellRangeData> data(used_part, css::uno::UNO_QUERY_THROW);
+    const css::uno::Sequence<css::uno::Sequence<css::uno::Any>> rows = data->getDataArray();
+    range.rows = static_cast<std::size_t>(rows.getLength());
+    range.columns = static_cast<std::size_t>(last_column - address.StartColumn + 1);
+    range.cells.reserve(range.rows * range.columns);
+    for (sal_Int32 r = 0; r < rows.getLength(); ++r) {
+        const css::uno::Sequence<css::uno::Any>& row = rows[r];
+        for (sal_Int32 c = 0; c < static_cast<sal_Int32>(range.columns); ++c) {
+            if (c >= row.getLength()) {
+                range.cells.emplace_back();
+                continue;
+            }
+            const css::uno::Any& value = row[c];
+            if (value.hasValue()) {
+                range.cells.push_back(cell_from(value));
+                continue;
+            }
+            // A void value is an error cell: ask the cell which error.
+            css::uno::Reference<css::table::XCell> cell = used_part->getCellByPosition(c, r);
+            const sal_Int32 code = cell.is() ? cell->getError() : 0;
+            range.cells.push_back(code != 0 ? Cell::make_error(error_name(code)) : Cell{});
+        }
+    }
+    return range;
+}
+
+// An `any` argument: omitted (void), a typed number or text, or a block (a range or an inline
+// array such as {1;2;3}).
+Range from_any(const css::uno::Any& value) {
+    if (!value.hasValue()) return Range::omitted_argument();
+    css::uno::Sequence<css::uno::Sequence<css::uno::Any>> block;
+    if (value.getValueTypeClass() == css::uno::TypeClass_SEQUENCE && (value >>= block)) {
+        Range range;
+        range.rows = static_cast<std::size_t>(block.getLength());
+        for (const auto& row : block) range.columns = std::max(range.columns, static_cast<std::size_t>(row.getLength()));
+        range.cells.reserve(range.rows * range.columns);
+        for (const auto& row : block)
+            for (sal_Int32 c = 0; c < static_cast<sal_Int32>(range.columns); ++c)
+                range.cells.push_back(c < row.getLength() ? cell_from(row[c]) : Cell{});
+        return range;
+    }
+    return Range::scalar(cell_from(value));
+}
+
+// What one output cell shows. Never a void any (Calc shows #N/A) and never a boolean.
+css::uno::Any any_from(const CellValue& value) {
+    if (const double* x = std::get_if<double>(&value)) {
+        // Calc encodes its errors in NaN payloads: a non-finite number must not reach it.
+        if (!std::isfinite(*x)) return css::uno::Any(OUString("not a finite number"));
+        return css::uno::Any(*x);
+    }
+    if (const std::string* s = std::get_if<std::string>(&value)) return css::uno::Any(from_utf8(*s));
+    return css::uno::Any(OUString());
+}
+
+css::uno::Any any_from(const Table& table) {
+    if (table.empty() || table.front().empty()) return css::uno::Any(OUString("no result for these cells"));
+    if (table.size() == 1 && table.front().size() == 1) return any_from(table.front().front());
+    std::size_t columns = 0;
+    for (const auto& row : table) columns = std::max(columns, row.size());
+    css::uno::Sequence<css::uno::Sequence<css::uno::Any>> block(static_cast<sal_Int32>(table.size()));
+    css::uno::Sequence<css::uno::Any>* rows = block.getArray();
+    for (std::size_t r = 0; r < table.size(); ++r) {
+        css::uno::Sequence<css::uno::Any> row(static_cast<sal_Int32>(columns));
+        css::uno::Any* cells = row.getArray();
+        for (std::size_t c = 0; c < columns; ++c)
+            cells[c] = c < table[r].size() ? any_from(table[r][c]) : css::uno::Any(OUString());
+        rows[r] = row;
+    }
+    return css::uno::Any(block);
+}
+
+// The arguments of one call, converted in order.
+class Call {
+public:
+    explicit Call(std::size_t count) { arguments_.reserve(count); }
+
+    void reference(const css::uno::Reference<css::table::XCellRange>& argument) {
+        std::size_t sheet_rows = 0;
+        arguments_.push_back(from_reference(argument, sheet_rows));
+        if (sheet_rows > arguments_.back().rows) clipped_.push_back({sheet_rows, arguments_.back().rows});
+    }
+    void value(const css::uno::Any& argument) { arguments_.push_back(from_any(argument)); }
+
+    // A reference is read down to the end of the used area only, but an optional (`any`)
+    // argument such as `groups` = A:A arrives whole from Calc. A block spanning exactly the rows of
+    // a clipped reference is cut the same way when what is cut is empty, so that values B:B and
+    // groups A:A keep the same number of rows, as they have on the sheet.
+    const Arguments& aligned() {
+        for (const Clip& clip : clipped_)
+            for (Range& block : arguments_) {
+                if (block.is_reference || block.omitted || block.rows != clip.sheet_rows) continue;
+                const std::size_t kept = clip.used_rows * block.columns;
+                bool cut_is_empty = true;
+                for (std::size_t i = kept; i < block.cells.size() && cut_is_empty; ++i)
+                    cut_is_empty = block.cells[i].kind == quadrat::CellKind::empty;
+                if (!cut_is_empty) continue;
+                block.cells.resize(kept);
+                block.cells.shrink_to_fit();
+                block.rows = clip.used_rows;
+            }
+        return arguments_;
+    }
+
+private:
+    struct Clip {
+        std::size_t sheet_rows;
+        std::size_t used_rows;
+    };
+    Arguments arguments_;
+    std::vector<Clip> clipped_;
+};
+
+class Functions : public cppu::WeakImplHelper3<org::quadrat::XFunctions, css::lang::XServiceInfo, css::lang::XServiceName> {
+public:
+    // The cell functions, one per shipped registry row (generated).
+#include "functions.inc"
+
+    // XServiceInfo
+    OUString SAL_CALL getImplementationName() override { return OUString::createFromAscii(implementation_name); }
+    sal_Bool SAL_CALL supportsService(const OUString& name) override { return cppu::supportsService(this, name); }
+    css::uno::Sequence<OUString> SAL_CALL getSupportedServiceNames() override { return supported_services(); }
+
+    // XServiceName
+    OUString SAL_CALL getServiceName() override { return OUString::createFromAscii(service_name); }
+
+    static css::uno::Sequence<OUString> supported_services() {
+        css::uno::Sequence<OUString> names(1);
+        names.getArray()[0] = OUString::createFromAscii(service_name);
+        return names;
+    }
+
+private:
+    // The fence around one call: conversions in, the fenced handler, conversion out.
+    static css::uno::Any answer(const char* method, const std::function<void(Call&)>& convert) noexcept {
+        try {
+            const quadrat::addin::FunctionInfo* function = quadrat::addin::find_function(method);
+            if (!function) return css::uno::Any(OUString("this function is not available in this version"));
+            Call call(function->arguments.size());
+            convert(call);
+            return any_from(quadrat::addin::call_fenced(*function, call.aligned()));
+        } catch (const std::bad_alloc&) {
+            return css::uno::Any(OUString("not enough memory for this range"));
+        } catch (const css::uno::Exception& e) {
+            return css::uno::Any(OUString("cannot read the cells: ") + e.Message);
+        } catch (...) {
+            return css::uno::Any(OUString("internal error while reading the cells"));
+        }
+    }
+};
+
+css::uno::Reference<css::uno::XInterface> SAL_CALL create_functions(const css::uno::Reference<css::uno::XComponentContext>&) {
+    return static_cast<cppu::OWeakObject*>(new Functions);
+}
+
+OUString SAL_CALL functions_implementation_name() { return OUString::createFromAscii(implementation_name); }
+
+css::uno::Sequence<OUString> SAL_CALL functions_services() { return Functions::supported_services(); }
+
+const cppu::ImplementationEntry entries[] = {
+    {create_functions, functions_implementation_name, functions_services, cppu::createSingleComponentFactory, nullptr, 0},
+    {nullptr, nullptr, nullptr, nullptr, nullptr, 0},
+};
+
+}  // namespace
+
+extern "C" SAL_DLLPUBLIC_EXPORT void* SAL_CALL component_getFactory(const char* implementation, void* service_manager,
+                                                                    void* registry_key) {
+    return cppu::component_getFactoryHelper(implementation, service_manager, registry_key, entries);
+}

@@ -1,0 +1,181 @@
+#!/usr/bin/python3
+"""The main job's office part: open each sample sheet in a headless Calc with the extension,
+recompute, print the Quadrat results of every sheet as a text table, and write a PDF per sheet.
+
+    /usr/bin/python3 tools/main_job.py --oxt build/quadrat.oxt --out out sample_sheets/*.fods
+
+The extension goes into a throwaway private profile (tools/office_session.py): your own
+LibreOffice profile and installation are not touched.
+"""
+
+import argparse
+import os
+import re
+import sys
+import xml.etree.ElementTree as ET
+import zipfile
+
+import uno
+from com.sun.star.beans import PropertyValue
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from office_session import Office, file_url, props  # noqa: E402
+
+STORED_PREFIX = "ORG.QUADRAT.FUNCTIONS."
+FORMULA = 16  # com.sun.star.sheet.CellFlags.FORMULA
+ERROR_NAMES = {532: "#DIV/0!", 519: "#VALUE!", 524: "#REF!", 525: "#NAME?", 503: "#NUM!", 521: "#NULL!",
+               32767: "#N/A"}
+
+
+def display_names(oxt):
+    """ORG.QUADRAT.FUNCTIONS.DESCRIBEGROUPS → DESCRIBE.GROUPS, from the .oxt's CalcAddIns.xcu."""
+    name = "{http://openoffice.org/2001/registry}name"
+    with zipfile.ZipFile(oxt) as z:
+        root = ET.fromstring(z.read("CalcAddIns.xcu"))
+    names = {}
+    for node in root.iter("node"):
+        if node.get(name) == "AddInFunctions":
+            for f in node.findall("node"):
+                display = [p.findtext("value") for p in f.findall("prop") if p.get(name) == "DisplayName"]
+                names[STORED_PREFIX + f.get(name).upper()] = display[0] if display else f.get(name)
+    return names
+
+
+def readable(formula, names):
+    return re.sub(re.escape(STORED_PREFIX) + r"[A-Z]+", lambda m: names.get(m.group(0), m.group(0)), formula)
+
+
+def shown(cell):
+    """The cell's value as text: numbers to 6 significant digits, errors by name."""
+    code = cell.getError()
+    if code:
+        return ERROR_NAMES.get(code, "Err:%d" % code)
+    kind = cell.getType().value
+    if kind == "EMPTY":
+        return ""
+    if kind == "VALUE" or (kind == "FORMULA" and cell.getPropertyValue("FormulaResultType2") == 1):
+        return "%.6g" % cell.getValue()
+    return cell.getString()
+
+
+def column_name(c):
+    letters = ""
+    c += 1
+    while c:
+        c, rest = divmod(c - 1, 26)
+        letters = chr(65 + rest) + letters
+    return letters
+
+
+def address_text(a):
+    start = "%s%d" % (column_name(a.StartColumn), a.StartRow + 1)
+    if a.StartRow == a.EndRow and a.StartColumn == a.EndColumn:
+        return start
+    return "%s:%s%d" % (start, column_name(a.EndColumn), a.EndRow + 1)
+
+
+def quadrat_results(sheet):
+    """Each Quadrat formula of the sheet (an array formula once, as its block), in reading order."""
+    found = []
+    seen = set()
+    ranges = sheet.queryContentCells(FORMULA)
+    for block in ranges.getRangeAddresses():
+        for r in range(block.StartRow, block.EndRow + 1):
+            for c in range(block.StartColumn, block.EndColumn + 1):
+                if (r, c) in seen:
+                    continue
+                cell = sheet.getCellByPosition(c, r)
+                formula = cell.getFormula()
+                if STORED_PREFIX not in formula:
+                    continue
+                if formula.startswith("{"):
+                    cursor = sheet.createCursorByRange(cell)
+                    cursor.collapseToCurrentArray()
+                    a = cursor.getRangeAddress()
+                    for rr in range(a.StartRow, a.EndRow + 1):
+                        for cc in range(a.StartColumn, a.EndColumn + 1):
+                            seen.add((rr, cc))
+                else:
+                    a = cell.getRangeAddress()
+                    seen.add((r, c))
+                found.append((a, formula, sheet.getCellRangeByPosition(a.StartColumn, a.StartRow, a.EndColumn, a.EndRow)))
+    found.sort(key=lambda f: (f[0].StartRow, f[0].StartColumn))
+    return found
+
+
+def grid(rows, indent="      "):
+    widths = [max(len(r[c]) for r in rows) for c in range(len(rows[0]))]
+    return "\n".join(indent + " | ".join(v.ljust(w) for v, w in zip(r, widths)).rstrip() for r in rows)
+
+
+def report_sheet(sheet, names):
+    results = quadrat_results(sheet)
+    if not results:
+        return None
+    lines = ['  sheet "%s": %d Quadrat formulas' % (sheet.getName(), len(results))]
+    for address, formula, cells in results:
+        a = address
+        values = [[shown(cells.getCellByPosition(c, r)) for c in range(a.EndColumn - a.StartColumn + 1)]
+                  for r in range(a.EndRow - a.StartRow + 1)]
+        text = readable(formula, names)
+        if len(values) == 1 and len(values[0]) == 1:
+            lines.append("    %-8s %s  →  %s" % (address_text(a), text, values[0][0]))
+        else:
+            lines.append("    %-8s %s" % (address_text(a), text))
+            lines.append(grid(values))
+    return "\n".join(lines)
+
+
+def export_pdf(doc, sheet, path):
+    """One PDF of the sheet's used area."""
+    cursor = sheet.createCursor()
+    cursor.gotoStartOfUsedArea(False)
+    cursor.gotoEndOfUsedArea(True)
+    selection = PropertyValue()
+    selection.Name = "Selection"
+    selection.Value = cursor
+    doc.storeToURL(file_url(path), props(
+        FilterName="calc_pdf_Export",
+        FilterData=uno.Any("[]com.sun.star.beans.PropertyValue", (selection,))))
+
+
+def main():
+    parser = argparse.ArgumentParser(description="recompute the sample sheets, print results, write PDFs")
+    parser.add_argument("--oxt", required=True)
+    parser.add_argument("--out", default="out")
+    parser.add_argument("workbooks", nargs="+")
+    args = parser.parse_args()
+    os.makedirs(args.out, exist_ok=True)
+    names = display_names(args.oxt)
+    problems = 0
+    with Office() as office:
+        office.start()
+        office.install(args.oxt)
+        for path in args.workbooks:
+            doc = office.load(path)
+            if doc is None:
+                print("%s: could not be loaded" % path)
+                problems += 1
+                continue
+            try:
+                doc.calculateAll()
+                stem = os.path.splitext(os.path.basename(path))[0]
+                print("\n%s" % os.path.basename(path))
+                for sheet in doc.Sheets:
+                    text = report_sheet(sheet, names)
+                    if text:
+                        print(text)
+                    pdf = os.path.join(args.out, "%s-%s.pdf" % (stem, re.sub(r"[^\w.-]+", "_", sheet.getName())))
+                    export_pdf(doc, sheet, pdf)
+                    print("    → %s" % pdf)
+            finally:
+                doc.close(True)
+        alive = office.alive()
+    if not alive:
+        print("soffice did not survive the run")
+        problems += 1
+    return 1 if problems else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
