@@ -126,7 +126,7 @@ const std::vector<FunctionInfo>& registry() {
           {"factor2", "Second factor's labels, same rows.", true},
           {"output", "table (default), p-first, p-second, p-interaction.", false},
           {"sstype", "Sums of squares: 2 (default, Type II) or 3 (Type III).", false}},
-         nullptr},
+         fit_factorial},
         {"ADJUST.P", "adjustP",
          "Adjusts p-values for multiple comparisons; returns an array of the same shape. Blank cells stay blank.",
          {{"pvalues", "p-values (0 to 1), any shape.", true},
