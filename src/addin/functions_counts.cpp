@@ -2,6 +2,7 @@
 // core, pick the output.
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
+#include "addin/memo.hpp"
 #include "core/refusal.hpp"
 #include "core/counts.hpp"
 #include "core/factorial.hpp"
@@ -20,10 +21,14 @@ const Range& argument(const Arguments& a, std::size_t i) {
 
 Table compare_counts(const Arguments& a) {
     // One argument: a block of counts; two: two label columns cross-tabulated.
-    const bool labels = !is_blank(argument(a, 1));
-    const ContingencyTable table = labels ? cross_tabulate(argument(a, 0), argument(a, 1)) : read_count_block(argument(a, 0));
-    const std::string method = keyword_argument(argument(a, 2), "method");
-    return select_output(quadrat::compare_counts(table, method), keyword_argument(argument(a, 3), "output"), count_outputs());
+    // Neighbouring cells asking other outputs of the same table are answered from the cache (an
+    // exact r×c test can take a noticeable fraction of a second).
+    const auto result = remembered("compareCounts", a, 3, [&] {
+        const bool labels = !is_blank(argument(a, 1));
+        const ContingencyTable table = labels ? cross_tabulate(argument(a, 0), argument(a, 1)) : read_count_block(argument(a, 0));
+        return quadrat::compare_counts(table, keyword_argument(argument(a, 2), "method"));
+    });
+    return select_output(*result, keyword_argument(argument(a, 3), "output"), count_outputs());
 }
 
 Table compare_expected(const Arguments& a) {
