@@ -49,21 +49,28 @@ MatrixXd with_intercept(std::initializer_list<const MatrixXd*> blocks, Index n) 
     return X;
 }
 
-// A least-squares fit by column-pivoted Householder QR: the fitted values (the projection of y on
-// the columns' span, rank-deficient designs included) and the rank. Sums of squares of an effect
-// are then ‖ŷ_larger − ŷ_smaller‖², not a difference of two residual sums, so that a small effect
+// Every model here is constant within a cell (a combination of levels), so a least-squares fit
+// of the n values is a weighted fit of the cell means with weights n_c, and the distance between
+// two fits is Σ n_c (f_big − f_small)². Working on the cells keeps the cost at O(n) for reading
+// plus a QR of a (cells × columns) matrix, whatever n is; the residual sum of squares is the
+// within-cell sum, computed about each cell's own mean.
+//
+// The projection of √n·m (cell means scaled by √n_c) on the span of √n·X, by column-pivoted
+// Householder QR (rank-deficient designs included), and the rank. Sums of squares of an effect
+// are then ‖p_larger − p_smaller‖², not a difference of two residual sums, so that a small effect
 // beside a large residual keeps its digits.
 struct LeastSquares {
-    VectorXd fitted;
+    VectorXd fitted;  // in the weighted (√n_c) scale
     Index rank = 0;
 };
 
-LeastSquares project(const MatrixXd& X, const VectorXd& y) {
-    Eigen::ColPivHouseholderQR<MatrixXd> qr(X);
+LeastSquares project(const MatrixXd& X, const VectorXd& root_n, const VectorXd& weighted_means) {
+    const MatrixXd WX = root_n.asDiagonal() * X;
+    Eigen::ColPivHouseholderQR<MatrixXd> qr(WX);
     qr.setThreshold(1e-10);
     LeastSquares fit;
     fit.rank = qr.rank();
-    VectorXd qty = qr.householderQ().transpose() * y;
+    VectorXd qty = qr.householderQ().transpose() * weighted_means;
     qty.tail(qty.size() - fit.rank).setZero();
     fit.fitted = qr.householderQ() * qty;
     return fit;
@@ -133,57 +140,86 @@ FactorialAnova fit_factorial(const FactorialData& d, int sstype) {
     if (a < 2) throw one_level("factor1", d.first_levels);
     if (b < 2) throw one_level("factor2", d.second_levels);
 
-    // Cell counts: an empty combination leaves the Type III hypotheses undefined (their
-    // sum-to-zero means average over a cell that has no mean).
-    std::vector<std::size_t> cell(a * b, 0);
-    for (std::size_t i = 0; i < n; ++i) ++cell[d.first[i] * b + d.second[i]];
+    // Designs with very many combinations are refused rather than given a huge dense QR.
+    constexpr std::size_t largest_design = 400;
+    if (a * b > largest_design)
+        throw Refusal("factor1 and factor2 make " + std::to_string(a * b) + " combinations of levels; at most " +
+                      std::to_string(largest_design) + " are supported");
+
+    // The cells: count, mean and within-cell sum of squares of y centred on its grand mean (every
+    // model has an intercept, so centring changes no sum of squares and keeps digits).
+    const double centre = mean(d.y);
+    std::vector<std::vector<double>> cell_values(a * b);
+    for (std::size_t i = 0; i < n; ++i) cell_values[d.first[i] * b + d.second[i]].push_back(d.y[i] - centre);
+
+    // An empty combination leaves the Type III hypotheses undefined (their sum-to-zero means
+    // average over a cell that has no mean).
     std::size_t empty_cells = 0;
-    for (std::size_t i = 0; i < a && sstype == 3; ++i)
-        for (std::size_t j = 0; j < b; ++j)
-            if (cell[i * b + j] == 0)
+    for (std::size_t i = 0; i < a; ++i)
+        for (std::size_t j = 0; j < b; ++j) {
+            if (!cell_values[i * b + j].empty()) continue;
+            ++empty_cells;
+            if (sstype == 3)
                 throw Refusal("no observations for " + d.first_name + " = " + d.first_levels[i] + " with " + d.second_name +
                               " = " + d.second_levels[j] +
                               "; Type III sums of squares compare means of every combination, so each needs data (use sstype 2)");
-    for (std::size_t c : cell) empty_cells += c == 0;
-
-    // Centre y: every model has an intercept, so this changes no sum of squares and keeps digits.
-    VectorXd y(static_cast<Index>(n));
-    const double centre = mean(d.y);
-    for (std::size_t i = 0; i < n; ++i) y[Index(i)] = d.y[i] - centre;
-
-    const MatrixXd A = effect_columns(d.first, a), B = effect_columns(d.second, b), AB = interaction_columns(A, B);
-    const Index rows = Index(n);
-    const LeastSquares full = project(with_intercept({&A, &B, &AB}, rows), y);
-    const LeastSquares additive = project(with_intercept({&A, &B}, rows), y);
+        }
+    const std::size_t cells = a * b - empty_cells;
+    std::vector<std::size_t> cell_first, cell_second;
+    VectorXd root_n(static_cast<Index>(cells)), weighted_means(static_cast<Index>(cells));
+    Accumulator within;
+    for (std::size_t i = 0, c = 0; i < a; ++i)
+        for (std::size_t j = 0; j < b; ++j) {
+            const auto& v = cell_values[i * b + j];
+            if (v.empty()) continue;
+            const double m = mean(v);
+            within.add(sum_of_squares(v, m));
+            cell_first.push_back(i);
+            cell_second.push_back(j);
+            root_n[Index(c)] = std::sqrt(double(v.size()));
+            weighted_means[Index(c)] = root_n[Index(c)] * m;
+            ++c;
+        }
 
     FactorialAnova anova;
     anova.sstype = sstype;
     anova.n = double(n);
     anova.n_dropped = double(d.n_dropped);
     anova.residual.source = "residual";
-    anova.residual.df = double(rows - full.rank);
+    // The full model fits every non-empty cell's mean: its rank is the number of such cells.
+    anova.residual.df = double(n - cells);
     if (anova.residual.df < 1)
         throw Refusal("no replication: each combination of " + d.first_name + " and " + d.second_name +
                       " has one value, so there is no residual to test against");
-    anova.residual.ss = squared_distance(y, full.fitted);
+    anova.residual.ss = within.sum();
     anova.residual.ms = anova.residual.ss / anova.residual.df;
     Accumulator total;
-    for (Index i = 0; i < rows; ++i) total.add(y[i] * y[i]);
+    for (double x : d.y) total.add((x - centre) * (x - centre));
     if (!(anova.residual.ss > 1e-13 * total.sum()))
         throw Refusal("no spread within the combinations of " + d.first_name + " and " + d.second_name +
                       ": every value equals its combination's mean, so F cannot be formed");
 
+    const MatrixXd A = effect_columns(cell_first, a), B = effect_columns(cell_second, b), AB = interaction_columns(A, B);
+    const Index rows = Index(cells);
+    auto fit = [&](std::initializer_list<const MatrixXd*> blocks) {
+        return project(with_intercept(blocks, rows), root_n, weighted_means);
+    };
+    LeastSquares full;
+    full.fitted = weighted_means;
+    full.rank = rows;
+    const LeastSquares additive = fit({&A, &B});
+
     const std::string interaction = d.first_name + " × " + d.second_name;
     if (sstype == 2) {
         // Type II: SS(A | B), SS(B | A), SS(AB | A, B) (Langsrud 2003, Statistics and Computing 13, 163–167).
-        const LeastSquares only_first = project(with_intercept({&A}, rows), y);
-        const LeastSquares only_second = project(with_intercept({&B}, rows), y);
+        const LeastSquares only_first = fit({&A});
+        const LeastSquares only_second = fit({&B});
         anova.first = effect_row(d.first_name, additive, only_second);
         anova.second = effect_row(d.second_name, additive, only_first);
     } else {
         // Type III: each effect against the full model without its own columns, sum-to-zero coding.
-        anova.first = effect_row(d.first_name, full, project(with_intercept({&B, &AB}, rows), y));
-        anova.second = effect_row(d.second_name, full, project(with_intercept({&A, &AB}, rows), y));
+        anova.first = effect_row(d.first_name, full, fit({&B, &AB}));
+        anova.second = effect_row(d.second_name, full, fit({&A, &AB}));
     }
     anova.interaction = effect_row(interaction, full, additive);
     if (anova.interaction.df < 1)

@@ -124,6 +124,43 @@ TEST(FitFactorial, Refusals) {
     EXPECT_EQ(refusal({1, 2, 3, 4, 5, 6}, {"x", "x", "x", "x", "y", "y"}, {"p", "p", "q", "q", "p", "p"}),
               "the interaction cannot be estimated: 1 combination of levels has no observations; fill them or drop a level");
     EXPECT_EQ(refusal({1, 2, 3, 4}, {"x", "x", "y", "y"}, {"p", "q", "p", "q"}, 1), "sstype must be 2 (Type II) or 3 (Type III)");
+    // 21 × 20 combinations: refused before any matrix is built.
+    std::vector<double> y;
+    std::vector<std::string> a, b;
+    for (int i = 0; i < 21; ++i)
+        for (int j = 0; j < 20; ++j) y.push_back(i + j), a.push_back("a" + std::to_string(i)), b.push_back("b" + std::to_string(j));
+    EXPECT_EQ(refusal(y, a, b), "factor1 and factor2 make 420 combinations of levels; at most 400 are supported");
+}
+
+// A long sheet costs one pass over the rows: the fit works on the cell summary (common practice,
+// no source: the within-cell and between-cell sums of squares of a balanced 2×2 design with
+// values i mod 2 + (i mod 4 < 2 ? 0 : 10) + noise-free structure).
+TEST(FitFactorial, LongSheetIsSummarisedByCells) {
+    const std::size_t n = 200000;
+    std::vector<double> y(n);
+    std::vector<std::size_t> first(n), second(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        first[i] = i % 2;
+        second[i] = (i / 2) % 2;
+        // Cell means 0, 1, 10, 11 plus a within-cell pattern −1, +1 (i / 4 odd or even).
+        y[i] = double(first[i]) + 10.0 * double(second[i]) + ((i / 4) % 2 ? 1.0 : -1.0);
+    }
+    FactorialData d;
+    d.y = y;
+    d.first = first;
+    d.second = second;
+    d.first_levels = {"x", "y"};
+    d.second_levels = {"p", "q"};
+    d.first_name = "factor1";
+    d.second_name = "factor2";
+    const FactorialAnova anova = fit_factorial(d, 2);
+    // Balanced: SS_first = n · (1/2)², SS_second = n · 5², no interaction, residual = n · 1²;
+    // tolerance 1e-9 relative (sums over 200,000 terms, compensated).
+    EXPECT_NEAR(anova.first.ss, 0.25 * double(n), 1e-9 * double(n));
+    EXPECT_NEAR(anova.second.ss, 25.0 * double(n), 1e-9 * 25 * double(n));
+    EXPECT_NEAR(anova.interaction.ss, 0.0, 1e-9 * double(n));
+    EXPECT_NEAR(anova.residual.ss, double(n), 1e-9 * double(n));
+    EXPECT_EQ(anova.residual.df, double(n - 4));
 }
 
 }  // namespace
