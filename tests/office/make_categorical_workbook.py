@@ -88,7 +88,7 @@ counts.formula("E27", 'COMPARE.COUNTS([.A1:.C3];;"exact")')
 counts.formula("E28", 'COMPARE.COUNTS([$counts.A12:.C14];;"yates")')
 checks_rows += [
     ["counts.E1", chi["p"], 1e-9, "default chi-square p; " + SRC_GEN % "scipy.stats.chi2_contingency, correction=False"],
-    ["counts.E1", "=CHITEST([$counts.B2:.C3];[$counts.A21:.B22])", 1e-9,
+    ["counts.E1", "=LEGACY.CHITEST([$counts.B2:.C3];[$counts.A21:.B22])", 1e-9,
      "Calc's CHITEST with expected counts from SUM formulas: an independent Pearson p"],
     ["counts.E2", mayfly["fisher"]["p"], 1e-9, "Fisher exact, two-sided; " + SRC_GEN % "scipy.stats.fisher_exact"],
     ["counts.E3", mayfly["yates"]["statistic"], 1e-10, "Yates-corrected X2; " + SRC_GEN % "chi2_contingency correction=True"],
@@ -135,12 +135,12 @@ exp.formula("F4", "COMPARE.EXPECTED([.C:.C];[.D:.D];\"df\")")
 exp.formula("F5", "COMPARE.EXPECTED([.A1:.A3];;\"effect\")")
 for i in range(2, 6):  # the ratio rescaled to the observed total, for Calc's CHITEST
     exp.formula("E%d" % i, "[.D%d]*SUM([.C$2:.C$5])/SUM([.D$2:.D$5])" % i)
-exp.formula("F6", "CHITEST([.C2:.C5];[.E2:.E5])")
+exp.formula("F6", "LEGACY.CHITEST([.C2:.C5];[.E2:.E5])")
 checks_rows += [
     ["expected.F1", sex["p"], 1e-10, "1:1 sex ratio, expected omitted; " + SRC_GEN % "scipy.stats.chisquare"],
     ["expected.F2", sex["statistic"], 1e-12, "expected typed as the inline array {1;1}; " + SRC_GEN % "scipy.stats.chisquare"],
     ["expected.F3", morphs["p"], 1e-10, "9:3:3:1 ratio rescaled to the total; " + SRC_GEN % "scipy.stats.chisquare"],
-    ["expected.F3", "=[.F6]", 1e-9, "Calc's CHITEST with the rescaled expected counts: an independent p"],
+    ["expected.F3", "=[$expected.F6]", 1e-9, "Calc's CHITEST with the rescaled expected counts: an independent p"],
     ["expected.F4", 3, None, "whole columns; df = categories - 1 (common practice, no source)"],
     ["expected.F5", "unknown output 'effect'; valid: p, statistic, df, n, table, report", None, SRC_TEXT],
 ]
