@@ -103,10 +103,15 @@ Cell cell_from(const css::uno::Any& value) {
     }
 }
 
-// A reference argument. Only the part inside the sheet's used area is read, so a whole column
-// (A:A) costs its used rows; the start is never moved, so row positions and cell names stay
-// true. Cells come in one getDataArray() call; an error cell arrives as a void value and is
-// looked up to name its error (#DIV/0!, Err:504, …).
+// Ranges up to this many rows are read whole (at most about 1.5 ms), so their shape is exactly
+// the sheet's: row-aligned results (CHECK.QQ, FIT.POINTS) then have the input's rows. Longer
+// ranges (whole columns A:A, open-ended B2:B100000) are read down to the end of the used area.
+constexpr sal_Int32 rows_read_whole = 10000;
+
+// A reference argument. A long one is read only down to and right to the end of the sheet's used
+// area, so a whole column (A:A) costs its used rows; the start is never moved, so row positions
+// and cell names stay true. Cells come in one getDataArray() call; an error cell arrives as a
+// void value and is looked up to name its error (#DIV/0!, Err:504, …).
 Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows) {
     sheet_rows = 0;
     if (!reference.is()) return Range::omitted_argument();
@@ -121,7 +126,7 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
     sal_Int32 last_row = address.EndRow;
     sal_Int32 last_column = address.EndColumn;
     css::uno::Reference<css::sheet::XSheetCellRange> sheet_range(reference, css::uno::UNO_QUERY);
-    if (sheet_range.is()) {
+    if (sheet_range.is() && address.EndRow - address.StartRow + 1 > rows_read_whole) {
         css::uno::Reference<css::sheet::XSpreadsheet> sheet = sheet_range->getSpreadsheet();
         css::uno::Reference<css::sheet::XSheetCellCursor> cursor = sheet->createCursor();
         css::uno::Reference<css::sheet::XUsedAreaCursor> used(cursor, css::uno::UNO_QUERY);
