@@ -106,9 +106,8 @@ TEST(AndersonDarling, MatchesStatsmodelsAndScipy) {
 // statsmodels 0.13 lilliefors (generate_normality.py): D to 1e-9 relative (closed form). Where
 // Dallal–Wilkinson applies (p < 0.1), p to 1e-9 relative (pvalmethod 'approx', the same formula).
 // Above 0.1 the fitted extension against a fresh simulation in the generator (50 000 samples, its
-// own seed): 0.02 absolute for n >= 8 (fit error 0.012 plus three simulation SEs, 0.007), 0.04
-// for n < 8 (fit error 0.035 at n = 5), 0.03 beyond the largest simulated size (n > 1000, where
-// the fit rests on Dallal–Wilkinson's n^0.49 scaling alone; measured 0.021 at n = 5000).
+// own seed): 0.02 absolute for 8 <= n <= 1000 (fit error 0.013 plus three simulation SEs, 0.007),
+// 0.045 for n < 8 (fit error 0.036 at n = 5), 0.035 above 1000 (fit error 0.024 at n = 5000).
 TEST(Lilliefors, MatchesStatsmodelsAndSimulation) {
     for (const auto& c : fixture().at("normality")) {
         if (!c.contains("lilliefors")) continue;
@@ -116,7 +115,7 @@ TEST(Lilliefors, MatchesStatsmodelsAndSimulation) {
         const auto& ref = c["lilliefors"];
         EXPECT_LT(relative_error(r.number("statistic"), ref["D"]), 1e-9) << c["name"];
         if (ref.contains("p_simulated")) {
-            EXPECT_NEAR(r.number("p"), ref["p_simulated"].get<double>(), c["n"] < 8 ? 0.04 : c["n"] > 1000 ? 0.03 : 0.02) << c["name"];
+            EXPECT_NEAR(r.number("p"), ref["p_simulated"].get<double>(), c["n"] < 8 ? 0.045 : c["n"] > 1000 ? 0.035 : 0.02) << c["name"];
         } else {
             EXPECT_LT(relative_error(r.number("p"), ref["p_approx"]), 1e-9) << c["name"];
         }
