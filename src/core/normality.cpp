@@ -54,10 +54,10 @@ std::string count_refusal(std::size_t n, std::size_t min_n, std::size_t max_n) {
 }
 
 // A sample made ready for a location–scale invariant test: sorted, shifted to the mid-range and
-// divided by the half-range (so nothing can overflow, whatever the magnitudes), then centred on its
-// compensated mean. The tests below only ever see these deviations.
+// scaled by a power of two to a range in [1, 2) (so nothing can overflow or underflow, whatever the
+// magnitudes), then centred on its compensated mean. The tests below only see these deviations.
 struct Deviations {
-    std::vector<double> sorted;  // ascending, mean zero, |d| <= 2
+    std::vector<double> sorted;  // ascending, mean zero, |d| < 2
     double sum_of_squares = 0;   // Σ d²
     std::size_t n = 0;
 };
@@ -74,10 +74,13 @@ Deviations prepare(std::span<const double> values, std::size_t min_n, std::size_
     // Edge case: no spread at all, so no shape to test.
     if (lowest == highest)
         throw Refusal("all " + std::to_string(s.n) + " values are equal: a normality test needs values that vary");
-    const double half_range = highest / 2 - lowest / 2;  // never overflows
+    // Divided by the power of two that brings the range into [1, 2): exact, and neither 1e300 nor
+    // values a few denormals apart leave the ordinary numbers. The mid-range is only a rough centre.
+    const double range = highest - lowest;
+    const int exponent = std::isfinite(range) ? std::ilogb(range) : std::ilogb(highest / 2 - lowest / 2) + 1;
     const double mid_range = lowest / 2 + highest / 2;
-    const bool near_overflow = half_range > 1e307;        // x − mid could round past the largest double
-    for (double& x : s.sorted) x = near_overflow ? x / half_range - mid_range / half_range : (x - mid_range) / half_range;
+    for (double& x : s.sorted)
+        x = std::isfinite(range) ? std::ldexp(x - mid_range, -exponent) : std::ldexp(x, -exponent) - std::ldexp(mid_range, -exponent);
     const double centre = mean(s.sorted);
     Accumulator squares;
     for (double& x : s.sorted) {

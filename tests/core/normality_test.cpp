@@ -217,6 +217,24 @@ TEST(NormalityEdgeCases, HugeOutlierDoesNotOverflow) {
     }
 }
 
+// Values a few denormals apart still have spread; NaN and infinity are refused (common practice,
+// no source: the fence must never see a NaN travel on).
+TEST(NormalityEdgeCases, DenormalsAndNonFinite) {
+    const double tiny = std::numeric_limits<double>::denorm_min();
+    const std::vector<double> denormals = {0, tiny, 2 * tiny, 3 * tiny, 5 * tiny, 8 * tiny, 9 * tiny, 13 * tiny, 21 * tiny, 34 * tiny};
+    const std::vector<double> ordinary = {0, 1, 2, 3, 5, 8, 9, 13, 21, 34};
+    for (const std::string& method : normality_methods())
+        EXPECT_NEAR(normality_test(denormals, method).number("p"), normality_test(ordinary, method).number("p"), 1e-12) << method;
+    std::vector<double> with_nan = ordinary;
+    with_nan[3] = std::numeric_limits<double>::quiet_NaN();
+    std::vector<double> with_inf = ordinary;
+    with_inf[3] = std::numeric_limits<double>::infinity();
+    for (const std::string& method : normality_methods()) {
+        EXPECT_EQ(refusal_text([&] { normality_test(with_nan, method); }), "values must be finite numbers") << method;
+        EXPECT_EQ(refusal_text([&] { normality_test(with_inf, method); }), "values must be finite numbers") << method;
+    }
+}
+
 // 1 − W accumulated directly: Blom scores themselves are an almost perfect fit (1 − W about
 // 1e-5 at n = 5000); 1 − W must stay positive, and shifting and scaling the data (an invariance of
 // W) must leave it unchanged to 1e-9 relative (common practice, no source: W is location–scale
