@@ -36,10 +36,12 @@ ScaledGroups scale_groups(std::span<const std::vector<double>> groups) {
 
 void require_k_groups(std::span<const std::vector<double>> groups) {
     if (groups.size() < 2) throw Refusal("needs at least 2 groups, found " + std::to_string(groups.size()));
-    for (std::size_t i = 0; i < groups.size(); ++i)
+    for (std::size_t i = 0; i < groups.size(); ++i) {
         if (groups[i].size() < 2)
             throw Refusal("group " + std::to_string(i + 1) + " has " + std::to_string(groups[i].size()) +
                           " value(s); each group needs at least 2");
+        require_finite(groups[i]);
+    }
 }
 
 std::vector<double> group_means(std::span<const std::vector<double>> groups) {

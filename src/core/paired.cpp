@@ -241,8 +241,15 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
     } else {
         apply_transform(transform, second);
     }
+    require_finite(first);
+    require_finite(second);
+    if (!std::isfinite(reference)) throw Refusal("the reference value in second must be a finite number");
     std::vector<double> differences(first.size());
-    for (std::size_t i = 0; i < first.size(); ++i) differences[i] = first[i] - (readings.one_sample ? reference : second[i]);
+    for (std::size_t i = 0; i < first.size(); ++i) {
+        differences[i] = first[i] - (readings.one_sample ? reference : second[i]);
+        if (!std::isfinite(differences[i]))
+            throw Refusal("a difference first − second is beyond the range of numbers (about 1.8e308); rescale the data");
+    }
 
     TestResult r;
     if (method == "t") r = paired_t_test(differences, level);

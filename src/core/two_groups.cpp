@@ -38,6 +38,8 @@ void require_two_values(std::span<const double> first, std::span<const double> s
     if (first.size() < 2 || second.size() < 2)
         throw Refusal("each group needs at least 2 values, found " + std::to_string(first.size()) + " and " +
                       std::to_string(second.size()));
+    require_finite(first);
+    require_finite(second);
 }
 
 std::vector<double> scaled(std::span<const double> xs, double scale) {
@@ -96,6 +98,11 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
 
 }  // namespace
 
+void require_finite(std::span<const double> values) {
+    for (double x : values)
+        if (!std::isfinite(x)) throw Refusal("a value is not a finite number; remove infinities and NaN from the data");
+}
+
 double power_of_two_scale(std::span<const std::span<const double>> groups) {
     double largest = 0;
     for (const auto& g : groups)
@@ -103,7 +110,8 @@ double power_of_two_scale(std::span<const std::span<const double>> groups) {
     if (largest == 0 || !std::isfinite(largest)) return 1.0;
     int exponent = 0;
     std::frexp(largest, &exponent);
-    return std::ldexp(1.0, -exponent);
+    // Clamped so that the scale and its square's reciprocal stay normal numbers (denormal data).
+    return std::ldexp(1.0, std::clamp(-exponent, -1000, 1000));
 }
 
 double hedges_g(std::span<const double> first_raw, std::span<const double> second_raw) {
