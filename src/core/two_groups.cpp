@@ -80,7 +80,8 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
         standard_error = std::sqrt(v1 + v2);
         df = (v1 + v2) * (v1 + v2) / (v1 * v1 / (a.n - 1) + v2 * v2 / (b.n - 1));
     }
-    const double t = difference / standard_error;
+    const double t = require_finite_statistic(difference / standard_error, "t");
+    if (!(df > 0 && std::isfinite(df))) throw Refusal("the degrees of freedom cannot be computed for these data");
     const double margin = t_critical(df, level) * standard_error;
 
     TestResult r;
@@ -101,6 +102,19 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
 void require_finite(std::span<const double> values) {
     for (double x : values)
         if (!std::isfinite(x)) throw Refusal("a value is not a finite number; remove infinities and NaN from the data");
+}
+
+double require_finite_statistic(double statistic, const char* name) {
+    if (!std::isfinite(statistic))
+        throw Refusal(std::string("the statistic ") + name +
+                      " is beyond the range of numbers: the spread is too small against the difference to test");
+    return statistic;
+}
+
+void mark_non_finite(TestResult& result) {
+    for (auto& q : result.quantities)
+        if (const double* x = std::get_if<double>(&q.value); x && !std::isfinite(*x))
+            q.value = std::string(std::isnan(*x) ? "not defined for these data" : "beyond the range of numbers");
 }
 
 double power_of_two_scale(std::span<const std::span<const double>> groups) {
