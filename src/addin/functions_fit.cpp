@@ -2,6 +2,7 @@
 // the output. Nothing statistical here.
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
+#include "addin/memo.hpp"
 #include "core/correlation.hpp"
 #include "core/diagnostics.hpp"
 #include "core/keywords.hpp"
@@ -43,8 +44,11 @@ Table check_model(const Arguments& a) {
 
 Table relate_correlation(const Arguments& a) {
     const std::string method = match_keyword(keyword_argument(argument(a, 2), "method"), {"pearson", "spearman", "kendall"}, "method");
-    return select_output(quadrat::relate_correlation(argument(a, 0), argument(a, 1), method), keyword_argument(argument(a, 3), "output"),
-                         standard_outputs());
+    // Neighbouring cells asking p, estimate and report of one correlation compute it once.
+    const auto result = remembered("relateCorrelation", a, 3, [&] {
+        return quadrat::relate_correlation(argument(a, 0), argument(a, 1), method);
+    });
+    return select_output(*result, keyword_argument(argument(a, 3), "output"), standard_outputs());
 }
 
 }  // namespace quadrat::addin

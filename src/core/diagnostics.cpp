@@ -9,14 +9,10 @@
 #include <boost/math/distributions/fisher_f.hpp>
 
 #include "keywords.hpp"
+#include "normality.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
 #include "summary.hpp"
-
-#if __has_include("normality.hpp")
-#include "normality.hpp"
-#define QUADRAT_HAS_SHAPIRO_WILK 1
-#endif
 
 namespace quadrat {
 
@@ -101,19 +97,14 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
     const std::size_t k = data.predictors.size();
 
     // Residual normality: Shapiro–Wilk on the residuals (Royston 1995, from the normality family).
-#ifdef QUADRAT_HAS_SHAPIRO_WILK
     try {
         const TestResult sw = shapiro_wilk(m.residuals);
         c.normality_w = sw.number("statistic");
         c.normality_p = sw.number("p");
     } catch (const Refusal& r) {
         c.normality_w = c.normality_p = not_defined;
-        c.normality_note = r.what();
+        c.normality_note = r.what();  // beyond 5000 rows, or residuals that do not vary
     }
-#else
-    c.normality_w = c.normality_p = not_defined;
-    c.normality_note = "Shapiro–Wilk is not available in this build";
-#endif
 
     // Constant variance: Breusch–Pagan in Koenker's studentized form, LM = n R² of the squared
     // residuals on the predictors, χ² with k df (Breusch & Pagan 1979, Econometrica 47, 1287–1294;
