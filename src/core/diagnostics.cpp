@@ -142,7 +142,7 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
     c.reset_df = 2;
     c.reset_df2 = nn - static_cast<double>(m.parameters) - 2.0;
     try {
-        if (c.reset_df2 < 1) throw Refusal("needs at least " + std::to_string(m.parameters + 3) + " rows");
+        if (c.reset_df2 < 1) throw Refusal("too few rows");
         const double centre = mean(m.fitted);
         const double spread = std::sqrt(sum_of_squares(m.fitted, centre) / nn);
         if (!(spread > 0)) throw Refusal("the fitted values do not vary");
@@ -164,9 +164,13 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
         c.reset_f = std::max(0.0, c.reset_f);
         const boost::math::fisher_f dist(c.reset_df, c.reset_df2);
         c.reset_p = boost::math::cdf(boost::math::complement(dist, c.reset_f));
-    } catch (const Refusal& r) {
+    } catch (const Refusal&) {
+        // Too few rows, or fitted² and fitted³ already in the predictors' span (a predictor with
+        // two or three distinct values): the added terms cannot be tested.
         c.reset_f = c.reset_p = not_defined;
-        c.linearity_note = std::string("not defined: ") + r.what();
+        c.linearity_note = c.reset_df2 < 1 ? "not defined: needs at least " + std::to_string(m.parameters + 3) + " rows"
+                                           : std::string("not defined: the squared and cubed fitted values add nothing "
+                                                         "to the predictors (too few distinct values)");
     }
 
     // Collinearity: the largest variance inflation factor.

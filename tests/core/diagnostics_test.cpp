@@ -117,6 +117,22 @@ TEST(ModelChecks, PerfectFitIsRefused) {
     EXPECT_THROW(check_model(fit(d), d), Refusal);
 }
 
+TEST(ModelChecks, LinearityIsBlankForATwoValuedPredictor) {
+    // Common practice, no source: with a 0/1 predictor the fitted values take two values, so their
+    // square and cube lie in the span of the intercept and the predictor; RESET cannot be formed.
+    RegressionData d;
+    d.y = {4.1, 3.8, 4.6, 4.0, 6.2, 5.7, 6.9, 6.1, 5.5, 4.4};
+    d.predictors = {{0, 0, 0, 0, 1, 1, 1, 1, 1, 0}};
+    d.names = {"treated"};
+    d.rows = d.y.size();
+    for (std::size_t i = 0; i < d.rows; ++i) d.used_rows.push_back(i);
+    const Table t = check_model_output(fit(d), d, "table");
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(t[4][1]));
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(t[4][4]));
+    EXPECT_NE(std::get<std::string>(t[4][3]).find("not defined"), std::string::npos);
+    EXPECT_THROW(check_model_output(fit(d), d, "linearity"), Refusal);
+}
+
 TEST(Influence, UndefinedWhereTheRowFitsItselfOrNoDfIsLeft) {
     // Common practice, no source: n = p + 1 leaves one residual df, so the deleted-row variance
     // (df − 1 = 0) and the externally studentized residual are not defined.
