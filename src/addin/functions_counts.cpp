@@ -2,7 +2,10 @@
 // core, pick the output.
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
+#include "addin/memo.hpp"
+#include "core/refusal.hpp"
 #include "core/counts.hpp"
+#include "core/factorial.hpp"
 #include "core/keywords.hpp"
 #include "core/logistic.hpp"
 
@@ -18,10 +21,14 @@ const Range& argument(const Arguments& a, std::size_t i) {
 
 Table compare_counts(const Arguments& a) {
     // One argument: a block of counts; two: two label columns cross-tabulated.
-    const bool labels = !is_blank(argument(a, 1));
-    const ContingencyTable table = labels ? cross_tabulate(argument(a, 0), argument(a, 1)) : read_count_block(argument(a, 0));
-    const std::string method = keyword_argument(argument(a, 2), "method");
-    return select_output(quadrat::compare_counts(table, method), keyword_argument(argument(a, 3), "output"), count_outputs());
+    // Neighbouring cells asking other outputs of the same table are answered from the cache (an
+    // exact r×c test can take a noticeable fraction of a second).
+    const auto result = remembered("compareCounts", a, 3, [&] {
+        const bool labels = !is_blank(argument(a, 1));
+        const ContingencyTable table = labels ? cross_tabulate(argument(a, 0), argument(a, 1)) : read_count_block(argument(a, 0));
+        return quadrat::compare_counts(table, keyword_argument(argument(a, 2), "method"));
+    });
+    return select_output(*result, keyword_argument(argument(a, 3), "output"), count_outputs());
 }
 
 Table compare_expected(const Arguments& a) {
@@ -36,6 +43,28 @@ Table fit_logistic(const Arguments& a) {
     const double level = level_argument(argument(a, 3));
     const LogisticFit fit = quadrat::fit_logistic(data);
     return output == "model" ? logistic_model(fit) : logistic_coefficients(fit, level);
+}
+
+Table fit_factorial(const Arguments& a) {
+    const FactorialData data = read_factorial_data(argument(a, 0), argument(a, 1), argument(a, 2));
+    const std::string output = match_keyword(keyword_argument(argument(a, 3), "output"), factorial_outputs(), "output");
+    // sstype: 2 or 3, typed as a number or as text.
+    const Range& sstype_argument = argument(a, 4);
+    int sstype = 2;
+    if (!is_blank(sstype_argument)) {
+        const Cell& c = sstype_argument.cells.size() == 1 ? sstype_argument.cells.front() : Cell::make_text("?");
+        if (c.kind == CellKind::number && (c.number == 2 || c.number == 3))
+            sstype = int(c.number);
+        else if (c.kind == CellKind::text && (c.text == "2" || c.text == "3"))
+            sstype = c.text == "2" ? 2 : 3;
+        else
+            throw Refusal("sstype must be 2 (Type II, the default) or 3 (Type III)");
+    }
+    const FactorialAnova anova = quadrat::fit_factorial(data, sstype);
+    if (output == "p-first") return single(anova.first.p);
+    if (output == "p-second") return single(anova.second.p);
+    if (output == "p-interaction") return single(anova.interaction.p);
+    return factorial_table(anova);
 }
 
 }  // namespace quadrat::addin

@@ -49,7 +49,9 @@ double checked_count(const Range& r, std::size_t row, std::size_t column, const 
     const std::string at = where(r, row, column, argument);
     if (c.kind == CellKind::error) throw Refusal(error_cell_message(r, row, column, argument));
     if (c.kind == CellKind::empty) throw Refusal(at + " is empty; a count of none is entered as 0");
-    if (c.kind == CellKind::text) throw Refusal(at + " holds text ('" + c.text + "'); counts must be whole numbers");
+    if (c.kind == CellKind::text)
+        throw Refusal(at + " holds text ('" + c.text + "'); counts must be whole numbers" +
+                      (argument == "counts_or_labels" ? " (to cross-tabulate labels, give the second label column as labels2)" : ""));
     const double x = c.number;
     if (!std::isfinite(x)) throw Refusal(at + " is not a number");
     if (x < 0) throw Refusal(at + " holds a negative count (" + count_text(x) + "); counts must be 0 or more");

@@ -85,6 +85,7 @@ LogisticData read_logistic_data(const Range& y, const Range& xs) {
     if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
     const Frame f = read_frame({{&y, ColumnKind::label, "y"}, {&xs, ColumnKind::numeric, "xs"}});
 
+    if (f.n_used == 0) throw Refusal("no row has both a response and a number in every predictor column");
     LogisticData d;
     d.n_dropped = f.n_dropped;
     for (std::size_t j = 1; j < f.names.size(); ++j) {

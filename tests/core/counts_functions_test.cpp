@@ -113,5 +113,32 @@ TEST(FitLogisticFunction, CoefficientsModelAndRefusals) {
               "unknown output 'r2'; valid: coefficients, model");
 }
 
+TEST(FitFactorialFunction, OutputsAndSstype) {
+    // Invented: shoot length (cm) by shade (open, shaded) and soil (clay, sand), 3 plants each,
+    // with one more in one cell so that the design is unbalanced.
+    Range length = block(14, 1, {txt("length"), num(12), num(14), num(13), num(9), num(10), num(8), num(15), num(17),
+                                 num(16), num(18), num(9), num(11), num(10)});
+    Range shade = block(14, 1, {txt("shade"), txt("open"), txt("open"), txt("open"), txt("shaded"), txt("shaded"), txt("shaded"),
+                                txt("open"), txt("open"), txt("open"), txt("open"), txt("shaded"), txt("shaded"), txt("shaded")});
+    Range soil = block(14, 1, {txt("soil"), txt("clay"), txt("clay"), txt("clay"), txt("clay"), txt("clay"), txt("clay"),
+                               txt("sand"), txt("sand"), txt("sand"), txt("sand"), txt("sand"), txt("sand"), txt("sand")});
+    const Table t = call("fitFactorial", {length, shade, soil, omitted, omitted});
+    ASSERT_EQ(t.size(), 5u);
+    EXPECT_EQ(std::get<std::string>(t[1][0]), "shade");
+    EXPECT_EQ(std::get<std::string>(t[3][0]), "shade × soil");
+    const double p_interaction = number_of(call("fitFactorial", {length, shade, soil, keyword("p-interaction"), omitted}));
+    EXPECT_EQ(p_interaction, std::get<double>(t[3][5]));
+    // The interaction is adjusted for both main effects under either type: the same p (common
+    // practice, no source: both compare the full model with the additive one); tolerance 1e-12.
+    EXPECT_NEAR(number_of(call("fitFactorial", {length, shade, soil, keyword("p-interaction"), Range::scalar(num(3))})),
+                p_interaction, 1e-12);
+    EXPECT_NEAR(number_of(call("fitFactorial", {length, shade, soil, keyword("p-interaction"), keyword("3")})), p_interaction,
+                1e-12);
+    EXPECT_EQ(text_of(call("fitFactorial", {length, shade, soil, omitted, Range::scalar(num(1))})),
+              "sstype must be 2 (Type II, the default) or 3 (Type III)");
+    EXPECT_EQ(text_of(call("fitFactorial", {length, shade, soil, keyword("p"), omitted})),
+              "unknown output 'p'; valid: table, p-first, p-second, p-interaction");
+}
+
 }  // namespace
 }  // namespace quadrat::addin

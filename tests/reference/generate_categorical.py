@@ -200,6 +200,108 @@ OUT["logistic"] = {
     "fern": logistic_case(fern, [elevation, canopy], ["elevation", "canopy"]),
 }
 
+# ----------------------------------------------------------------------------------------------
+# FIT.FACTORIAL: statsmodels ols + anova_lm (typ=2; typ=3 with sum-to-zero contrasts)
+
+import pandas as pd  # noqa: E402
+from statsmodels.formula.api import ols  # noqa: E402
+from statsmodels.stats.anova import anova_lm  # noqa: E402
+
+
+def anova_rows(table, names, resid):
+    rows = []
+    for name in names:
+        r = table.loc[name]
+        rows.append({"ss": fnum(r["sum_sq"]), "df": fnum(r["df"]), "f": fnum(r["F"]), "p": fnum(r["PR(>F)"]),
+                     "partial_eta_squared": fnum(r["sum_sq"] / (r["sum_sq"] + table.loc[resid]["sum_sq"]))})
+    r = table.loc[resid]
+    rows.append({"ss": fnum(r["sum_sq"]), "df": fnum(r["df"])})
+    return rows
+
+
+def factorial_case(y, a, b):
+    df = pd.DataFrame({"y": y, "a": a, "b": b})
+    t2 = anova_lm(ols("y ~ C(a) * C(b)", df).fit(), typ=2)
+    t3 = anova_lm(ols("y ~ C(a, Sum) * C(b, Sum)", df).fit(), typ=3)
+    return {"y": list(map(float, y)), "a": list(a), "b": list(b),
+            "type2": anova_rows(t2, ["C(a)", "C(b)", "C(a):C(b)"], "Residual"),
+            "type3": anova_rows(t3, ["C(a, Sum)", "C(b, Sum)", "C(a, Sum):C(b, Sum)"], "Residual")}
+
+
+rng = np.random.default_rng(3303)
+# Plant biomass (g) by fertiliser (none, low, high) and watering (dry, wet), unequal cell sizes
+# (invented, drawn with a fixed seed).
+a, b, y = [], [], []
+means = {("none", "dry"): 10, ("none", "wet"): 13, ("low", "dry"): 12, ("low", "wet"): 17,
+         ("high", "dry"): 13, ("high", "wet"): 21}
+for (fa, fb), size in zip(means, [4, 6, 5, 7, 3, 6]):
+    for v in rng.normal(means[(fa, fb)], 2.0, size):
+        a.append(fa); b.append(fb); y.append(round(float(v), 2))
+order = rng.permutation(len(y))
+biomass = factorial_case([y[i] for i in order], [a[i] for i in order], [b[i] for i in order])
+# Snail density (per m2) by season (spring, autumn) and site (four sites), unbalanced, weak effects.
+a, b, y = [], [], []
+for season in ["spring", "autumn"]:
+    for k, site in enumerate(["S1", "S2", "S3", "S4"]):
+        size = int(rng.integers(3, 8))
+        for v in rng.normal(40 + 2 * k + (3 if season == "autumn" else 0), 6.0, size):
+            a.append(season); b.append(site); y.append(round(float(v), 1))
+snails = factorial_case(y, a, b)
+
+
+def type2_by_projection(y, a, b):
+    """Type II sums of squares as distances between nested least-squares fits (numpy lstsq on
+    sum-to-zero effect columns), for a design with an empty cell where anova_lm's dummy design
+    is singular."""
+    y = np.asarray(y, float)
+    la, lb = list(dict.fromkeys(a)), list(dict.fromkeys(b))
+
+    def effect(levels, labels):
+        X = np.zeros((len(labels), len(levels) - 1))
+        for i, v in enumerate(labels):
+            k = levels.index(v)
+            if k == len(levels) - 1:
+                X[i, :] = -1
+            else:
+                X[i, k] = 1
+        return X
+
+    A, B = effect(la, a), effect(lb, b)
+    AB = np.column_stack([A[:, i] * B[:, j] for i in range(A.shape[1]) for j in range(B.shape[1])])
+    one = np.ones((len(y), 1))
+
+    def fit(*blocks):
+        X = np.column_stack((one,) + blocks)
+        beta, _, rank, _ = np.linalg.lstsq(X, y, rcond=None)
+        return X @ beta, rank
+
+    full, rf = fit(A, B, AB)
+    add, ra = fit(A, B)
+    oa, r1 = fit(A)
+    ob, r2 = fit(B)
+    res_ss, res_df = float(np.sum((y - full) ** 2)), len(y) - rf
+    rows = []
+    for big, small, dfb, dfs in [(add, ob, ra, r2), (add, oa, ra, r1), (full, add, rf, ra)]:
+        ss, dfe = float(np.sum((big - small) ** 2)), dfb - dfs
+        F = ss / dfe / (res_ss / res_df)
+        rows.append({"ss": ss, "df": float(dfe), "f": F, "p": fnum(st.f.sf(F, dfe, res_df)),
+                     "partial_eta_squared": ss / (ss + res_ss)})
+    rows.append({"ss": res_ss, "df": float(res_df)})
+    return rows
+
+
+# Three grazing levels by three soil types with one combination never sampled (invented).
+a, b, y = [], [], []
+for i, graze in enumerate(["none", "light", "heavy"]):
+    for j, soil in enumerate(["clay", "loam", "sand"]):
+        if (graze, soil) == ("heavy", "sand"):
+            continue
+        for v in rng.normal(20 + 3 * i - 2 * j + (2 if i == j else 0), 2.5, 4 + (i + j) % 3):
+            a.append(graze); b.append(soil); y.append(round(float(v), 2))
+empty_cell = {"y": y, "a": a, "b": b, "type2": type2_by_projection(y, a, b)}
+
+OUT["factorial"] = {"biomass": biomass, "snails": snails, "grazing_empty_cell": empty_cell}
+
 if __name__ == "__main__":
     path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "categorical.json")
     with open(path, "w") as fh:
