@@ -145,7 +145,7 @@ const std::vector<FunctionInfo>& registry() {
           {"predictor", "Optional: group labels, a second measurement, or a second categorical variable.", false},
           {"output", "report (default), method, transform, function, table.", false},
           {"design", "auto (default), groups, paired, relationship.", false}},
-         nullptr},
+         &advise_test},
     };
     return functions;
 }
