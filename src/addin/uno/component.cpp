@@ -108,9 +108,9 @@ Cell cell_from(const css::uno::Any& value) {
 // ranges (whole columns A:A, open-ended B2:B100000) are read down to the end of the used area.
 constexpr sal_Int32 rows_read_whole = 10000;
 
-// A reference argument. A long one is read only down to and right to the end of the sheet's used
-// area, so a whole column (A:A) costs its used rows; the start is never moved, so row positions
-// and cell names stay true. Cells come in one getDataArray() call; an error cell arrives as a
+// A reference argument. A long one is read only down to the last row of the sheet's used area,
+// so a whole column (A:A) costs its used rows; the start is never moved, so row positions and
+// cell names stay true. Cells come in one getDataArray() call; an error cell arrives as a
 // void value and is looked up to name its error (#DIV/0!, Err:504, …).
 Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows) {
     sheet_rows = 0;
@@ -124,7 +124,7 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
     sheet_rows = static_cast<std::size_t>(address.EndRow - address.StartRow + 1);
 
     sal_Int32 last_row = address.EndRow;
-    sal_Int32 last_column = address.EndColumn;
+    const sal_Int32 last_column = address.EndColumn;
     css::uno::Reference<css::sheet::XSheetCellRange> sheet_range(reference, css::uno::UNO_QUERY);
     if (sheet_range.is() && address.EndRow - address.StartRow + 1 > rows_read_whole) {
         css::uno::Reference<css::sheet::XSpreadsheet> sheet = sheet_range->getSpreadsheet();
@@ -135,12 +135,13 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
             used->gotoStartOfUsedArea(false);
             used->gotoEndOfUsedArea(true);
             const css::table::CellRangeAddress area = used_address->getRangeAddress();
+            // Rows only: a block keeps its columns, so a wide-format column with nothing in it
+            // yet is still a group.
             last_row = std::min(last_row, area.EndRow);
-            last_column = std::min(last_column, area.EndColumn);
         }
     }
-    if (last_row < address.StartRow || last_column < address.StartColumn) {
-        // Wholly below or right of the used area: nothing in it.
+    if (last_row < address.StartRow) {
+        // Wholly below the used area: nothing in it.
         range.columns = static_cast<std::size_t>(address.EndColumn - address.StartColumn + 1);
         return range;
     }
