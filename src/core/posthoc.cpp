@@ -65,14 +65,30 @@ std::vector<PairComparison> all_pairs(std::size_t k) {
     return pairs;
 }
 
+// Sums of squares are taken on values multiplied by a power of two that brings the largest near 1
+// (exact), so that 1e200 or 1e-200 measurements neither overflow nor underflow; q is unchanged.
+double common_scale(const GroupValues& x) {
+    std::vector<std::span<const double>> spans(x.begin(), x.end());
+    return power_of_two_scale(spans);
+}
+
+GroupValues scaled(const GroupValues& x, double scale) {
+    GroupValues out = x;
+    for (auto& g : out)
+        for (double& v : g) v *= scale;
+    return out;
+}
+
 // A difference of transformed means (or its limit) back on the data's scale: a ratio for the logs.
 double difference_on_data_scale(Transform t, double d) { return is_ratio_scale(t) ? back_transform(t, d) : d; }
 
 // Tukey–Kramer: q = |x̄ᵢ − x̄ⱼ| / √(MSE/2 · (1/nᵢ + 1/nⱼ)) referred to the studentized range with k
 // groups and N − k df; simultaneous limits x̄ᵢ − x̄ⱼ ± q₁₋α · √(MSE/2 · (1/nᵢ + 1/nⱼ)).
 // Tukey (1953), The problem of multiple comparisons; Kramer (1956), Biometrics 12, 307–310.
-void tukey_kramer(const Groups& g, const GroupValues& x, Transform t, double level, std::vector<PairComparison>& pairs) {
-    const std::size_t k = x.size();
+void tukey_kramer(const GroupValues& raw, Transform t, double level, std::vector<PairComparison>& pairs) {
+    const std::size_t k = raw.size();
+    const double scale = common_scale(raw);
+    const GroupValues x = scaled(raw, scale);
     std::size_t total = 0;
     std::vector<double> means(k);
     double within = 0.0;  // Σ over groups of Σ(x − x̄)², each centred on its own mean
@@ -94,18 +110,19 @@ void tukey_kramer(const Groups& g, const GroupValues& x, Transform t, double lev
         const double se = std::sqrt(0.5 * mse * (1.0 / x[c.first].size() + 1.0 / x[c.second].size()));
         c.statistic = std::abs(d) / se;
         c.p = studentized_range_sf(c.statistic, static_cast<int>(k), df);
-        c.estimate = difference_on_data_scale(t, d);
-        c.ci_low = difference_on_data_scale(t, d - critical * se);
-        c.ci_high = difference_on_data_scale(t, d + critical * se);
+        c.estimate = difference_on_data_scale(t, d / scale);
+        c.ci_low = difference_on_data_scale(t, (d - critical * se) / scale);
+        c.ci_high = difference_on_data_scale(t, (d + critical * se) / scale);
     }
-    (void)g;
 }
 
 // Games–Howell: each pair with its own standard error √(sᵢ²/nᵢ + sⱼ²/nⱼ) and Welch–Satterthwaite
 // df, q = √2 |t| referred to the studentized range with k groups at that df.
 // Games & Howell (1976), J. Educ. Stat. 1, 113–125.
-void games_howell(const Groups& g, const GroupValues& x, Transform t, double level, std::vector<PairComparison>& pairs) {
-    const std::size_t k = x.size();
+void games_howell(const Groups& g, const GroupValues& raw, Transform t, double level, std::vector<PairComparison>& pairs) {
+    const std::size_t k = raw.size();
+    const double scale = common_scale(raw);
+    const GroupValues x = scaled(raw, scale);
     std::vector<double> means(k), spread(k);  // spread: s²/n
     for (std::size_t i = 0; i < k; ++i) {
         if (x[i].size() < 2)
@@ -126,9 +143,9 @@ void games_howell(const Groups& g, const GroupValues& x, Transform t, double lev
         c.statistic = std::abs(d) / se;
         c.p = studentized_range_sf(c.statistic, static_cast<int>(k), df);
         const double critical = studentized_range_quantile(level, static_cast<int>(k), df);
-        c.estimate = difference_on_data_scale(t, d);
-        c.ci_low = difference_on_data_scale(t, d - critical * se);
-        c.ci_high = difference_on_data_scale(t, d + critical * se);
+        c.estimate = difference_on_data_scale(t, d / scale);
+        c.ci_low = difference_on_data_scale(t, (d - critical * se) / scale);
+        c.ci_high = difference_on_data_scale(t, (d + critical * se) / scale);
     }
 }
 
@@ -220,7 +237,7 @@ PosthocResult compare_posthoc(const Groups& groups, PosthocMethod method, std::o
     for (const auto& v : x) result.n.push_back(v.size());
     result.pairs = all_pairs(k);
     switch (method) {
-        case PosthocMethod::tukey: tukey_kramer(groups, x, transform, level, result.pairs); break;
+        case PosthocMethod::tukey: tukey_kramer(x, transform, level, result.pairs); break;
         case PosthocMethod::games_howell: games_howell(groups, x, transform, level, result.pairs); break;
         case PosthocMethod::dunn: dunn(x, level, result.pairs); break;
         case PosthocMethod::t_pairs:

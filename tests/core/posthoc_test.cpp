@@ -54,9 +54,10 @@ void expect_rows(const PosthocResult& r, const nlohmann::json& rows, double tol,
         near(c.statistic, e["statistic"], "statistic");
         // p relative to itself: p-values are compared to their own digits.
         EXPECT_NEAR(c.p, e["p"].get<double>(), tol * e["p"].get<double>() + 1e-13) << what << " pair " << i << " p";
-        if (e.contains("adjusted_p"))
+        if (e.contains("adjusted_p")) {
             EXPECT_NEAR(c.adjusted_p, e["adjusted_p"].get<double>(), tol * e["adjusted_p"].get<double>() + 1e-13)
                 << what << " pair " << i << " adjusted p";
+        }
     }
 }
 
@@ -193,6 +194,24 @@ TEST(PosthocCells, EmptyGroupIsNoGroupAndTableIsFixedSize) {
                                               Range::omitted_argument()});
     ASSERT_EQ(bad.size(), 1u);
     EXPECT_TRUE(std::holds_alternative<std::string>(bad[0][0]));
+}
+
+// Common practice, no source: multiplying the data by 1e200 multiplies estimates and limits by 1e200
+// and leaves q and p alone (sums of squares are scaled by a power of two first). Tolerance 1e-12.
+TEST(Posthoc, HugeValuesKeepTheirDigits) {
+    const std::vector<double> x = {1.1, 1.3, 1.2, 2.2, 2.5, 2.1, 3.3, 3.0, 3.4};
+    std::vector<double> big;
+    for (double v : x) big.push_back(v * 1e200);
+    const Range labels = Range::text_column({"a", "a", "a", "b", "b", "b", "c", "c", "c"});
+    for (PosthocMethod m : {PosthocMethod::tukey, PosthocMethod::games_howell}) {
+        const PosthocResult small = compare_posthoc(read_groups(Range::column(x), labels), m, std::nullopt, Transform::none, 0.95);
+        const PosthocResult large = compare_posthoc(read_groups(Range::column(big), labels), m, std::nullopt, Transform::none, 0.95);
+        for (std::size_t i = 0; i < small.pairs.size(); ++i) {
+            EXPECT_NEAR(large.pairs[i].estimate / 1e200, small.pairs[i].estimate, 1e-12);
+            EXPECT_NEAR(number(large.pairs[i].ci_high) / 1e200, number(small.pairs[i].ci_high), 1e-12);
+            EXPECT_NEAR(large.pairs[i].p, small.pairs[i].p, 1e-12);
+        }
+    }
 }
 
 // Bounded time: 20 groups with Games–Howell (190 pairs, each with its own df and quantile).
