@@ -146,6 +146,8 @@ LogisticFit fit_logistic(const LogisticData& d) {
     for (std::size_t j = 0; j < k; ++j) {
         centre[j] = mean(d.xs[j]);
         scale[j] = std::sqrt(sum_of_squares(d.xs[j], centre[j]) / double(n));
+        if (!std::isfinite(centre[j]) || !std::isfinite(scale[j]))
+            throw Refusal("predictor " + d.names[j] + " has values too large to fit (their squares overflow); rescale it");
         if (!(scale[j] > 0)) throw Refusal("predictor " + d.names[j] + " is constant; remove it");
         for (std::size_t i = 0; i < n; ++i) Z(i, j + 1) = (d.xs[j][i] - centre[j]) / scale[j];
     }
