@@ -2,23 +2,28 @@
 """Cost at the seam: how long a Quadrat recalculation takes in headless Calc, by how the range
 reaches the add-in, next to Calc's own AVERAGE and T.TEST on the same cells.
 
-    /usr/bin/python3 tools/bench_seam.py --oxt build/quadrat.oxt [--rows 100000] [--repeat 5]
+    cmake --build build --target quadrat_bench_core      # the core's share, without the office
+    /usr/bin/python3 tools/bench_seam.py --oxt build/quadrat.oxt \
+        --core build/src/addin/uno/quadrat_bench_core [--rows 100000] [--repeat 5]
 
 A sheet gets 100,000 filled rows (fixed seed): A a site label (upstream/downstream), B and C
 numbers. For each formula, `copies` identical cells are set, calculateAll() is timed `repeat`
-times, the empty-sheet baseline is subtracted, and the median is divided by the copies: the
-cost of one call. Compared:
+times, and the fastest run, less the fastest run of the sheet without formulas, is divided by the
+copies: the cost of one call. The fastest run, not the median, because on a shared machine the
+other runs measure the neighbours. Compared:
   DESCRIBE.GROUPS(B)        values as an XCellRange (clipped to the used area, getDataArray)
   DESCRIBE.GROUPS(B; A)     the same plus groups, an `any` argument: Calc builds any[][] itself
   AVERAGE(B), T.TEST(B;C;2;3)  Calc's own functions on the same cells
 on 10k rows, 100k rows, and whole columns (B:B, A:A) over the 100k filled rows.
+With --core, the same DESCRIBE.GROUPS calls are timed on the core alone (tools/bench_core.cpp,
+no office), so that the seam's share is the difference.
 Prints a Markdown table. Timings depend on the machine and its load; compare within one run.
 """
 
 import argparse
 import os
 import random
-import statistics
+import subprocess
 import sys
 import time
 
@@ -59,7 +64,7 @@ def time_recalc(doc, repeat):
         t = time.perf_counter()
         doc.calculateAll()
         times.append(time.perf_counter() - t)
-    return statistics.median(times)
+    return min(times)
 
 
 def measure(doc, sheet, formula, copies, repeat, baseline):
@@ -78,7 +83,8 @@ def main():
     parser = argparse.ArgumentParser(description="time the seam")
     parser.add_argument("--oxt", required=True)
     parser.add_argument("--rows", type=int, default=100000)
-    parser.add_argument("--repeat", type=int, default=5)
+    parser.add_argument("--repeat", type=int, default=9)
+    parser.add_argument("--core", help="quadrat_bench_core executable: time the core alone as well")
     args = parser.parse_args()
     n = args.rows
     small = min(10000, n)
@@ -108,12 +114,18 @@ def main():
             rows.append((label, figures))
         rss_end = soffice_rss_mb(office)
         doc.close(True)
-    print("| per call, median of %d recalculations | %dk rows | %dk rows | whole column (%dk filled) |" % (
+    print("| per call, fastest of %d recalculations | %dk rows | %dk rows | whole column (%dk filled) |" % (
         args.repeat, small // 1000, n // 1000, n // 1000))
     print("| --- | --- | --- | --- |")
     for label, (a, b, c) in rows:
         print("| %s | %.2f ms | %.2f ms | %.2f ms |" % (label, a, b, c))
     print("\nempty-sheet calculateAll baseline subtracted: %.2f ms" % (baseline * 1000))
+    if args.core:
+        print("\nthe core alone on the same data (tools/bench_core.cpp, fastest of 9):")
+        out = subprocess.run([args.core, str(small), str(n)], check=True, capture_output=True, text=True).stdout
+        print("".join("    " + line + "\n" for line in out.splitlines()), end="")
+    with open("/proc/loadavg") as f:
+        print("load average during the run: %s" % " ".join(f.read().split()[:3]))
     if rss_start is not None and rss_end is not None:
         print("soffice.bin resident memory: %.0f MB before the formulas, %.0f MB after" % (rss_start, rss_end))
 

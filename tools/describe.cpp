@@ -12,6 +12,7 @@
 #include <fstream>
 #include <iostream>
 #include <sstream>
+#include <cctype>
 #include <string>
 #include <vector>
 
@@ -27,6 +28,23 @@ std::vector<const FunctionInfo*> shipped_functions() {
     for (const auto& f : quadrat::addin::registry())
         if (f.handler) shipped.push_back(&f);
     return shipped;
+}
+
+// UNOIDL identifiers take no underscore here (unoidl-write refuses `counts_or_labels`), so the
+// IDL parameter is the lowerCamel of the catalogue's words, as the method names are:
+// counts_or_labels → countsOrLabels. The wizard still shows the catalogue's name.
+std::string idl_name(const std::string& name) {
+    std::string out;
+    bool upper = false;
+    for (char c : name) {
+        if (c == '_') {
+            upper = true;
+            continue;
+        }
+        out += upper ? static_cast<char>(std::toupper(static_cast<unsigned char>(c))) : c;
+        upper = false;
+    }
+    return out;
 }
 
 // Text for an XML element or attribute.
@@ -57,7 +75,7 @@ std::string idl_text(const std::vector<const FunctionInfo*>& functions) {
             // A reference argument reaches the add-in as the range object (used rows only, error
             // cells named); every other argument is an `any`, which Calc treats as optional.
             idl << (i ? ", " : "") << "[in] " << (a.reference ? "com::sun::star::table::XCellRange" : "any") << " "
-                << a.name;
+                << idl_name(a.name);
         }
         idl << ");\n";
     }
@@ -89,7 +107,7 @@ std::string xcu_text(const std::vector<const FunctionInfo*>& functions) {
                "     <node oor:name=\"Parameters\">\n";
         for (const ArgumentInfo& a : f->arguments) {
             // Calc matches these nodes to the IDL parameters by name.
-            xcu << "      <node oor:name=\"" << a.name << "\" oor:op=\"replace\">\n";
+            xcu << "      <node oor:name=\"" << idl_name(a.name) << "\" oor:op=\"replace\">\n";
             localized(xcu, "       ", "DisplayName", a.name);
             localized(xcu, "       ", "Description", a.description);
             xcu << "      </node>\n";
@@ -116,11 +134,11 @@ std::string forwarding_text(const std::vector<const FunctionInfo*>& functions) {
             const ArgumentInfo& a = f->arguments[i];
             inc << (i ? ", " : "")
                 << (a.reference ? "const css::uno::Reference<css::table::XCellRange>& " : "const css::uno::Any& ")
-                << a.name;
+                << idl_name(a.name);
         }
         inc << ") override\n{\n    return answer(\"" << f->method << "\", [&](Call& call) {\n";
         for (const ArgumentInfo& a : f->arguments)
-            inc << "        call." << (a.reference ? "reference(" : "value(") << a.name << ");\n";
+            inc << "        call." << (a.reference ? "reference(" : "value(") << idl_name(a.name) << ");\n";
         inc << "    });\n}\n\n";
     }
     return inc.str();

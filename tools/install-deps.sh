@@ -8,8 +8,8 @@ set -euo pipefail
 
 # The one list. --no-install-recommends keeps LibreOffice to about 60 packages.
 PACKAGES=(
-  # build and core tests
-  build-essential cmake make zip
+  # build and core tests; clang and its runtime for the sanitizer and fuzzing build
+  build-essential cmake make zip clang libclang-rt-14-dev
   libboost-dev libboost-math-dev libeigen3-dev libgtest-dev nlohmann-json3-dev
   # the extension: SDK tools and headers, a headless Calc to run it, Python UNO bridge for the harness
   libreoffice-dev libreoffice-calc-nogui python3-uno

@@ -127,10 +127,24 @@ def report_sheet(sheet, names):
 
 
 def export_pdf(doc, sheet, path):
-    """One PDF of the sheet's used area."""
+    """One PDF of the sheet's used area: columns as wide as their contents, landscape, one page
+    wide (changed in the open copy only; the workbook file is not written)."""
     cursor = sheet.createCursor()
     cursor.gotoStartOfUsedArea(False)
     cursor.gotoEndOfUsedArea(True)
+    area = cursor.getRangeAddress()
+    for c in range(area.StartColumn, area.EndColumn + 1):
+        column = sheet.getColumns().getByIndex(c)
+        column.OptimalWidth = True
+        # Capped, so that numbers in General format round to the width instead of showing 15 digits.
+        column.Width = min(column.Width, 2600)
+    style = doc.StyleFamilies.getByName("PageStyles").getByName(sheet.PageStyle)
+    if not style.IsLandscape:
+        width, height = style.Width, style.Height
+        style.IsLandscape = True
+        style.Width, style.Height = max(width, height), min(width, height)
+    style.ScaleToPagesX = 1
+    style.ScaleToPagesY = 0
     selection = PropertyValue()
     selection.Name = "Selection"
     selection.Value = cursor

@@ -1,8 +1,8 @@
 #!/usr/bin/env bash
 # Every test, as CI runs it (.ci/run): install what is missing → Release build with the
-# extension → core tests → AddressSanitizer/UBSan build of the core and its tests → office tests
-# in a headless Calc. Runs every stage it can, exits non-zero on any failure, and ends with the
-# runners' summary lines.
+# extension → core tests → clang AddressSanitizer/UBSan build of the core and its tests → a short
+# fuzz run over every function → office tests in a headless Calc. Runs every stage it can, exits
+# non-zero on any failure, and ends with the runners' summary lines.
 #   bash tools/test-all.sh
 set -uo pipefail
 cd "$(dirname "$0")/.."
@@ -40,11 +40,19 @@ else
   built_extension=0
 fi
 
-stage "sanitizer build (AddressSanitizer, UBSan), core only"
-if cmake -S . -B build-asan -DQUADRAT_SANITIZE=ON -DQUADRAT_EXTENSION=OFF &&
+stage "sanitizer build (clang: AddressSanitizer, UBSan, libFuzzer), core only"
+if CC=clang CXX=clang++ cmake -S . -B build-asan -DQUADRAT_SANITIZE=ON -DQUADRAT_FUZZ=ON -DQUADRAT_EXTENSION=OFF \
+     -DCMAKE_BUILD_TYPE=RelWithDebInfo &&
    cmake --build build-asan -j"$JOBS"; then
   stage "core tests (sanitizers)"
   ASAN_OPTIONS="${ASAN_OPTIONS:-detect_leaks=1}" run_ctest "core tests (sanitizers)" build-asan
+  stage "fuzzing every function through the fence (${FUZZ_SECONDS:-120} s)"
+  fuzz_log="$log_dir/fuzz.log"
+  FUZZ_BUILD=build-asan bash tools/fuzz.sh 2>&1 | tee "$fuzz_log"
+  rc=${PIPESTATUS[0]}
+  line="$(grep -E '^fuzz: [0-9]+ passed, [0-9]+ failed$' "$fuzz_log" | tail -1)"
+  summary+=("${line:-fuzz: no summary (exit $rc)}")
+  [[ $rc -eq 0 ]] || status=1
 else
   summary+=("sanitizer build: FAILED")
   status=1

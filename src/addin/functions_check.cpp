@@ -1,6 +1,7 @@
 // CHECK.NORMAL, CHECK.VARIANCE, CHECK.QQ: read the arguments, call the core, pick the output.
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
+#include "addin/memo.hpp"
 #include "core/data.hpp"
 #include "core/keywords.hpp"
 #include "core/normality.hpp"
@@ -18,16 +19,20 @@ const std::vector<std::string>& normality_outputs() {
 }  // namespace
 
 Table check_normal(const Arguments& a) {
-    const Groups g = read_groups(a[0], a[1]);
-    const std::string method = match_keyword(keyword_argument(a[2], "method"), normality_methods(), "method");
-    return select_output(quadrat::check_normal(g, method), keyword_argument(a[3], "output"), normality_outputs());
+    const auto result = remembered("checkNormal", a, 3, [&] {
+        const Groups g = read_groups(a[0], a[1]);
+        return quadrat::check_normal(g, match_keyword(keyword_argument(a[2], "method"), normality_methods(), "method"));
+    });
+    return select_output(*result, keyword_argument(a[3], "output"), normality_outputs());
 }
 
 Table check_variance(const Arguments& a) {
-    const Groups g = read_groups(a[0], a[1]);
-    const std::string method = match_keyword(keyword_argument(a[2], "method"), variance_methods(), "method");
+    const auto result = remembered("checkVariance", a, 3, [&] {
+        const Groups g = read_groups(a[0], a[1]);
+        return quadrat::check_variance(g, match_keyword(keyword_argument(a[2], "method"), variance_methods(), "method"));
+    });
     static const std::vector<std::string> outputs = {"p", "statistic", "df", "df2", "n", "table", "report"};
-    return select_output(quadrat::check_variance(g, method), keyword_argument(a[3], "output"), outputs);
+    return select_output(*result, keyword_argument(a[3], "output"), outputs);
 }
 
 Table check_qq(const Arguments& a) {

@@ -1,6 +1,7 @@
 // COMPARE.* handlers: read the arguments, call the core, pick the output.
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
+#include "addin/memo.hpp"
 #include "core/data.hpp"
 #include "core/keywords.hpp"
 #include "core/oneway.hpp"
@@ -21,17 +22,21 @@ const Range& argument(const Arguments& a, std::size_t i) {
 
 // COMPARE.GROUPS(values; groups; [method]; [output]; [transform])
 Table compare_groups(const Arguments& a) {
-    const Groups g = read_groups(argument(a, 0), argument(a, 1));
-    const std::string method =
-        match_keyword(keyword_argument(argument(a, 2), "method"), {"welch", "pooled", "ranks"}, "method");
-    const Transform t = parse_transform(keyword_argument(argument(a, 4), "transform"));
-    return select_output(quadrat::compare_groups(g, method, t), keyword_argument(argument(a, 3), "output"),
-                         standard_outputs());
+    const std::string output = keyword_argument(argument(a, 3), "output");
+    // Neighbouring cells asking other outputs of the same test share one computation (memo.hpp).
+    const auto result = remembered("compareGroups", a, 3, [&] {
+        const Groups g = read_groups(argument(a, 0), argument(a, 1));
+        const std::string method =
+            match_keyword(keyword_argument(argument(a, 2), "method"), {"welch", "pooled", "ranks"}, "method");
+        const Transform t = parse_transform(keyword_argument(argument(a, 4), "transform"));
+        return quadrat::compare_groups(g, method, t);
+    });
+    return select_output(*result, output, standard_outputs());
 }
 
-// COMPARE.PAIRED(first; second; [method]; [output]; [transform]). A single number in `second`
-// makes it a one-sample test against that number.
-Table compare_paired(const Arguments& a) {
+namespace {
+// The readings of COMPARE.PAIRED: a single number in `second` makes it a one-sample test.
+TestResult paired_result(const Arguments& a) {
     const Range& first = argument(a, 0);
     const Range& second = argument(a, 1);
     const std::string method =
@@ -60,8 +65,16 @@ Table compare_paired(const Arguments& a) {
         if (!f.names[0].empty()) readings.first_name = f.names[0];
         if (!f.names[1].empty()) readings.second_name = f.names[1];
     }
-    return select_output(quadrat::compare_paired(readings, method, t), keyword_argument(argument(a, 3), "output"),
-                         standard_outputs());
+    return quadrat::compare_paired(readings, method, t);
+}
+}  // namespace
+
+// COMPARE.PAIRED(first; second; [method]; [output]; [transform])
+Table compare_paired(const Arguments& a) {
+    const std::string output = keyword_argument(argument(a, 3), "output");
+    // Neighbouring cells asking other outputs of the same test share one computation (memo.hpp).
+    const auto result = remembered("comparePaired", a, 3, [&] { return paired_result(a); });
+    return select_output(*result, output, standard_outputs());
 }
 
 }  // namespace quadrat::addin

@@ -2,6 +2,7 @@
 // the output. Nothing statistical here.
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
+#include "addin/memo.hpp"
 #include "core/correlation.hpp"
 #include "core/diagnostics.hpp"
 #include "core/keywords.hpp"
@@ -10,35 +11,44 @@
 namespace quadrat::addin {
 
 namespace {
+// An argument by position; one the caller left off reads as omitted.
+const Range& argument(const Arguments& a, std::size_t i) {
+    static const Range omitted = Range::omitted_argument();
+    return i < a.size() ? a[i] : omitted;
+}
+
 LinearModel fit_regression(const RegressionData& data) {
     return fit_least_squares(data.y, data.predictors, data.names, true);
 }
 }  // namespace
 
 Table fit_linear(const Arguments& a) {
-    const RegressionData data = read_regression(a[0], a[1]);
-    const std::string output = match_keyword(keyword_argument(a[2], "output"), linear_outputs(), "output");
-    const double level = level_argument(a[3]);
+    const RegressionData data = read_regression(argument(a, 0), argument(a, 1));
+    const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), linear_outputs(), "output");
+    const double level = level_argument(argument(a, 3));
     return linear_output(fit_regression(data), data.n_dropped, output, level);
 }
 
 Table fit_points(const Arguments& a) {
-    const RegressionData data = read_regression(a[0], a[1]);
-    const std::string given = keyword_argument(a[2], "what");
+    const RegressionData data = read_regression(argument(a, 0), argument(a, 1));
+    const std::string given = keyword_argument(argument(a, 2), "what");
     const std::string what = given.empty() ? given : match_keyword(given, point_columns(), "what");
     return fit_points_table(fit_regression(data), data, what);
 }
 
 Table check_model(const Arguments& a) {
-    const RegressionData data = read_regression(a[0], a[1]);
-    const std::string output = match_keyword(keyword_argument(a[2], "output"), check_model_outputs(), "output");
+    const RegressionData data = read_regression(argument(a, 0), argument(a, 1));
+    const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), check_model_outputs(), "output");
     return check_model_output(fit_regression(data), data, output);
 }
 
 Table relate_correlation(const Arguments& a) {
-    const std::string method = match_keyword(keyword_argument(a[2], "method"), {"pearson", "spearman", "kendall"}, "method");
-    return select_output(quadrat::relate_correlation(a[0], a[1], method), keyword_argument(a[3], "output"),
-                         standard_outputs());
+    const std::string method = match_keyword(keyword_argument(argument(a, 2), "method"), {"pearson", "spearman", "kendall"}, "method");
+    // Neighbouring cells asking p, estimate and report of one correlation compute it once.
+    const auto result = remembered("relateCorrelation", a, 3, [&] {
+        return quadrat::relate_correlation(argument(a, 0), argument(a, 1), method);
+    });
+    return select_output(*result, keyword_argument(argument(a, 3), "output"), standard_outputs());
 }
 
 }  // namespace quadrat::addin

@@ -1,10 +1,15 @@
 // Handlers of the post-hoc family: ADJUST.P, COMPARE.POSTHOC, COMPARE.LETTERS.
 // Read the arguments, call the core, shape what the cells show. Nothing statistical here.
+#include <optional>
+#include <string>
 #include <vector>
 
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
 #include "core/adjust.hpp"
+#include "core/letters.hpp"
+#include "core/posthoc.hpp"
+#include "core/transform.hpp"
 #include "core/data.hpp"
 #include "core/refusal.hpp"
 
@@ -35,6 +40,26 @@ Table adjust_p(const Arguments& a) {
     Table out(cells.rows, std::vector<CellValue>(cells.columns));
     for (std::size_t i = 0; i < p.size(); ++i) out[where[i] / cells.columns][where[i] % cells.columns] = adjusted[i];
     return out;
+}
+
+// COMPARE.POSTHOC(values; groups; [method]; [adjust]; [transform]; [level]): the pairs table.
+// `adjust` is checked for every method but only used by dunn, t-pairs and rank-pairs.
+Table compare_posthoc(const Arguments& a) {
+    const Groups g = read_groups(a[0], a[1]);
+    const PosthocMethod method = parse_posthoc_method(keyword_argument(a[2], "method"));
+    const std::string adjust = keyword_argument(a[3], "adjust");
+    const std::optional<Adjustment> adjustment =
+        adjust.empty() ? std::nullopt : std::optional<Adjustment>(parse_adjustment(adjust));
+    const Transform t = parse_transform(keyword_argument(a[4], "transform"));
+    return quadrat::compare_posthoc(g, method, adjustment, t, level_argument(a[5])).table();
+}
+
+// COMPARE.LETTERS(values; groups; [method]; [level]; [transform]): one row per group with letters.
+Table compare_letters(const Arguments& a) {
+    const Groups g = read_groups(a[0], a[1]);
+    const PosthocMethod method = parse_posthoc_method(keyword_argument(a[2], "method"));
+    const Transform t = parse_transform(keyword_argument(a[4], "transform"));
+    return quadrat::compare_letters(g, method, level_argument(a[3]), t).table();
 }
 
 }  // namespace quadrat::addin

@@ -70,7 +70,7 @@ const std::vector<FunctionInfo>& registry() {
           {"adjust", "p-value adjustment for dunn, t-pairs, rank-pairs: holm (default), bonferroni, hochberg, hommel, bh, by, sidak.", false},
           {"transform", transform_text, false},
           {"level", level_text, false}},
-         nullptr},
+         compare_posthoc},
         {"COMPARE.LETTERS", "compareLetters",
          "Compact letter display: groups sharing a letter do not differ significantly. Array (enter as array formula): group, n, mean, letters.",
          {{"values", values_text, true},
@@ -78,7 +78,7 @@ const std::vector<FunctionInfo>& registry() {
           {"method", "tukey (default), games-howell, dunn, t-pairs, rank-pairs.", false},
           {"level", level_text, false},
           {"transform", transform_text, false}},
-         nullptr},
+         compare_letters},
         {"COMPARE.COUNTS", "compareCounts",
          "Tests association between two categorical variables, from a block of counts or two label columns. Default output: the p-value (0 to 1).",
          {{"counts_or_labels", "A block of counts (text first row and column name the categories), or a first label column.", true},
@@ -145,7 +145,7 @@ const std::vector<FunctionInfo>& registry() {
           {"predictor", "Optional: group labels, a second measurement, or a second categorical variable.", false},
           {"output", "report (default), method, transform, function, table.", false},
           {"design", "auto (default), groups, paired, relationship.", false}},
-         nullptr},
+         &advise_test},
     };
     return functions;
 }

@@ -9,14 +9,10 @@
 #include <boost/math/distributions/fisher_f.hpp>
 
 #include "keywords.hpp"
+#include "normality.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
 #include "summary.hpp"
-
-#if __has_include("normality.hpp")
-#include "normality.hpp"
-#define QUADRAT_HAS_SHAPIRO_WILK 1
-#endif
 
 namespace quadrat {
 
@@ -101,19 +97,14 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
     const std::size_t k = data.predictors.size();
 
     // Residual normality: Shapiro–Wilk on the residuals (Royston 1995, from the normality family).
-#ifdef QUADRAT_HAS_SHAPIRO_WILK
     try {
         const TestResult sw = shapiro_wilk(m.residuals);
         c.normality_w = sw.number("statistic");
         c.normality_p = sw.number("p");
     } catch (const Refusal& r) {
         c.normality_w = c.normality_p = not_defined;
-        c.normality_note = r.what();
+        c.normality_note = r.what();  // beyond 5000 rows, or residuals that do not vary
     }
-#else
-    c.normality_w = c.normality_p = not_defined;
-    c.normality_note = "Shapiro–Wilk is not available in this build";
-#endif
 
     // Constant variance: Breusch–Pagan in Koenker's studentized form, LM = n R² of the squared
     // residuals on the predictors, χ² with k df (Breusch & Pagan 1979, Econometrica 47, 1287–1294;
@@ -151,7 +142,7 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
     c.reset_df = 2;
     c.reset_df2 = nn - static_cast<double>(m.parameters) - 2.0;
     try {
-        if (c.reset_df2 < 1) throw Refusal("needs at least " + std::to_string(m.parameters + 3) + " rows");
+        if (c.reset_df2 < 1) throw Refusal("too few rows");
         const double centre = mean(m.fitted);
         const double spread = std::sqrt(sum_of_squares(m.fitted, centre) / nn);
         if (!(spread > 0)) throw Refusal("the fitted values do not vary");
@@ -173,9 +164,13 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
         c.reset_f = std::max(0.0, c.reset_f);
         const boost::math::fisher_f dist(c.reset_df, c.reset_df2);
         c.reset_p = boost::math::cdf(boost::math::complement(dist, c.reset_f));
-    } catch (const Refusal& r) {
+    } catch (const Refusal&) {
+        // Too few rows, or fitted² and fitted³ already in the predictors' span (a predictor with
+        // two or three distinct values): the added terms cannot be tested.
         c.reset_f = c.reset_p = not_defined;
-        c.linearity_note = std::string("not defined: ") + r.what();
+        c.linearity_note = c.reset_df2 < 1 ? "not defined: needs at least " + std::to_string(m.parameters + 3) + " rows"
+                                           : std::string("not defined: the squared and cubed fitted values add nothing "
+                                                         "to the predictors (too few distinct values)");
     }
 
     // Collinearity: the largest variance inflation factor.

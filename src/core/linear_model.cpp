@@ -129,8 +129,17 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
                                       "); there is no variation to explain"
                                 : "y is zero in every used row; there is nothing to explain");
 
+    // The design B: a constant column (with an intercept), then each predictor centred and scaled
+    // by a power of two near its spread. In extended precision the centring is exact for doubles of
+    // similar magnitude and the scaling always is, so B is the data's design, not a rounded copy.
+    const Eigen::Index offset = intercept ? 1 : 0;
+    const Eigen::Index columns = static_cast<Eigen::Index>(parameters);
+    const Eigen::Index rows = static_cast<Eigen::Index>(n);
     std::vector<double> centre(k, 0.0), scale(k, 1.0);
-    Matrix x(static_cast<Eigen::Index>(n), static_cast<Eigen::Index>(k));
+    Matrix design(rows, columns);
+    // The intercept's column holds 2^-k near 1/√n, so that every column has a norm from 1 to 2.
+    const double ones = intercept ? 1.0 / power_of_two_near(std::sqrt(static_cast<double>(n))) : 0.0;
+    if (intercept) design.col(0).setConstant(ones);
     for (std::size_t j = 0; j < k; ++j) {
         const std::vector<double>& column = predictors[j];
         centre[j] = intercept ? mean(column) : 0.0;
@@ -140,56 +149,46 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
                                           "); a constant predictor cannot be told apart from the intercept"
                                     : names[j] + " is zero in every used row; it cannot be estimated");
         scale[j] = power_of_two_near(spread);
-        for (std::size_t i = 0; i < n; ++i)
-            x(static_cast<Eigen::Index>(i), static_cast<Eigen::Index>(j)) = (static_cast<Real>(column[i]) - centre[j]) / scale[j];
+        const Eigen::Index jj = offset + static_cast<Eigen::Index>(j);
+        for (Eigen::Index i = 0; i < rows; ++i)
+            design(i, jj) = (static_cast<Real>(column[static_cast<std::size_t>(i)]) - centre[j]) / scale[j];
     }
-    Vector yc(static_cast<Eigen::Index>(n));
-    for (std::size_t i = 0; i < n; ++i) yc(static_cast<Eigen::Index>(i)) = static_cast<Real>(y[i]) - y_centre;
+    Vector yc(rows);
+    for (Eigen::Index i = 0; i < rows; ++i) yc(i) = static_cast<Real>(y[static_cast<std::size_t>(i)]) - y_centre;
 
-    Eigen::ColPivHouseholderQR<Matrix> qr(x);
+    Eigen::ColPivHouseholderQR<Matrix> qr(design);
     qr.setThreshold(rank_tolerance);
-    if (qr.rank() < static_cast<Eigen::Index>(k)) refuse_collinear(x, names, intercept);
+    if (qr.rank() < columns) refuse_collinear(Matrix(design.rightCols(static_cast<Eigen::Index>(k))), names, intercept);
 
-    // Solve on the centred, scaled columns; then refine (Björck 1967): the residuals of the data
-    // as given are accumulated in extended precision and the correction is solved with the same
-    // factors. Working from the raw data, not the centred copy, lets an exact fit come out exact
-    // (Wampler1) and keeps the intercept's digits when the centres are large (Wampler5, x⁵ ≈ 3e6).
-    const Vector beta = qr.solve(yc);
+    // Solve, then refine the solution and the residuals together on the augmented system
+    // [I B; B' 0][r; u] = [y; 0] with the same factors (Björck 1967, BIT 7, 257–278). Refining u
+    // alone leaves an error that grows with κ² ‖r‖, which shows on large-residual designs
+    // (NIST Wampler4/5); the augmented refinement removes it.
+    const auto upper = qr.matrixR().topLeftCorner(columns, columns).triangularView<Eigen::Upper>();
+    const auto& pivots = qr.colsPermutation().indices();
+    Vector u = qr.solve(yc);
+    Vector residual = yc - design * u;
+    for (int step = 0; step < 4; ++step) {
+        const Vector f = yc - residual - design * u;
+        const Vector g = -(design.transpose() * residual);
+        Vector permuted_g(columns);
+        for (Eigen::Index i = 0; i < columns; ++i) permuted_g(i) = g(pivots(i));
+        const Vector h = upper.transpose().solve(permuted_g);   // R' h = P' g
+        const Vector d = qr.householderQ().adjoint() * f;      // Q' f
+        const Vector z = upper.solve(d.head(columns) - h);     // R z = d₁ − h
+        Vector du(columns);
+        for (Eigen::Index i = 0; i < columns; ++i) du(pivots(i)) = z(i);
+        u += du;
+        residual += f - design * du;
+    }
+
     std::vector<double> slope(k);
-    for (std::size_t j = 0; j < k; ++j) slope[j] = static_cast<double>(beta(static_cast<Eigen::Index>(j)) / scale[j]);
-    double b0 = 0.0;
-    if (intercept) {
-        long double level = y_centre;
-        for (std::size_t j = 0; j < k; ++j) level -= static_cast<long double>(slope[j]) * centre[j];
-        b0 = static_cast<double>(level);
+    long double b0 = intercept ? static_cast<long double>(y_centre) + u(0) * ones : 0.0L;
+    for (std::size_t j = 0; j < k; ++j) {
+        const long double s = u(offset + static_cast<Eigen::Index>(j)) / scale[j];
+        slope[j] = static_cast<double>(s);
+        if (intercept) b0 -= s * centre[j];
     }
-    std::vector<long double> raw_residual(n);
-    const auto compute_residuals = [&] {
-        long double total = 0;
-        for (std::size_t i = 0; i < n; ++i) {
-            long double r = static_cast<long double>(y[i]) - b0;
-            for (std::size_t j = 0; j < k; ++j) r -= static_cast<long double>(slope[j]) * predictors[j][i];
-            raw_residual[i] = r;
-            total += r;
-        }
-        return intercept ? total / static_cast<long double>(n) : 0.0L;
-    };
-    Vector residual(static_cast<Eigen::Index>(n));
-    for (int step = 0; step < 3; ++step) {
-        const long double mean_residual = compute_residuals();
-        for (std::size_t i = 0; i < n; ++i)
-            residual(static_cast<Eigen::Index>(i)) = raw_residual[i] - mean_residual;
-        const Vector correction = qr.solve(residual);
-        long double level = static_cast<long double>(b0) + mean_residual;
-        for (std::size_t j = 0; j < k; ++j) {
-            const double delta = static_cast<double>(correction(static_cast<Eigen::Index>(j)) / scale[j]);
-            slope[j] += delta;
-            level -= static_cast<long double>(delta) * centre[j];
-        }
-        b0 = intercept ? static_cast<double>(level) : 0.0;
-    }
-    compute_residuals();
-    for (std::size_t i = 0; i < n; ++i) residual(static_cast<Eigen::Index>(i)) = raw_residual[i];
 
     LinearModel m;
     m.intercept = intercept;
@@ -199,13 +198,11 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
     m.df_residual = static_cast<double>(n - parameters);
     m.tss = tss;
 
-    long double rss = 0;
-    for (long double r : raw_residual) rss += r * r;
-    m.rss = static_cast<double>(rss);
+    m.rss = static_cast<double>(residual.squaredNorm());
 
     if (intercept) {
         m.terms.push_back("intercept");
-        m.estimate.push_back(b0);
+        m.estimate.push_back(static_cast<double>(b0));
     }
     for (std::size_t j = 0; j < k; ++j) {
         m.terms.push_back(names[j]);
@@ -227,27 +224,30 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
     }
     m.sigma = std::sqrt(m.rss / m.df_residual);
 
-    // (X'X)⁻¹ of the scaled centred columns is G G' with G = P R⁻¹ (Xs P = Q R).
-    const Eigen::Index kk = static_cast<Eigen::Index>(k);
-    const Matrix r_inverse = qr.matrixR().topLeftCorner(kk, kk).triangularView<Eigen::Upper>().solve(
-        Matrix::Identity(kk, kk));
-    const Matrix g = qr.colsPermutation() * r_inverse;
+    // (B'B)⁻¹ = G G' with G = P R⁻¹ (B P = Q R).
+    const Matrix g = qr.colsPermutation() * Matrix(upper.solve(Matrix::Identity(columns, columns)));
 
     if (intercept) {
-        // var(b0) = σ² (1/n + x̄' (Xc'Xc)⁻¹ x̄): the centred columns are orthogonal to the constant.
-        RowVector centre_scaled(kk);
-        for (std::size_t j = 0; j < k; ++j) centre_scaled(static_cast<Eigen::Index>(j)) = centre[j] / scale[j];
-        const double quad = static_cast<double>((centre_scaled * g).squaredNorm());
-        m.std_error.push_back(m.sigma * std::sqrt(1.0 / static_cast<double>(n) + quad));
+        // b0 = ȳ + a u₀ − Σ c_j u_j / s_j (a the constant column's value), a linear combination ℓ'u: var = σ² ‖ℓ'G‖².
+        RowVector combination(columns);
+        combination(0) = ones;
+        for (std::size_t j = 0; j < k; ++j) combination(offset + static_cast<Eigen::Index>(j)) = -centre[j] / scale[j];
+        m.std_error.push_back(m.sigma * std::sqrt(static_cast<double>((combination * g).squaredNorm())));
         m.vif.push_back(not_defined);
     }
     for (std::size_t j = 0; j < k; ++j) {
-        const auto jj = static_cast<Eigen::Index>(j);
+        const Eigen::Index jj = offset + static_cast<Eigen::Index>(j);
         const double row_norm2 = static_cast<double>(g.row(jj).squaredNorm());
         m.std_error.push_back(m.sigma * std::sqrt(row_norm2) / scale[j]);
         // VIF_j = (C⁻¹)_jj C_jj for the centred cross-product C: scale-free, and equal to
         // 1/(1 − R²_j) of x_j on the other predictors (Marquardt 1970, Technometrics 12, 591–612).
-        m.vif.push_back(intercept ? row_norm2 * static_cast<double>(x.col(jj).squaredNorm()) : not_defined);
+        // With an intercept the predictor block of (B'B)⁻¹ is C⁻¹ of the exactly centred columns.
+        if (intercept) {
+            const Vector centred = design.col(jj).array() - design.col(jj).mean();
+            m.vif.push_back(row_norm2 * static_cast<double>(centred.squaredNorm()));
+        } else {
+            m.vif.push_back(not_defined);
+        }
     }
 
     for (std::size_t j = 0; j < parameters; ++j) {
@@ -279,8 +279,7 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         m.bic = -2.0 * m.log_likelihood + std::log(nn) * counted;
     }
 
-    // Per row: residuals, fitted values, leverage h_i = 1/n + ‖xs_i G‖² (0 without the 1/n when
-    // there is no intercept). O(n p²), no n×n hat matrix.
+    // Per row: residuals, fitted values, leverage h_i = ‖B_i G‖². O(n p²), no n×n hat matrix.
     m.residuals.resize(n);
     m.fitted.resize(n);
     m.leverage.resize(n);
@@ -288,7 +287,7 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         const auto ii = static_cast<Eigen::Index>(i);
         m.residuals[i] = static_cast<double>(residual(ii));
         m.fitted[i] = static_cast<double>(static_cast<Real>(y[i]) - residual(ii));
-        const double h = static_cast<double>((x.row(ii) * g).squaredNorm()) + (intercept ? 1.0 / nn : 0.0);
+        const double h = static_cast<double>((design.row(ii) * g).squaredNorm());
         m.leverage[i] = std::min(h, 1.0);
     }
     return m;

@@ -1,6 +1,7 @@
 // CHECK.NORMAL and CHECK.QQ: is a sample (or the residuals from the group means) normal?
 // Every test is location and scale invariant, so values are first centred on the mid-range and
-// divided by the half-range: a 1e300 among ordinary readings cannot overflow a sum of squares.
+// divided by the range: a 1e300 among ordinary readings cannot overflow a sum of squares, nor can
+// values a few denormals apart underflow to zero spread.
 #pragma once
 
 #include <span>

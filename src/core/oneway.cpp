@@ -36,10 +36,12 @@ ScaledGroups scale_groups(std::span<const std::vector<double>> groups) {
 
 void require_k_groups(std::span<const std::vector<double>> groups) {
     if (groups.size() < 2) throw Refusal("needs at least 2 groups, found " + std::to_string(groups.size()));
-    for (std::size_t i = 0; i < groups.size(); ++i)
+    for (std::size_t i = 0; i < groups.size(); ++i) {
         if (groups[i].size() < 2)
             throw Refusal("group " + std::to_string(i + 1) + " has " + std::to_string(groups[i].size()) +
                           " value(s); each group needs at least 2");
+        require_finite(groups[i]);
+    }
 }
 
 std::vector<double> group_means(std::span<const std::vector<double>> groups) {
@@ -101,7 +103,7 @@ AnovaTable one_way_anova_table(std::span<const std::vector<double>> raw_groups) 
     t.ms_between = t.ss_between / t.df_between;
     t.ms_within = t.ss_within / t.df_within;
     // F from the scaled sums, so that it stays finite even where the unscaled SS would not.
-    t.f = (between.sum() / t.df_between) / (within.sum() / t.df_within);
+    t.f = require_finite_statistic((between.sum() / t.df_between) / (within.sum() / t.df_within), "F");
     const boost::math::fisher_f dist(t.df_between, t.df_within);
     t.p = cdf(complement(dist, t.f));
     return t;
@@ -131,8 +133,7 @@ TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) 
     const auto& groups = scaled.groups;
     const double k = static_cast<double>(groups.size());
 
-    std::vector<double> means, weights;
-    Accumulator weight_total;
+    std::vector<double> means, variances, weights;
     for (std::size_t i = 0; i < groups.size(); ++i) {
         const double m = mean(groups[i]);
         const double var = sum_of_squares(groups[i], m) / static_cast<double>(groups[i].size() - 1);
@@ -140,7 +141,14 @@ TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) 
             throw Refusal("group " + std::to_string(i + 1) +
                           " has zero spread; Welch's ANOVA weights each group by n/variance — use method 'pooled' or 'ranks'");
         means.push_back(m);
-        weights.push_back(static_cast<double>(groups[i].size()) / var);
+        variances.push_back(var);
+    }
+    // Weights n_i/s_i² taken relative to the smallest variance (F and df depend only on their
+    // ratios), so that a group with a tiny spread cannot overflow their sum.
+    const double smallest_variance = *std::min_element(variances.begin(), variances.end());
+    Accumulator weight_total;
+    for (std::size_t i = 0; i < groups.size(); ++i) {
+        weights.push_back(static_cast<double>(groups[i].size()) * (smallest_variance / variances[i]));
         weight_total.add(weights.back());
     }
     const double w = weight_total.sum();
@@ -155,10 +163,12 @@ TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) 
         const double share = 1 - weights[i] / w;
         lambda.add(share * share / static_cast<double>(groups[i].size() - 1));
     }
-    const double a = spread.sum() / (k - 1);
+    const double a = spread.sum() / smallest_variance / (k - 1);
     const double b = 1 + 2 * (k - 2) / (k * k - 1) * lambda.sum();
-    const double f = a / b;
+    const double f = require_finite_statistic(a / b, "F");
     const double df2 = (k * k - 1) / (3 * lambda.sum());
+    if (!(df2 > 0 && std::isfinite(df2)))
+        throw Refusal("one group's spread is so much smaller than the others' that Welch's df cannot be computed; use method 'pooled' or 'ranks'");
     const boost::math::fisher_f dist(k - 1, df2);
 
     TestResult r;
@@ -333,6 +343,7 @@ TestResult compare_groups(const Groups& g, const std::string& method_given, Tran
     }
     s += format_number(r.number("effect"));
     r.report = s;
+    mark_non_finite(r);
     return r;
 }
 

@@ -104,7 +104,7 @@ TestResult paired_t_test(std::span<const double> differences_raw, double level) 
     const double sd = std::sqrt(sum_of_squares(d, m) / (n - 1));
     if (!(sd > 0)) throw Refusal("all differences are equal (no spread); a t-test needs spread in the differences");
     const double se = sd / std::sqrt(n);
-    const double t = m / se;
+    const double t = require_finite_statistic(m / se, "t");
     const boost::math::students_t dist(n - 1);
     const double margin = quantile(complement(dist, (1 - level) / 2)) * se;
 
@@ -241,8 +241,15 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
     } else {
         apply_transform(transform, second);
     }
+    require_finite(first);
+    require_finite(second);
+    if (!std::isfinite(reference)) throw Refusal("the reference value in second must be a finite number");
     std::vector<double> differences(first.size());
-    for (std::size_t i = 0; i < first.size(); ++i) differences[i] = first[i] - (readings.one_sample ? reference : second[i]);
+    for (std::size_t i = 0; i < first.size(); ++i) {
+        differences[i] = first[i] - (readings.one_sample ? reference : second[i]);
+        if (!std::isfinite(differences[i]))
+            throw Refusal("a difference first − second is beyond the range of numbers (about 1.8e308); rescale the data");
+    }
 
     TestResult r;
     if (method == "t") r = paired_t_test(differences, level);
@@ -297,6 +304,7 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
         s += format_level(level) + " CI " + format_number(r.number("ci-low")) + " to " + format_number(r.number("ci-high"));
     s += "), " + std::string(method == "t" ? "Cohen's d = " : "matched-pairs rank-biserial r = ") + format_number(r.number("effect"));
     r.report = s;
+    mark_non_finite(r);
     return r;
 }
 

@@ -38,6 +38,8 @@ void require_two_values(std::span<const double> first, std::span<const double> s
     if (first.size() < 2 || second.size() < 2)
         throw Refusal("each group needs at least 2 values, found " + std::to_string(first.size()) + " and " +
                       std::to_string(second.size()));
+    require_finite(first);
+    require_finite(second);
 }
 
 std::vector<double> scaled(std::span<const double> xs, double scale) {
@@ -78,7 +80,8 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
         standard_error = std::sqrt(v1 + v2);
         df = (v1 + v2) * (v1 + v2) / (v1 * v1 / (a.n - 1) + v2 * v2 / (b.n - 1));
     }
-    const double t = difference / standard_error;
+    const double t = require_finite_statistic(difference / standard_error, "t");
+    if (!(df > 0 && std::isfinite(df))) throw Refusal("the degrees of freedom cannot be computed for these data");
     const double margin = t_critical(df, level) * standard_error;
 
     TestResult r;
@@ -96,6 +99,24 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
 
 }  // namespace
 
+void require_finite(std::span<const double> values) {
+    for (double x : values)
+        if (!std::isfinite(x)) throw Refusal("a value is not a finite number; remove infinities and NaN from the data");
+}
+
+double require_finite_statistic(double statistic, const char* name) {
+    if (!std::isfinite(statistic))
+        throw Refusal(std::string("the statistic ") + name +
+                      " is beyond the range of numbers: the spread is too small against the difference to test");
+    return statistic;
+}
+
+void mark_non_finite(TestResult& result) {
+    for (auto& q : result.quantities)
+        if (const double* x = std::get_if<double>(&q.value); x && !std::isfinite(*x))
+            q.value = std::string(std::isnan(*x) ? "not defined for these data" : "beyond the range of numbers");
+}
+
 double power_of_two_scale(std::span<const std::span<const double>> groups) {
     double largest = 0;
     for (const auto& g : groups)
@@ -103,7 +124,8 @@ double power_of_two_scale(std::span<const std::span<const double>> groups) {
     if (largest == 0 || !std::isfinite(largest)) return 1.0;
     int exponent = 0;
     std::frexp(largest, &exponent);
-    return std::ldexp(1.0, -exponent);
+    // Clamped so that the scale and its square's reciprocal stay normal numbers (denormal data).
+    return std::ldexp(1.0, std::clamp(-exponent, -1000, 1000));
 }
 
 double hedges_g(std::span<const double> first_raw, std::span<const double> second_raw) {

@@ -38,49 +38,59 @@ double group_mean(const std::vector<double>& g) {
 }
 
 // ln s² of one group (denominator n − 1), computed on the group shifted to its own mid-range and
-// divided by its own half-range, so that neither 1e300 nor 1e-300 over- or underflows; −∞ when the
+// divided by its own range, so that neither 1e300 nor 1e-300 over- or underflows; −∞ when the
 // group has no spread. Each group keeps its own digits, whatever the other groups hold.
 double log_variance(const std::vector<double>& g) {
     const auto [lo, hi] = std::minmax_element(g.begin(), g.end());
-    const double half_range = *hi / 2 - *lo / 2;
-    if (half_range == 0) return -HUGE_VAL;
+    if (*lo == *hi) return -HUGE_VAL;
+    // The range, or half of it when the range itself would overflow; never zero for distinct values.
+    const bool near_overflow = !std::isfinite(*hi - *lo);
+    const double scale = near_overflow ? *hi / 2 - *lo / 2 : *hi - *lo;
     const double mid = *lo / 2 + *hi / 2;
     std::vector<double> y(g);
-    for (double& x : y) x = half_range > 1e307 ? x / half_range - mid / half_range : (x - mid) / half_range;
-    return std::log(variance(y)) + 2 * std::log(half_range);
+    for (double& x : y) x = near_overflow ? x / scale - mid / scale : (x - mid) / scale;
+    return std::log(variance(y)) + 2 * std::log(scale);
 }
 
-// |x − group centre| on the data's own scale (so that ties are ties as stored numbers, as the
-// rank method needs), one vector per group.
-std::vector<std::vector<double>> absolute_deviations(const Groups& groups, bool from_median) {
-    std::vector<std::vector<double>> z(groups.group_count());
-    for (std::size_t i = 0; i < z.size(); ++i) {
-        const std::vector<double>& g = groups.values[i];
-        const double centre = from_median ? median(g) : group_mean(g);
+// The groups multiplied by a power of two that brings the overall range into [1, 2): exact for
+// every value (no rounding, so ties stay ties), and afterwards neither squares of 1e300 nor
+// differences of denormals leave the range of ordinary numbers. Every method here is scale free.
+std::vector<std::vector<double>> rescaled_groups(const Groups& groups) {
+    double lowest = HUGE_VAL, highest = -HUGE_VAL;
+    for (const auto& g : groups.values)
         for (double x : g) {
-            const double d = std::fabs(x - centre);
-            if (!std::isfinite(d)) throw Refusal("values are too far apart to compute with (beyond the largest number)");
-            z[i].push_back(d);
+            lowest = std::min(lowest, x);
+            highest = std::max(highest, x);
         }
+    const double range = highest - lowest;
+    const int exponent = std::isfinite(range) ? std::ilogb(range) : std::ilogb(highest / 2 - lowest / 2) + 1;
+    std::vector<std::vector<double>> y(groups.values);
+    if (range == 0) return y;  // no spread at all: refused by the caller
+    for (auto& g : y)
+        for (double& x : g) x = std::ldexp(x, -exponent);
+    return y;
+}
+
+// |x − group centre| for each group (of the rescaled groups, so exact multiples of the data's own
+// deviations: ties as stored numbers, as the rank method needs).
+std::vector<std::vector<double>> absolute_deviations(const std::vector<std::vector<double>>& groups, bool from_median) {
+    std::vector<std::vector<double>> z(groups.size());
+    for (std::size_t i = 0; i < z.size(); ++i) {
+        const std::vector<double>& g = groups[i];
+        const double centre = from_median ? median(g) : group_mean(g);
+        for (double x : g) z[i].push_back(std::fabs(x - centre));
     }
     return z;
 }
 
-// One-way ANOVA F of the absolute deviations from each group's centre (median or mean). The
-// deviations are divided by the largest first (F is scale free), so their squares cannot overflow.
+// One-way ANOVA F of the absolute deviations from each group's centre (median or mean).
 struct AnovaF {
     double f, df1, df2;
 };
-AnovaF deviation_anova(const Groups& groups, bool from_median, const std::string& method) {
-    std::vector<std::vector<double>> z = absolute_deviations(groups, from_median);
-    double largest = 0;
-    for (const auto& zi : z)
-        for (double d : zi) largest = std::max(largest, d);
+AnovaF deviation_anova(const std::vector<std::vector<double>>& groups, bool from_median, const std::string& method) {
+    const std::vector<std::vector<double>> z = absolute_deviations(groups, from_median);
     std::vector<double> all;
-    for (auto& zi : z) {
-        for (double& d : zi) d /= largest;  // largest > 0: some group has spread (checked by the caller)
-        all.insert(all.end(), zi.begin(), zi.end());
-    }
+    for (const auto& zi : z) all.insert(all.end(), zi.begin(), zi.end());
     const double grand = mean(all);
     Accumulator between, within;
     for (const auto& zi : z) {
@@ -146,7 +156,7 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
     double statistic = 0, p = 0;
     if (m == "brown-forsythe" || m == "levene") {
         const bool from_median = m == "brown-forsythe";
-        const AnovaF a = deviation_anova(groups, from_median, m);
+        const AnovaF a = deviation_anova(rescaled_groups(groups), from_median, m);
         r.test = from_median ? "Brown–Forsythe test of equal variances (deviations from group medians)"
                              : "Levene test of equal variances (deviations from group means)";
         statistic = a.f;
@@ -179,7 +189,8 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
         // Conover, Johnson & Johnson (1981): scores aᵢⱼ = Φ⁻¹(1/2 + rᵢⱼ/(2(N + 1))) of the mid-ranks of
         // |x − group median| over all N values; X² = Σ nᵢ(āᵢ − ā)² / V², V² the variance of all scores.
         std::vector<double> deviations;
-        for (const auto& zi : absolute_deviations(groups, true)) deviations.insert(deviations.end(), zi.begin(), zi.end());
+        for (const auto& zi : absolute_deviations(rescaled_groups(groups), true))
+            deviations.insert(deviations.end(), zi.begin(), zi.end());
         const Ranking ranking = rank_with_ties(deviations);
         const double n = static_cast<double>(deviations.size());
         const boost::math::normal standard_normal(0.0, 1.0);

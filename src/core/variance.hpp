@@ -1,6 +1,7 @@
-// CHECK.VARIANCE: do the groups have equal spread? Every method is location and scale invariant,
-// so the values are first shifted to the overall mid-range and divided by the half-range: a 1e300
-// among ordinary readings cannot overflow a sum of squares.
+// CHECK.VARIANCE: do the groups have equal spread? Each group's variance is computed on the group
+// shifted to its own mid-range and divided by its own range and kept as a logarithm, and the
+// deviation methods work on the data multiplied by a power of two (exact; every method is scale
+// invariant): a 1e300 among ordinary readings overflows nothing, and the other groups keep their digits.
 #pragma once
 
 #include <string>

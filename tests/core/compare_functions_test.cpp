@@ -3,6 +3,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <random>
 
 #include "addin/registry.hpp"
 #include "core/cells.hpp"
@@ -122,6 +123,51 @@ TEST(ComparePairedCell, Refusals) {
     EXPECT_EQ(text_of(call("comparePaired", {before(), text("seven")})).rfind("second must be", 0), 0u);
     Range short_after = Range::column({1, 2, 3});
     EXPECT_EQ(text_of(call("comparePaired", {before(), short_after})).find("same number of rows") != std::string::npos, true);
+}
+
+// Random sheets through the fence (common practice, no source): sizes 0 to 60, 1 to 25 groups,
+// ties, missing cells, zeros, huge and denormal values, every method, transform and output. The
+// answer is a number, a table or a refusal text, never an "internal error" (an escaped exception),
+// and never a non-finite number, in a single cell or in a table.
+TEST(CompareCellsRandom, NeverAnInternalErrorNorANonFiniteNumber) {
+    std::mt19937 rng(20261202);
+    const std::vector<double> specials = {0.0, 1.0, -1.0, 1e308, -1e308, 4.9e-324, 1e-300, 2.5, 2.5, 1e15 + 0.3};
+    const std::vector<std::string> outputs = {"p", "statistic", "df", "df2", "n", "estimate", "ci-low", "ci-high",
+                                              "effect", "table", "report"};
+    auto check = [](const Table& t, const std::string& what) {
+        for (const auto& row : t)
+            for (const auto& cell : row) {
+                if (const auto* x = std::get_if<double>(&cell)) {
+                    EXPECT_TRUE(std::isfinite(*x)) << what;
+                }
+                if (const auto* s = std::get_if<std::string>(&cell)) {
+                    EXPECT_EQ(s->find("internal error"), std::string::npos) << what << ": " << *s;
+                }
+            }
+    };
+    for (int trial = 0; trial < 2000; ++trial) {
+        const std::size_t rows = std::uniform_int_distribution<std::size_t>(0, 60)(rng);
+        const int k = std::uniform_int_distribution<int>(1, 25)(rng);
+        std::vector<double> xs(rows), ys(rows);
+        std::vector<std::string> labels(rows);
+        for (std::size_t i = 0; i < rows; ++i) {
+            const int kind = std::uniform_int_distribution<int>(0, 9)(rng);
+            xs[i] = kind == 0 ? specials[rng() % specials.size()] : std::round(std::normal_distribution<double>(5, 2)(rng) * 10) / 10;
+            ys[i] = kind == 1 ? specials[rng() % specials.size()] : xs[i] - std::round(std::normal_distribution<double>(0.3, 1)(rng) * 4) / 4;
+            labels[i] = "g" + std::to_string(rng() % k);
+        }
+        Range values = Range::column(xs), second = Range::column(ys), groups = Range::text_column(labels);
+        for (std::size_t i = 0; i < rows; ++i)
+            if (rng() % 15 == 0) values.cells[i] = Cell::make_text("n/a");
+        const std::string method = std::vector<std::string>{"welch", "pooled", "ranks"}[rng() % 3];
+        const std::string paired = std::vector<std::string>{"t", "signed-rank", "sign"}[rng() % 3];
+        const std::string transform = std::vector<std::string>{"none", "log", "log10", "log1p", "sqrt"}[rng() % 5];
+        const std::string output = outputs[rng() % outputs.size()];
+        const std::string what = std::to_string(trial) + " " + method + "/" + paired + " " + transform + " " + output;
+        check(call("compareGroups", {values, groups, text(method), text(output), text(transform)}), what);
+        check(call("comparePaired", {values, second, text(paired), text(output), text(transform)}), what);
+        check(call("comparePaired", {values, number(xs.empty() ? 1.0 : xs[0]), text(paired), text(output), text(transform)}), what);
+    }
 }
 
 }  // namespace

@@ -162,6 +162,21 @@ TEST(TwoGroups, ZeroSpreadInOneGroupAndHugeValues) {
     }
 }
 
+// Denormal data (multiples of 1e-320) and two values per group: finite answers, the same t as the
+// data times 1e320 would give (scale invariance, common practice). Tolerance 1e-3 relative: denormals
+// carry only about 4 significant digits.
+TEST(TwoGroups, DenormalValuesAndTwoPerGroup) {
+    const std::vector<double> a = {1e-320, 3e-320}, b = {4e-320, 7e-320};
+    const std::vector<double> a1 = {1, 3}, b1 = {4, 7};
+    for (bool pooled : {false, true}) {
+        const TestResult tiny = pooled ? pooled_t_test(a, b, 0.95) : welch_t_test(a, b, 0.95);
+        const TestResult plain = pooled ? pooled_t_test(a1, b1, 0.95) : welch_t_test(a1, b1, 0.95);
+        EXPECT_NEAR(tiny.number("statistic"), plain.number("statistic"), 1e-3 * std::fabs(plain.number("statistic")));
+        EXPECT_NEAR(tiny.number("p"), plain.number("p"), 1e-3);
+    }
+    EXPECT_TRUE(std::isfinite(compare_groups(two_groups(a, b), "ranks", Transform::none).number("p")));
+}
+
 // ---------------------------------------------------------------------------------------------
 // Wilcoxon–Mann–Whitney
 

@@ -4,6 +4,7 @@
 
 #include <cmath>
 #include <fstream>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -135,6 +136,16 @@ TEST(CheckVariance, HugeOutlierDoesNotOverflow) {
     EXPECT_TRUE(std::holds_alternative<std::string>(*r.find("a: variance")));
     const Groups bc = make_groups({"b", "c"}, {g.values[1], g.values[2]});
     EXPECT_LT(relative_error(r.number("b: variance"), check_variance(bc, "").number("b: variance")), 1e-12);
+}
+
+// Groups a few denormals apart answer as the same groups scaled up (scale invariance, common
+// practice, no source; 1e-9 relative).
+TEST(CheckVariance, DenormalsKeepTheirSpread) {
+    const double tiny = std::numeric_limits<double>::denorm_min();
+    const Groups small = make_groups({"a", "b"}, {{0, tiny, 3 * tiny, 4 * tiny}, {0, 8 * tiny, 2 * tiny, 16 * tiny, 5 * tiny}});
+    const Groups plain = make_groups({"a", "b"}, {{0, 1, 3, 4}, {0, 8, 2, 16, 5}});
+    for (const std::string& m : variance_methods())
+        EXPECT_LT(relative_error(check_variance(small, m).number("p"), check_variance(plain, m).number("p")), 1e-9) << m;
 }
 
 // Ties in whole-centimetre lengths are in the fixture ("fish lengths with ties"); 5000 values in

@@ -58,6 +58,7 @@ field.formula("D19", "INDEX(DESCRIBE.GROUPS([.B1:.B14]);2;3)")
 field.formula("D20", 'INDEX(DESCRIBE.GROUPS([.B1:.B14];;"log");2;3)')
 field.formula("D21", 'INDEX(DESCRIBE.GROUPS([.B1:.B14];;"LOG";99);2;6)')
 field.formula("D22", "INDEX(DESCRIBE.GROUPS([.B1:.B14];[.A1:.A14];;0.9);3;7)")
+field.formula("D24", "DESCRIBE.GROUPS([.B1:.B40];[.A1:.A40])", array=(4, 10))
 
 # --- wide: one column per group, header names them -----------------------------------------------
 wide = book.sheet("wide")
@@ -164,6 +165,8 @@ rows = [
      "between: the geometric mean's 99% lower limit from Calc's LN, AVERAGE, STDEV, TINV; 1e-9 for TINV's iteration"],
     ["field.D22", "=AVERAGE(%s)+TINV(0.1;4)*STDEV(%s)/SQRT(5)" % (refs("field", KEPT["downstream"]), refs("field", KEPT["downstream"])),
      1e-9, "level typed as the fraction 0.9: downstream ci-high from Calc's AVERAGE, STDEV, TINV"],
+    ["field.D24:M27", "block expected.A1:J4", 1e-9,
+     "a range reaching below the data (B1:B40): its empty rows are neither used nor dropped. " + SRC_CALC],
     ["wide.D1:M3", "block expected.A13:J15", 1e-9,
      "wide format: one column per group named by the header row; n/a dropped, blanks at a column's end. " + SRC_CALC],
     ["wide.D5:M7", "block expected.A13:J15", 1e-9, "wide format over whole columns A:B. " + SRC_CALC],

@@ -178,7 +178,7 @@ def evaluate(doc, check):
 
 
 def shipped_functions(oxt):
-    """method → (display name, description, [parameter names]) from the .oxt's CalcAddIns.xcu."""
+    """method → (display name, description, [parameter display names]) from the .oxt's CalcAddIns.xcu."""
     ns = {"oor": "http://openoffice.org/2001/registry"}
     name = "{%s}name" % ns["oor"]
     with zipfile.ZipFile(oxt) as z:
@@ -189,7 +189,10 @@ def shipped_functions(oxt):
             continue
         for f in node.findall("node"):
             texts = {p.get(name): p.findtext("value") for p in f.findall("prop")}
-            params = [p.get(name) for p in f.find("node").findall("node")] if f.find("node") is not None else []
+            # The wizard shows each parameter's DisplayName (the catalogue's name, e.g. counts_or_labels),
+            # not its node name (the IDL name, countsOrLabels).
+            params = [next((v.findtext("value") for v in p.findall("prop") if v.get(name) == "DisplayName"), p.get(name))
+                      for p in f.find("node").findall("node")] if f.find("node") is not None else []
             functions[f.get(name)] = (texts.get("DisplayName"), texts.get("Description"), params)
     return functions
 

@@ -232,7 +232,7 @@ def fit_lilliefors():
     rng = np.random.default_rng(20261202)
     grid = np.linspace(0.30, 0.95, 131)
     xs, ys, per = [], [], {}
-    for n in (5, 6, 8, 10, 15, 20, 30, 50, 100, 200, 500, 1000):
+    for n in (5, 6, 8, 10, 15, 20, 30, 50, 100, 200, 500, 1000, 2000, 5000):
         stat, done, reps = [], 0, 100000
         while done < reps:
             m = min(max(1, 2000000 // n), reps - done)

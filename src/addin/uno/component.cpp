@@ -103,10 +103,15 @@ Cell cell_from(const css::uno::Any& value) {
     }
 }
 
-// A reference argument. Only the part inside the sheet's used area is read, so a whole column
-// (A:A) costs its used rows; the start is never moved, so row positions and cell names stay
-// true. Cells come in one getDataArray() call; an error cell arrives as a void value and is
-// looked up to name its error (#DIV/0!, Err:504, …).
+// Ranges up to this many rows are read whole (at most about 1.5 ms), so their shape is exactly
+// the sheet's: row-aligned results (CHECK.QQ, FIT.POINTS) then have the input's rows. Longer
+// ranges (whole columns A:A, open-ended B2:B100000) are read down to the end of the used area.
+constexpr sal_Int32 rows_read_whole = 10000;
+
+// A reference argument. A long one is read only down to the last row of the sheet's used area,
+// so a whole column (A:A) costs its used rows; the start is never moved, so row positions and
+// cell names stay true. Cells come in one getDataArray() call; an error cell arrives as a
+// void value and is looked up to name its error (#DIV/0!, Err:504, …).
 Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows) {
     sheet_rows = 0;
     if (!reference.is()) return Range::omitted_argument();
@@ -119,9 +124,9 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
     sheet_rows = static_cast<std::size_t>(address.EndRow - address.StartRow + 1);
 
     sal_Int32 last_row = address.EndRow;
-    sal_Int32 last_column = address.EndColumn;
+    const sal_Int32 last_column = address.EndColumn;
     css::uno::Reference<css::sheet::XSheetCellRange> sheet_range(reference, css::uno::UNO_QUERY);
-    if (sheet_range.is()) {
+    if (sheet_range.is() && address.EndRow - address.StartRow + 1 > rows_read_whole) {
         css::uno::Reference<css::sheet::XSpreadsheet> sheet = sheet_range->getSpreadsheet();
         css::uno::Reference<css::sheet::XSheetCellCursor> cursor = sheet->createCursor();
         css::uno::Reference<css::sheet::XUsedAreaCursor> used(cursor, css::uno::UNO_QUERY);
@@ -130,12 +135,13 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
             used->gotoStartOfUsedArea(false);
             used->gotoEndOfUsedArea(true);
             const css::table::CellRangeAddress area = used_address->getRangeAddress();
+            // Rows only: a block keeps its columns, so a wide-format column with nothing in it
+            // yet is still a group.
             last_row = std::min(last_row, area.EndRow);
-            last_column = std::min(last_column, area.EndColumn);
         }
     }
-    if (last_row < address.StartRow || last_column < address.StartColumn) {
-        // Wholly below or right of the used area: nothing in it.
+    if (last_row < address.StartRow) {
+        // Wholly below the used area: nothing in it.
         range.columns = static_cast<std::size_t>(address.EndColumn - address.StartColumn + 1);
         return range;
     }
@@ -168,19 +174,51 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
     return range;
 }
 
+// A reference read only down to the end of the used area: how many rows it spans on the sheet,
+// and how many were read.
+struct Clip {
+    std::size_t sheet_rows;
+    std::size_t used_rows;
+};
+
+bool is_empty_value(const css::uno::Any& value) {
+    if (!value.hasValue()) return true;
+    if (value.getValueTypeClass() != css::uno::TypeClass_STRING) return false;
+    OUString s;
+    value >>= s;
+    return s.isEmpty();
+}
+
 // An `any` argument: omitted (void), a typed number or text, or a block (a range or an inline
 // array such as {1;2;3}).
-Range from_any(const css::uno::Any& value) {
+// A reference is read down to the end of the used area only, but an `any` argument such as
+// `groups` = A:A arrives whole from Calc (a million rows). A block spanning exactly the rows of a
+// clipped reference is read only as far, when the rows left out are empty, so that values B:B
+// and groups A:A keep the same number of rows, as they have on the sheet, and the empty rest of
+// the column costs a scan rather than a million converted cells.
+Range from_any(const css::uno::Any& value, const std::vector<Clip>& clips) {
     if (!value.hasValue()) return Range::omitted_argument();
     css::uno::Sequence<css::uno::Sequence<css::uno::Any>> block;
     if (value.getValueTypeClass() == css::uno::TypeClass_SEQUENCE && (value >>= block)) {
         Range range;
         range.rows = static_cast<std::size_t>(block.getLength());
         for (const auto& row : block) range.columns = std::max(range.columns, static_cast<std::size_t>(row.getLength()));
+        for (const Clip& clip : clips) {
+            if (clip.sheet_rows != range.rows) continue;
+            bool rest_is_empty = true;
+            for (sal_Int32 r = static_cast<sal_Int32>(clip.used_rows); r < block.getLength() && rest_is_empty; ++r)
+                for (const css::uno::Any& cell : block[r]) rest_is_empty = rest_is_empty && is_empty_value(cell);
+            if (rest_is_empty) {
+                range.rows = clip.used_rows;
+                break;
+            }
+        }
         range.cells.reserve(range.rows * range.columns);
-        for (const auto& row : block)
+        for (sal_Int32 r = 0; r < static_cast<sal_Int32>(range.rows); ++r) {
+            const css::uno::Sequence<css::uno::Any>& row = block[r];
             for (sal_Int32 c = 0; c < static_cast<sal_Int32>(range.columns); ++c)
                 range.cells.push_back(c < row.getLength() ? cell_from(row[c]) : Cell{});
+        }
         return range;
     }
     return Range::scalar(cell_from(value));
@@ -214,7 +252,8 @@ css::uno::Any any_from(const Table& table) {
     return css::uno::Any(block);
 }
 
-// The arguments of one call, converted in order.
+// The arguments of one call. References are converted as they come; `any` arguments once the
+// references are read, so that a whole column can be cut to the rows a clipped reference kept.
 class Call {
 public:
     explicit Call(std::size_t count) { arguments_.reserve(count); }
@@ -222,37 +261,28 @@ public:
     void reference(const css::uno::Reference<css::table::XCellRange>& argument) {
         std::size_t sheet_rows = 0;
         arguments_.push_back(from_reference(argument, sheet_rows));
-        if (sheet_rows > arguments_.back().rows) clipped_.push_back({sheet_rows, arguments_.back().rows});
+        if (sheet_rows > arguments_.back().rows) clips_.push_back({sheet_rows, arguments_.back().rows});
     }
-    void value(const css::uno::Any& argument) { arguments_.push_back(from_any(argument)); }
+    // The Any lives in the caller's frame for the whole call.
+    void value(const css::uno::Any& argument) {
+        pending_.push_back({arguments_.size(), &argument});
+        arguments_.emplace_back();
+    }
 
-    // A reference is read down to the end of the used area only, but an optional (`any`)
-    // argument such as `groups` = A:A arrives whole from Calc. A block spanning exactly the rows of
-    // a clipped reference is cut the same way when what is cut is empty, so that values B:B and
-    // groups A:A keep the same number of rows, as they have on the sheet.
-    const Arguments& aligned() {
-        for (const Clip& clip : clipped_)
-            for (Range& block : arguments_) {
-                if (block.is_reference || block.omitted || block.rows != clip.sheet_rows) continue;
-                const std::size_t kept = clip.used_rows * block.columns;
-                bool cut_is_empty = true;
-                for (std::size_t i = kept; i < block.cells.size() && cut_is_empty; ++i)
-                    cut_is_empty = block.cells[i].kind == quadrat::CellKind::empty;
-                if (!cut_is_empty) continue;
-                block.cells.resize(kept);
-                block.cells.shrink_to_fit();
-                block.rows = clip.used_rows;
-            }
+    const Arguments& arguments() {
+        for (const Pending& p : pending_) arguments_[p.index] = from_any(*p.value, clips_);
+        pending_.clear();
         return arguments_;
     }
 
 private:
-    struct Clip {
-        std::size_t sheet_rows;
-        std::size_t used_rows;
+    struct Pending {
+        std::size_t index;
+        const css::uno::Any* value;
     };
     Arguments arguments_;
-    std::vector<Clip> clipped_;
+    std::vector<Clip> clips_;
+    std::vector<Pending> pending_;
 };
 
 class Functions : public cppu::WeakImplHelper3<org::quadrat::XFunctions, css::lang::XServiceInfo, css::lang::XServiceName> {
@@ -282,7 +312,7 @@ private:
             if (!function) return css::uno::Any(OUString("this function is not available in this version"));
             Call call(function->arguments.size());
             convert(call);
-            return any_from(quadrat::addin::call_fenced(*function, call.aligned()));
+            return any_from(quadrat::addin::call_fenced(*function, call.arguments()));
         } catch (const std::bad_alloc&) {
             return css::uno::Any(OUString("not enough memory for this range"));
         } catch (const css::uno::Exception& e) {

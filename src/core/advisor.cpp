@@ -1,0 +1,442 @@
+#include "advisor.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <set>
+
+#include "data.hpp"
+#include "diagnostics.hpp"
+#include "linear_model.hpp"
+#include "keywords.hpp"
+#include "normality.hpp"
+#include "refusal.hpp"
+#include "report.hpp"
+#include "summary.hpp"
+#include "transform.hpp"
+#include "variance.hpp"
+
+namespace quadrat {
+
+namespace {
+
+// Significance level of every assumption check: 0.05, common practice, no single source.
+constexpr double check_alpha = 0.05;
+// A column counts as numeric when at least this share of its non-blank cells are numbers (the
+// rest, such as "<0.5" or "dry", are then missing): common practice, no source.
+constexpr double numeric_share = 0.8;
+// Shapiro–Wilk's range (Royston 1995); above it the central limit theorem covers the means.
+constexpr std::size_t shapiro_wilk_max = 5000;
+// Cochran (1954), Biometrics 10, 417–451: χ² is trusted when no expected count is below 1 and
+// at most 20% are below 5; otherwise Fisher's exact test.
+constexpr double cochran_min_expected = 1.0;
+constexpr double cochran_small_expected = 5.0;
+constexpr double cochran_small_share = 0.2;
+// Peduzzi et al. (1996), J. Clin. Epidemiol. 49, 1373–1379: about 10 events per predictor
+// for a stable logistic model.
+constexpr std::size_t events_per_predictor = 10;
+
+struct Profile {
+    bool numeric = false;
+    std::size_t values = 0;     // usable cells (numbers, or labels)
+    std::size_t distinct = 0;
+    bool zero_one = false;      // numeric and only 0 and 1
+};
+
+// How a person reads a column: numbers or labels, and how many different ones.
+Profile profile_of(const Range& r) {
+    Profile p;
+    if (r.empty()) return p;
+    std::size_t numbers = 0, texts = 0;
+    std::set<double> numeric_values;
+    std::set<std::string> labels;
+    const std::size_t first = (r.rows > 1 && r.at(0, 0).kind == CellKind::text) ? 1 : 0;  // a header
+    for (std::size_t row = first; row < r.rows; ++row)
+        for (std::size_t col = 0; col < r.columns; ++col) {
+            const Cell& c = r.at(row, col);
+            if (c.kind == CellKind::number && std::isfinite(c.number)) {
+                ++numbers;
+                numeric_values.insert(c.number);
+                labels.insert(number_label(c.number));
+            } else if (c.kind == CellKind::text && !is_missing_marker(c.text)) {
+                ++texts;
+                labels.insert(c.text);
+            }
+        }
+    p.numeric = numbers > 0 && static_cast<double>(numbers) >= numeric_share * static_cast<double>(numbers + texts);
+    p.values = p.numeric ? numbers : numbers + texts;
+    p.distinct = p.numeric ? numeric_values.size() : labels.size();
+    p.zero_one = p.numeric && std::all_of(numeric_values.begin(), numeric_values.end(), [](double x) { return x == 0 || x == 1; });
+    return p;
+}
+
+std::string p_words(double p) { return format_p(p); }
+
+// Normality of a sample by Shapiro–Wilk, or "not testable" with the reason.
+struct NormalityFinding {
+    bool normal = true;
+    bool tested = false;
+    double p = 1.0;
+    std::string words;
+};
+
+NormalityFinding normality_of(std::span<const double> xs, const std::string& what) {
+    NormalityFinding f;
+    if (xs.size() > shapiro_wilk_max) {
+        f.words = what + ": n = " + std::to_string(xs.size()) + ", above Shapiro–Wilk's 5000; at this size the means are close to normal (central limit theorem)";
+        return f;
+    }
+    if (xs.size() < 3) throw Refusal("too few values to advise (" + std::to_string(xs.size()) + "); collect at least 3");
+    const double lo = *std::min_element(xs.begin(), xs.end());
+    const double hi = *std::max_element(xs.begin(), xs.end());
+    if (lo == hi) throw Refusal("all values are equal: there is nothing to test");
+    const TestResult sw = shapiro_wilk(xs);
+    f.tested = true;
+    f.p = sw.number("p");
+    f.normal = f.p >= check_alpha;
+    f.words = what + (f.normal ? " look normal" : " are not normal") + " (Shapiro–Wilk " + p_words(f.p) + ")";
+    return f;
+}
+
+// Each value minus its group mean, divided by its group's SD (a group with no spread gives zeros).
+std::vector<double> residuals_scaled_by_group(const Groups& groups) {
+    std::vector<double> out;
+    out.reserve(groups.n_used);
+    for (const auto& values : groups.values) {
+        const double centre = mean(values);
+        const double sd = standard_deviation(values);
+        for (double x : values) out.push_back(sd > 0 ? (x - centre) / sd : 0.0);
+    }
+    return out;
+}
+
+bool all_positive(const std::vector<std::vector<double>>& groups) {
+    for (const auto& g : groups)
+        for (double x : g)
+            if (!(x > 0)) return false;
+    return true;
+}
+
+bool counts_with_zeros(const std::vector<std::vector<double>>& groups) {
+    bool zero = false;
+    for (const auto& g : groups)
+        for (double x : g) {
+            if (x < 0 || x != std::floor(x)) return false;
+            zero = zero || x == 0;
+        }
+    return zero;
+}
+
+std::string group_sizes(const Groups& g) {
+    std::size_t lo = g.values[0].size(), hi = lo;
+    for (const auto& v : g.values) {
+        lo = std::min(lo, v.size());
+        hi = std::max(hi, v.size());
+    }
+    return lo == hi ? std::to_string(lo) + " each" : "sizes " + std::to_string(lo) + " to " + std::to_string(hi);
+}
+
+std::string quoted(const std::string& s) { return "'" + s + "'"; }
+
+// Continuous response across two or more groups.
+void advise_groups(const Range& values, const Range& labels, Advice& advice) {
+    Groups g = read_groups(values, labels);
+    const std::size_t k = g.group_count();
+    if (k < 2) throw Refusal("the predictor has " + std::to_string(k) + " group; a comparison needs 2 or more");
+    for (std::size_t i = 0; i < k; ++i)
+        if (g.values[i].size() < 2)
+            throw Refusal("group " + g.names[i] + " has " + std::to_string(g.values[i].size()) +
+                          " value; each group needs at least 2 to compare spreads and locations");
+    advice.function = "COMPARE.GROUPS";
+    advice.steps.push_back({"variables",
+                            "continuous response (n = " + std::to_string(g.n_used) + "), predictor with " +
+                                std::to_string(k) + " groups (" + group_sizes(g) + ")",
+                            k == 2 ? "compare two groups" : "compare " + std::to_string(k) + " groups, then pairs"});
+
+    // Spread first: with unequal spreads the pooled residuals are a mixture of normals of different
+    // widths, heavy-tailed even when every group is normal, so each group's residuals are then
+    // scaled by its own SD before the normality check (what Welch's tests assume is normality
+    // within groups, not a common spread).
+    struct Scale {
+        Groups groups;
+        double spread_p;
+        NormalityFinding normal;
+    };
+    auto examine = [](Groups groups, const std::string& words) {
+        const double spread_p = check_variance(groups, "brown-forsythe").number("p");
+        const bool scaled = spread_p < check_alpha;
+        const NormalityFinding normal =
+            normality_of(scaled ? residuals_scaled_by_group(groups) : residuals_from_group_means(groups),
+                         scaled ? words + " residuals, each group scaled by its SD," : words + " residuals from the group means");
+        return Scale{std::move(groups), spread_p, normal};
+    };
+    Scale chosen = examine(g, "the");
+    std::string transform = "none";
+    if (!chosen.normal.normal) {
+        std::string candidate;
+        if (all_positive(g.values)) candidate = "log";
+        else if (counts_with_zeros(g.values)) candidate = "log1p";
+        if (!candidate.empty()) {
+            Groups scaled = g;
+            apply_transform(parse_transform(candidate), scaled.values);
+            Scale after = examine(std::move(scaled), "the " + candidate + "-scale");
+            if (after.normal.normal) {
+                transform = candidate;
+                advice.steps.push_back({"normality", chosen.normal.words + ", but they do after a " + candidate +
+                                                         " transform (Shapiro–Wilk " + p_words(after.normal.p) + ")",
+                                        "use transform " + quoted(candidate)});
+                chosen = std::move(after);
+            } else {
+                advice.steps.push_back({"normality", chosen.normal.words + ", nor after a " + candidate + " transform (" +
+                                                         p_words(after.normal.p) + ")",
+                                        "use a rank test"});
+            }
+        } else {
+            advice.steps.push_back({"normality", chosen.normal.words + "; a log transform needs positive values", "use a rank test"});
+        }
+    } else {
+        advice.steps.push_back({"normality", chosen.normal.words, "a test of means fits"});
+    }
+    advice.transform = transform;
+    const NormalityFinding& normal = chosen.normal;
+    const double spread_p = chosen.spread_p;
+    const bool equal_spread = spread_p >= check_alpha;
+    const std::string scale = transform == "none" ? "" : " on the " + transform + " scale";
+    const std::string spread_words = std::string(equal_spread ? "spreads are similar" : "spreads differ") + scale +
+                                     " (Brown–Forsythe " + p_words(spread_p) + ")";
+
+    if (!normal.normal) {
+        advice.method = "ranks";
+        advice.steps.push_back({"spread", spread_words,
+                                equal_spread ? "rank test compares locations"
+                                             : "rank test compares whole distributions, not only medians"});
+        advice.steps.push_back({"test", k == 2 ? "2 groups, not normal" : std::to_string(k) + " groups, not normal",
+                                k == 2 ? "Wilcoxon–Mann–Whitney (method 'ranks')" : "Kruskal–Wallis (method 'ranks'), then Dunn's pairs"});
+        if (k > 2) advice.posthoc = "dunn";
+        return;
+    }
+    if (k == 2) {
+        // Welch's t does not need equal spreads and loses little when they are equal
+        // (Ruxton 2006, Behavioral Ecology 17, 688–690): it is the default for two groups.
+        advice.method = "welch";
+        advice.steps.push_back({"spread", spread_words, "Welch's t-test, which does not assume equal spreads"});
+        return;
+    }
+    if (equal_spread) {
+        advice.method = "pooled";
+        advice.posthoc = "tukey";
+        advice.steps.push_back({"spread", spread_words, "classic one-way ANOVA (method 'pooled'), then Tukey–Kramer pairs"});
+    } else {
+        advice.method = "welch";
+        advice.posthoc = "games-howell";
+        advice.steps.push_back({"spread", spread_words, "Welch's ANOVA (method 'welch'), then Games–Howell pairs"});
+    }
+}
+
+// Readings paired by row, or one sample against a target value (no second column).
+void advise_paired(const Range& first, const Range* second, Advice& advice) {
+    advice.function = "COMPARE.PAIRED";
+    std::vector<double> differences;
+    std::vector<double> log_ratios;
+    bool positive = true;
+    if (second) {
+        const Frame f = read_frame({{&first, ColumnKind::numeric, "response"}, {second, ColumnKind::numeric, "predictor"}});
+        for (std::size_t i = 0; i < f.n_used; ++i) {
+            const double a = f.numbers[0][i], b = f.numbers[1][i];
+            differences.push_back(a - b);
+            positive = positive && a > 0 && b > 0;
+            if (positive) log_ratios.push_back(std::log(a) - std::log(b));
+        }
+        advice.steps.push_back({"variables", "two measurements on the same " + std::to_string(f.n_used) + " units, row by row",
+                                "test the differences (first − second)"});
+    } else {
+        const Column c = read_column(first, "response");
+        differences = c.values;
+        for (double x : c.values) {
+            positive = positive && x > 0;
+            if (positive) log_ratios.push_back(std::log(x));
+        }
+        advice.steps.push_back({"variables", "one continuous column (n = " + std::to_string(c.n_used) + "), no predictor",
+                                "one-sample test against a target value: COMPARE.PAIRED(values; target)"});
+    }
+    const std::string what = second ? "differences" : "values";
+    const NormalityFinding normal = normality_of(differences, what);
+    advice.transform = "none";
+    if (normal.normal) {
+        advice.method = "t";
+        advice.steps.push_back({"normality", normal.words, second ? "paired t-test" : "one-sample t-test"});
+        return;
+    }
+    if (positive && log_ratios.size() == differences.size()) {
+        const NormalityFinding after = normality_of(log_ratios, second ? "log ratios" : "log values");
+        if (after.normal) {
+            advice.method = "t";
+            advice.transform = "log";
+            advice.steps.push_back({"normality", normal.words + "; " + after.words, "t-test with transform 'log'"});
+            return;
+        }
+    }
+    advice.method = "signed-rank";
+    advice.steps.push_back({"normality", normal.words, "Wilcoxon signed-rank test (method 'signed-rank')"});
+}
+
+// Two categorical variables: χ² or Fisher by Cochran's rule on the expected counts.
+void advise_counts(const Range& a, const Range& b, Advice& advice) {
+    const Frame f = read_frame({{&a, ColumnKind::label, "response"}, {&b, ColumnKind::label, "predictor"}});
+    std::map<std::string, std::size_t> rows, cols;
+    std::map<std::pair<std::string, std::string>, double> cells;
+    for (std::size_t i = 0; i < f.n_used; ++i) {
+        rows[f.labels[0][i]]++;
+        cols[f.labels[1][i]]++;
+    }
+    if (rows.size() < 2 || cols.size() < 2)
+        throw Refusal("each variable needs at least 2 categories (found " + std::to_string(rows.size()) + " and " +
+                      std::to_string(cols.size()) + ")");
+    const double n = static_cast<double>(f.n_used);
+    std::size_t below_one = 0, below_five = 0;
+    double smallest = n;
+    for (const auto& [r, nr] : rows)
+        for (const auto& [c, nc] : cols) {
+            const double e = static_cast<double>(nr) * static_cast<double>(nc) / n;
+            smallest = std::min(smallest, e);
+            below_one += e < cochran_min_expected;
+            below_five += e < cochran_small_expected;
+        }
+    const std::size_t cells_total = rows.size() * cols.size();
+    advice.function = "COMPARE.COUNTS";
+    advice.transform = "none";
+    advice.steps.push_back({"variables",
+                            "two categorical variables: " + std::to_string(rows.size()) + " x " + std::to_string(cols.size()) +
+                                " table of " + std::to_string(f.n_used) + " observations",
+                            "test of association"});
+    const bool chi_ok = below_one == 0 && static_cast<double>(below_five) <= cochran_small_share * static_cast<double>(cells_total);
+    advice.method = chi_ok ? "chi-square" : "fisher";
+    advice.steps.push_back({"expected counts",
+                            "smallest expected count " + format_number(smallest) + ", " + std::to_string(below_five) + " of " +
+                                std::to_string(cells_total) + " cells below 5",
+                            chi_ok ? "Pearson's chi-square (Cochran's rule holds)" : "Fisher's exact test (Cochran's rule fails)"});
+}
+
+void advise_logistic(const Range& response, const Range& predictor, const Profile& outcome, Advice& advice) {
+    const Frame f = read_frame({{&response, ColumnKind::label, "response"}, {&predictor, ColumnKind::numeric, "predictor"}});
+    std::map<std::string, std::size_t> counts;
+    for (const auto& label : f.labels[0]) counts[label]++;
+    std::size_t rarer = f.n_used;
+    for (const auto& [label, count] : counts) rarer = std::min(rarer, count);
+    advice.function = "FIT.LOGISTIC";
+    advice.method = "";
+    advice.transform = "none";
+    advice.steps.push_back({"variables",
+                            std::string("binary response (") + (outcome.numeric ? "0/1" : "two labels") +
+                                ") and a continuous predictor, n = " + std::to_string(f.n_used),
+                            "logistic regression"});
+    advice.steps.push_back({"events", "the rarer outcome occurs " + std::to_string(rarer) + " times",
+                            rarer >= events_per_predictor ? "enough for one predictor (about 10 per predictor)"
+                                                          : "fewer than 10: estimates will be unstable; read them with care"});
+}
+
+// Two continuous variables: Pearson (with the straight-line fit) when the relationship is linear
+// and the residuals normal, else Spearman's rank correlation, which needs only a monotone trend.
+void advise_relationship(const Range& response, const Range& predictor, Advice& advice) {
+    const RegressionData data = read_regression(response, predictor);
+    const LinearModel model = fit_least_squares(data.y, data.predictors, data.names, true);
+    const ModelChecks checks = check_model(model, data);
+    advice.function = "RELATE.CORRELATION";
+    advice.transform = "none";
+    advice.steps.push_back({"variables", "two continuous variables, n = " + std::to_string(model.n) + " pairs",
+                            "correlation, or a straight-line fit (FIT.LINEAR)"});
+    const bool linearity_known = std::isfinite(checks.reset_p);
+    const bool linear = !linearity_known || checks.reset_p >= check_alpha;
+    advice.steps.push_back({"linearity",
+                            linearity_known ? std::string(linear ? "no sign of curvature" : "the relationship is curved") +
+                                                  " (RESET " + p_words(checks.reset_p) + ")"
+                                            : "RESET could not be computed: " + checks.linearity_note,
+                            linear ? "a straight line describes it" : "use a rank correlation, which needs only a monotone trend"});
+    const bool normality_known = std::isfinite(checks.normality_p);
+    const bool normal = !normality_known || checks.normality_p >= check_alpha;
+    advice.steps.push_back({"normality",
+                            normality_known ? std::string(normal ? "residuals look normal" : "residuals are not normal") +
+                                                  " (Shapiro–Wilk " + p_words(checks.normality_p) + ")"
+                                            : "residual normality not tested: " + checks.normality_note,
+                            normal ? "Pearson's test is valid" : "Pearson's p would not be trustworthy"});
+    advice.method = linear && normal ? "pearson" : "spearman";
+    advice.steps.push_back({"test", advice.method == "pearson" ? "linear, normal residuals" : "assumptions of Pearson's test fail",
+                            advice.method == "pearson" ? "Pearson's r (method 'pearson'); FIT.LINEAR and CHECK.MODEL for the line itself"
+                                                       : "Spearman's rank correlation (method 'spearman')"});
+}
+
+std::string method_words(const Advice& a) {
+    std::string s = "Suggested: " + a.function;
+    if (!a.method.empty()) s += ", method " + quoted(a.method);
+    if (a.transform != "none" && !a.transform.empty()) s += ", transform " + quoted(a.transform);
+    if (!a.posthoc.empty()) s += ", then COMPARE.POSTHOC with " + quoted(a.posthoc);
+    return s + ".";
+}
+
+}  // namespace
+
+Design parse_design(const std::string& keyword) {
+    const std::string k = match_keyword(keyword, {"auto", "groups", "paired", "relationship"}, "design");
+    if (k == "groups") return Design::groups;
+    if (k == "paired") return Design::paired;
+    if (k == "relationship") return Design::relationship;
+    return Design::automatic;
+}
+
+Table Advice::table() const {
+    Table t;
+    t.push_back({std::string("step"), std::string("found"), std::string("decision")});
+    for (const auto& s : steps) t.push_back({s.step, s.found, s.decision});
+    t.push_back({std::string("suggestion"), method_words(*this), std::string("A guide, not a verdict: check it against the study design.")});
+    return t;
+}
+
+Advice advise_test(const Range& response, const Range& predictor, Design design) {
+    if (response.empty()) throw Refusal("response is empty");
+    if (response.columns != 1) throw Refusal("response must be one column");
+    if (!predictor.empty() && predictor.columns != 1) throw Refusal("predictor must be one column");
+    Advice advice;
+    const Profile y = profile_of(response);
+    if (y.values == 0) throw Refusal("response holds no values");
+
+    if (predictor.empty()) {
+        if (design == Design::groups || design == Design::paired || design == Design::relationship)
+            throw Refusal("design '" + std::string(design == Design::groups ? "groups" : design == Design::paired ? "paired" : "relationship") +
+                          "' needs a predictor column");
+        if (!y.numeric)
+            throw Refusal("one column of labels: count each category and compare the counts with COMPARE.EXPECTED");
+        advise_paired(response, nullptr, advice);
+    } else {
+        const Profile x = profile_of(predictor);
+        if (design == Design::paired) {
+            if (!y.numeric || !x.numeric) throw Refusal("design 'paired' needs two columns of numbers");
+            advise_paired(response, &predictor, advice);
+        } else if (design == Design::relationship) {
+            if (!y.numeric || !x.numeric) throw Refusal("design 'relationship' needs two columns of numbers");
+            advise_relationship(response, predictor, advice);
+        } else if (y.numeric && y.distinct > 2 && (design == Design::groups || !x.numeric)) {
+            advise_groups(response, predictor, advice);
+        } else if (y.numeric && y.distinct > 2 && x.numeric) {
+            advise_relationship(response, predictor, advice);
+        } else if ((y.zero_one || (!y.numeric && y.distinct == 2)) && x.numeric && x.distinct > 2 && design != Design::groups) {
+            advise_logistic(response, predictor, y, advice);
+        } else if (!y.numeric && x.numeric && x.distinct > 2 && design != Design::groups) {
+            // Labels explained by a measurement: compare the measurement across the categories.
+            advise_groups(predictor, response, advice);
+            advice.steps.insert(advice.steps.begin(),
+                                {"roles", "the response holds labels and the predictor numbers",
+                                 "compare the predictor across the response's categories: COMPARE.GROUPS(predictor; response)"});
+        } else {
+            advise_counts(response, predictor, advice);
+        }
+    }
+    advice.report = method_words(advice) + " Why: ";
+    for (std::size_t i = 0; i < advice.steps.size(); ++i) {
+        if (i) advice.report += "; ";
+        advice.report += advice.steps[i].found + ", so " + advice.steps[i].decision;
+    }
+    advice.report += ". A guide, not a verdict: check it against the study design.";
+    return advice;
+}
+
+}  // namespace quadrat

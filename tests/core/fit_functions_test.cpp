@@ -1,0 +1,170 @@
+// The glue of FIT.LINEAR, FIT.POINTS, CHECK.MODEL and RELATE.CORRELATION through the fence, as a
+// cell sees it: sizes, header rows, missing cells, refusals as text. These are the catalogue's
+// layout rules (FUNCTIONS.md), not numbers, except where a reference is named.
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <fstream>
+
+#include <nlohmann/json.hpp>
+
+#include "addin/registry.hpp"
+
+namespace quadrat {
+namespace {
+
+using nlohmann::json;
+
+const json& reference() {
+    static const json j = [] {
+        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/linear.json");
+        return json::parse(in);
+    }();
+    return j;
+}
+
+Range block(const std::vector<std::vector<Cell>>& rows) {
+    Range r;
+    r.rows = rows.size();
+    r.columns = rows.front().size();
+    for (const auto& row : rows) r.cells.insert(r.cells.end(), row.begin(), row.end());
+    r.is_reference = true;
+    r.first_row = 0;
+    r.first_column = 1;
+    return r;
+}
+
+Range keyword(const char* k) { return Range::scalar(Cell::make_text(k)); }
+Cell num(double x) { return Cell::make_number(x); }
+Cell txt(const char* s) { return Cell::make_text(s); }
+
+Table call(const char* method, const addin::Arguments& args) {
+    const auto* f = addin::find_function(method);
+    EXPECT_NE(f, nullptr) << method;
+    return addin::call_fenced(*f, args);
+}
+
+// The stream set as a sheet: a header row, the 40 reaches, and two rows inserted after reach 5
+// with a missing cell (an `n/a` flow and an empty canopy) that must be dropped and left blank.
+struct StreamSheet {
+    Range y, xs;
+    std::vector<std::size_t> data_rows;  // sheet row of each reach
+};
+StreamSheet stream_sheet() {
+    const json& set = reference()["stream"];
+    std::vector<std::vector<Cell>> y = {{txt("density")}}, xs = {{txt("flow"), txt("canopy")}};
+    StreamSheet s;
+    for (std::size_t i = 0; i < set["y"].size(); ++i) {
+        if (i == 5) {
+            y.push_back({num(99)});
+            xs.push_back({txt("n/a"), num(50)});
+            y.push_back({num(98)});
+            xs.push_back({num(0.5), Cell{}});
+        }
+        s.data_rows.push_back(y.size());
+        y.push_back({num(set["y"][i])});
+        xs.push_back({num(set["xs"][0][i]), num(set["xs"][1][i])});
+    }
+    s.y = block(y);
+    s.xs = block(xs);
+    return s;
+}
+
+TEST(FitLinearGlue, CoefficientTableWithHeaderNamesAndDroppedRows) {
+    const StreamSheet s = stream_sheet();
+    const Table t = call("fitLinear", {s.y, s.xs});
+    ASSERT_EQ(t.size(), 4u);
+    ASSERT_EQ(t[0].size(), 8u);
+    EXPECT_EQ(std::get<std::string>(t[2][0]), "flow");
+    EXPECT_EQ(std::get<std::string>(t[3][0]), "canopy");
+    // statsmodels OLS(method='qr') on the 40 complete rows (generate_linear.py): the two rows with a
+    // missing cell are dropped, 1e-10 relative.
+    const double slope = reference()["stream"]["reference"]["estimate"][1];
+    EXPECT_NEAR(std::get<double>(t[2][1]), slope, 1e-10 * std::fabs(slope));
+    const Table model = call("fitLinear", {s.y, s.xs, keyword("model")});
+    EXPECT_EQ(std::get<std::string>(model[1][0]), "model");
+    EXPECT_EQ(std::get<double>(model[11][1]), 40.0);  // n
+    EXPECT_EQ(std::get<double>(model[12][1]), 2.0);   // n dropped
+    const Table slope_refused = call("fitLinear", {s.y, s.xs, keyword("slope")});
+    ASSERT_EQ(slope_refused.size(), 1u);
+    EXPECT_NE(std::get<std::string>(slope_refused[0][0]).find("coefficients"), std::string::npos);
+}
+
+TEST(FitLinearGlue, NoHeaderNamesPredictorsXOneXTwo) {
+    const Range y = Range::column({1, 2, 4, 3, 5, 7, 6});
+    const Range xs = block({{num(1), num(2)}, {num(2), num(1)}, {num(3), num(5)}, {num(4), num(3)},
+                            {num(5), num(4)}, {num(6), num(7)}, {num(7), num(5)}});
+    const Table t = call("fitLinear", {y, xs});
+    EXPECT_EQ(std::get<std::string>(t[2][0]), "x1");
+    EXPECT_EQ(std::get<std::string>(t[3][0]), "x2");
+    const Table unknown = call("fitLinear", {y, xs, keyword("slopes")});
+    EXPECT_NE(std::get<std::string>(unknown[0][0]).find("coefficients, model"), std::string::npos);
+}
+
+TEST(FitPointsGlue, RowsAlignWithTheSheet) {
+    const StreamSheet s = stream_sheet();
+    const json& ref = reference()["stream"]["reference"];
+    // Default: six columns; the header row replaces the input's header: same size as the input.
+    const Table all = call("fitPoints", {s.y, s.xs});
+    ASSERT_EQ(all.size(), s.y.rows);
+    ASSERT_EQ(all[0].size(), 6u);
+    EXPECT_EQ(std::get<std::string>(all[0][0]), "fitted");
+    EXPECT_EQ(std::get<std::string>(all[0][5]), "cooks");
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(all[6][0]));  // the dropped rows stay blank
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(all[7][3]));
+    for (std::size_t i = 0; i < s.data_rows.size(); ++i) {
+        // statsmodels OLSInfluence (generate_linear.py), 1e-9 relative.
+        const double cooks = ref["cooks"][i];
+        EXPECT_NEAR(std::get<double>(all[s.data_rows[i]][5]), cooks, 1e-9 * cooks);
+    }
+    // One column: exactly the input's rows, the header row blank.
+    const Table leverage = call("fitPoints", {s.y, s.xs, keyword("Leverage")});
+    ASSERT_EQ(leverage.size(), s.y.rows);
+    ASSERT_EQ(leverage[0].size(), 1u);
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(leverage[0][0]));
+    const double h0 = ref["leverage"][0];
+    EXPECT_NEAR(std::get<double>(leverage[s.data_rows[0]][0]), h0, 1e-10 * h0);
+
+    // Without a header row the default sits on top: one row more than the input.
+    const Range y = Range::column({1, 2, 4, 3, 5, 7});
+    const Range x = Range::column({1, 2, 3, 4, 5, 6});
+    const Table top = call("fitPoints", {y, x});
+    EXPECT_EQ(top.size(), 7u);
+    EXPECT_EQ(std::get<std::string>(top[0][1]), "residual");
+    EXPECT_EQ(call("fitPoints", {y, x, keyword("fitted")}).size(), 6u);
+}
+
+TEST(CheckModelGlue, DefaultIsTheTableAndRefusalsAreText) {
+    const StreamSheet s = stream_sheet();
+    const Table t = call("checkModel", {s.y, s.xs});
+    ASSERT_EQ(t.size(), 8u);
+    ASSERT_EQ(t[0].size(), 5u);
+    EXPECT_EQ(std::get<std::string>(t[0][4]), "verdict");
+    // statsmodels durbin_watson (generate_linear.py), 1e-12 relative.
+    const double dw = reference()["stream"]["reference"]["checks"]["durbin_watson"];
+    EXPECT_NEAR(std::get<double>(call("checkModel", {s.y, s.xs, keyword("independence")})[0][0]), dw, 1e-12 * dw);
+    // A constant predictor: one text cell naming it.
+    const Table refused = call("checkModel", {Range::column({1, 2, 3, 4}), Range::column({5, 5, 5, 5})});
+    ASSERT_EQ(refused.size(), 1u);
+    EXPECT_NE(std::get<std::string>(refused[0][0]).find("x1 is constant"), std::string::npos);
+}
+
+TEST(RelateCorrelationGlue, DefaultIsPearsonP) {
+    const json& set = reference()["cores"];
+    Range x = Range::column(set["x"].get<std::vector<double>>());
+    Range y = Range::column(set["y"].get<std::vector<double>>());
+    // scipy.stats.pearsonr (generate_linear.py), 1e-9 relative.
+    const double p = set["reference"]["pearson"]["p"];
+    EXPECT_NEAR(std::get<double>(call("relateCorrelation", {x, y})[0][0]), p, 1e-9 * p);
+    // scipy.stats.kendalltau(method='exact').
+    const double tau = set["reference"]["kendall"]["tau"];
+    EXPECT_NEAR(std::get<double>(call("relateCorrelation", {x, y, keyword("kendall"), keyword("estimate")})[0][0]), tau,
+                1e-12 * std::fabs(tau));
+    const Table report = call("relateCorrelation", {x, y, keyword("spearman"), keyword("report")});
+    EXPECT_NE(std::get<std::string>(report[0][0]).find("n = 20"), std::string::npos);
+    const Table bad = call("relateCorrelation", {x, y, keyword("tau")});
+    EXPECT_NE(std::get<std::string>(bad[0][0]).find("pearson, spearman, kendall"), std::string::npos);
+}
+
+}  // namespace
+}  // namespace quadrat
