@@ -263,7 +263,10 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         m.f_statistic = not_defined;
         m.f_p = not_defined;
     } else {
-        m.f_statistic = ((tss - m.rss) / m.df_model) / (m.rss / m.df_residual);
+        // With an intercept RSS <= TSS exactly; rounding can leave it a hair above when the
+        // predictors explain nothing (a balanced design, a Breusch–Pagan auxiliary fit), and a
+        // negative F is outside the distribution's domain.
+        m.f_statistic = std::max(0.0, ((tss - m.rss) / m.df_model) / (m.rss / m.df_residual));
         const boost::math::fisher_f dist(m.df_model, m.df_residual);
         m.f_p = boost::math::cdf(boost::math::complement(dist, m.f_statistic));
     }
