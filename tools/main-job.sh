@@ -10,4 +10,4 @@ JOBS="${JOBS:-2}"
 bash tools/install-deps.sh
 cmake -S . -B build -DCMAKE_BUILD_TYPE=Release -DQUADRAT_EXTENSION=ON
 cmake --build build -j"$JOBS"
-/usr/bin/python3 tools/main_job.py --oxt build/quadrat.oxt --out out sample_sheets/*.fods
+/usr/bin/python3 tools/main_job.py --oxt build/quadrat.oxt --out out --images docs/images sample_sheets/*.fods

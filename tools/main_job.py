@@ -11,6 +11,7 @@ LibreOffice profile and installation are not touched.
 import argparse
 import os
 import re
+import subprocess
 import sys
 import xml.etree.ElementTree as ET
 import zipfile
@@ -153,10 +154,18 @@ def export_pdf(doc, sheet, path):
         FilterData=uno.Any("[]com.sun.star.beans.PropertyValue", (selection,))))
 
 
+def export_png(pdf, png):
+    """The first page of a sheet's PDF as a PNG (poppler's pdftoppm), for the README's pictures."""
+    stem = os.path.splitext(png)[0]
+    subprocess.run(["pdftoppm", "-png", "-singlefile", "-f", "1", "-l", "1", "-r", "110", pdf, stem], check=True)
+
+
 def main():
     parser = argparse.ArgumentParser(description="recompute the sample sheets, print results, write PDFs")
     parser.add_argument("--oxt", required=True)
     parser.add_argument("--out", default="out")
+    parser.add_argument("--images", help="also write the first page of each workbook's first sheet "
+                        "to IMAGES/<workbook>.png (e.g. docs/images)")
     parser.add_argument("workbooks", nargs="+")
     args = parser.parse_args()
     os.makedirs(args.out, exist_ok=True)
@@ -175,13 +184,18 @@ def main():
                 doc.calculateAll()
                 stem = os.path.splitext(os.path.basename(path))[0]
                 print("\n%s" % os.path.basename(path))
-                for sheet in doc.Sheets:
+                for index, sheet in enumerate(doc.Sheets):
                     text = report_sheet(sheet, names)
                     if text:
                         print(text)
                     pdf = os.path.join(args.out, "%s-%s.pdf" % (stem, re.sub(r"[^\w.-]+", "_", sheet.getName())))
                     export_pdf(doc, sheet, pdf)
                     print("    → %s" % pdf)
+                    if args.images and index == 0:
+                        os.makedirs(args.images, exist_ok=True)
+                        png = os.path.join(args.images, stem + ".png")
+                        export_png(pdf, png)
+                        print("    → %s" % png)
             finally:
                 doc.close(True)
         alive = office.alive()

@@ -244,22 +244,22 @@ def marsh(office, available):
     s.label("G10", "Equal spread? Brown-Forsythe p")
     s.formula("K10", "CHECK.VARIANCE(%s;%s)" % (H, Z))
     s.label("G11", "Which test? ADVISE.TEST (a guide, not a verdict):", italic=True)
-    s.sentence("G12", "=ADVISE.TEST(%s;%s)" % (H, Z), 10, 3)
+    s.sentence("G12", "=ADVISE.TEST(%s;%s)" % (H, Z), 10, 5)
 
-    s.label("G16", "Do the zones differ? (COMPARE.GROUPS, Welch)", bold=True)
-    s.label("G17", "p-value")
-    s.formula("K17", "COMPARE.GROUPS(%s;%s)" % (H, Z))
-    s.label("G18", "F statistic")
-    s.formula("K18", 'COMPARE.GROUPS(%s;%s;"welch";"statistic")' % (H, Z))
-    s.label("G19", "effect size ω²")
-    s.formula("K19", 'COMPARE.GROUPS(%s;%s;"welch";"effect")' % (H, Z))
-    s.label("G20", "largest - smallest mean, cm")
-    s.formula("K20", 'COMPARE.GROUPS(%s;%s;"welch";"estimate")' % (H, Z))
-    s.sentence("G21", '=COMPARE.GROUPS(%s;%s;"welch";"report")' % (H, Z), 10, 2)
-    s.sentence("G23", CAUTION, 10, 2)
-    s.cell("G23").CharColor = 0x9C2A00
+    s.label("G18", "Do the zones differ? (COMPARE.GROUPS, Welch: holds whether or not spreads are equal)", bold=True)
+    s.label("G19", "p-value")
+    s.formula("K19", "COMPARE.GROUPS(%s;%s)" % (H, Z))
+    s.label("G20", "F statistic")
+    s.formula("K20", 'COMPARE.GROUPS(%s;%s;"welch";"statistic")' % (H, Z))
+    s.label("G21", "effect size ω²")
+    s.formula("K21", 'COMPARE.GROUPS(%s;%s;"welch";"effect")' % (H, Z))
+    s.label("G22", "largest - smallest mean, cm")
+    s.formula("K22", 'COMPARE.GROUPS(%s;%s;"welch";"estimate")' % (H, Z))
+    s.sentence("G23", '=COMPARE.GROUPS(%s;%s;"welch";"report")' % (H, Z), 10, 2)
+    s.sentence("G25", CAUTION, 10, 2)
+    s.cell("G25").CharColor = 0x9C2A00
 
-    row = 26
+    row = 28
     letters_block = None
     if "COMPARE.POSTHOC" in available:
         s.label("G%d" % row, "Pairs of zones, Games-Howell: difference in cm, 95% interval (COMPARE.POSTHOC)",
@@ -286,7 +286,7 @@ def marsh(office, available):
             q.formula("A%d" % r, "$survey.G%d" % (3 + i))
         q.formula("B%d" % r, "$survey.I%d" % (3 + i))
     q.number_format("B3:B6", "0.0")
-    s.chart("means", "R1", 12.0, 8.0, "A2:B6", "columns",
+    s.chart("means", "Q1", 12.0, 8.5, "A2:B6", "columns",
             "Mean plant height by zone" + (" (letters: Games-Howell)" if letters_block else ""),
             "zone", "mean height (cm)", headers=(True, True), data_sheet=q.sheet)
 
@@ -296,15 +296,15 @@ def marsh(office, available):
     q.row("D2", ["normal quantile", "residual cm"])
     q.array("D3", "CHECK.QQ($survey.%s;$survey.%s)" % (H, Z), last, 2)
     q.number_format("D3:E%d" % (last + 2), "0.00")
-    s.chart("qq", "R22", 12.0, 8.0, "D3:E%d" % (last + 2), "scatter",
+    s.chart("qq", "Q23", 12.0, 8.5, "D3:E%d" % (last + 2), "scatter",
             "Normal Q-Q plot of residuals (CHECK.QQ)", "normal quantile", "residual (cm)",
             data_sheet=q.sheet)
 
     s.widths([2.2, 1.8, 2.3, 2.0, 5.5, 0.6, 2.6])
     s.number_format("I3:P6", "0.0")
     s.number_format("K9:K10", "0.000")
-    s.number_format("K17:K17", "0.0000")
-    s.number_format("K18:K20", "0.00")
+    s.number_format("K19:K19", "0.0000")
+    s.number_format("K20:K22", "0.00")
     doc.calculateAll()
     store(doc, os.path.join(ROOT, "sample_sheets", "marsh-vegetation.fods"))
     doc.close(True)
@@ -383,7 +383,12 @@ def forest(office, available):
 
     s.widths([1.4, 2.3, 2.8, 2.4, 4.8, 1.9, 1.9, 1.9, 1.9, 1.9, 1.9, 0.6, 2.6, 2.6, 2.0, 2.6, 2.0, 2.0, 2.0, 2.0])
     s.number_format("N3:S5", "0.0000")
-    s.number_format("F2:K%d" % last, "0.000")
+    s.number_format("N12:N23", "0.000")
+    s.number_format("Q12:R18", "0.000")
+    s.number_format("Q22:S23", "0.00")
+    s.number_format("T22:T23", "0.0000")
+    s.number_format("F2:G%d" % last, "0.0")
+    s.number_format("H2:K%d" % last, "0.000")
     doc.calculateAll()
     store(doc, os.path.join(ROOT, "sample_sheets", "forest-regression.fods"))
     doc.close(True)
@@ -426,23 +431,25 @@ def fish(office, available):
 
     R = "$B$1:$B$%d" % last
     S = "$C$1:$C$%d" % last
-    s.label("H1", "Catch by species and reach (Calc COUNTIFS over the raw rows)", bold=True)
+    s.label("H1", "Catch by species and reach (Calc COUNTIFS)", bold=True)
     s.row("H2", ["species", "upper", "middle", "lower"])
     for i, sp in enumerate(species):
         s.put("H%d" % (3 + i), sp)
         for j, col in enumerate("IJK"):
             s.formula("%s%d" % (col, 3 + i), 'COUNTIFS(%s;%s$2;%s;$H%d)' % (R, col, S, 3 + i))
 
-    s.label("H8", "Does the species mix differ between reaches? χ² test — COMPARE.COUNTS", bold=True)
+    s.label("H8", "Species mix by reach? χ² (COMPARE.COUNTS)", bold=True)
     s.label("H9", "p-value")
     s.formula("K9", "COMPARE.COUNTS(%s;%s)" % (S, R))
+    s.number_format("K9:K9", "0.0000")
+    s.number_format("K10:K10", "0.00")
     s.label("H10", "effect size: Cramér's V (0 to 1)")
     s.formula("K10", 'COMPARE.COUNTS(%s;%s;"chi-square";"effect")' % (S, R))
     s.sentence("H11", '=COMPARE.COUNTS(%s;%s;"chi-square";"report")' % (S, R), 7, 2)
     s.label("H13", "Whole result — COMPARE.COUNTS table", italic=True)
     rows_, _ = s.array("H14", 'COMPARE.COUNTS(%s;%s;"chi-square";"table")' % (S, R))
     r = 14 + rows_ + 1
-    s.label("H%d" % r, "Brown trout sex ratio 1:1? — COMPARE.EXPECTED", bold=True)
+    s.label("H%d" % r, "Trout sex ratio 1:1? (COMPARE.EXPECTED)", bold=True)
     s.row("H%d" % (r + 1), ["sex", "trout caught"])
     for i, sex in enumerate(["female", "male"]):
         s.put("H%d" % (r + 2 + i), sex)
@@ -454,7 +461,7 @@ def fish(office, available):
         "(one quadrat per zone and transect is not independent of its neighbours on the same transect in every study)",
         "(fish from one pass of one reach are not independent samples of the river)"), 7, 3)
     s.cell("H%d" % (r + 7)).CharColor = 0x9C2A00
-    s.chart("catch", "M1", 12.0, 8.0, "H2:K6", "columns",
+    s.chart("catch", "O1", 12.0, 8.0, "H2:K6", "columns",
             "Fish caught by species and reach", "species", "fish caught", headers=(True, True))
     chart = s.sheet.getCharts().getByName("catch").getEmbeddedObject()
     chart.HasLegend = True
