@@ -381,10 +381,12 @@ def forest(office, available):
             "Normal Q-Q plot of residuals (CHECK.QQ)", "normal quantile", "residual (t/ha)",
             data_sheet=q.sheet)
 
-    s.widths([1.4, 2.3, 2.8, 2.4, 4.8, 1.9, 1.9, 1.9, 1.9, 1.9, 1.9, 0.6, 2.6, 2.6, 2.0, 2.6, 2.0, 2.0, 2.0, 2.0])
+    s.widths([1.4, 2.3, 2.8, 2.4, 4.8, 1.9, 1.9, 1.9, 1.9, 1.9, 1.9, 0.6, 2.6, 2.6, 2.0, 2.6, 2.0, 2.0, 8.0, 2.0])
     s.number_format("N3:S5", "0.0000")
-    s.number_format("N12:N23", "0.000")
-    s.number_format("Q12:R18", "0.000")
+    s.number_format("N13:N14", "0.000")
+    s.number_format("N19:N19", "0.000")
+    s.number_format("Q12:R17", "0.000")
+    s.number_format("T3:T5", "0.00")
     s.number_format("Q22:S23", "0.00")
     s.number_format("T22:T23", "0.0000")
     s.number_format("F2:G%d" % last, "0.0")
