@@ -13,8 +13,8 @@ PACKAGES=(
   libboost-dev libboost-math-dev libeigen3-dev libgtest-dev nlohmann-json3-dev
   # the extension: SDK tools and headers, a headless Calc to run it, Python UNO bridge for the harness
   libreoffice-dev libreoffice-calc-nogui python3-uno
-  # fonts for the PDFs of the main job
-  fonts-dejavu-core
+  # fonts for the PDFs of the main job, and pdftoppm for its PNG pictures (docs/images)
+  fonts-dejavu-core poppler-utils
 )
 REFERENCE_PACKAGES=(python3-scipy python3-statsmodels python3-mpmath)
 
