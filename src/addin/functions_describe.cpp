@@ -1,4 +1,4 @@
-// DESCRIBE.GROUPS (and, with the other families, ADJUST.P lives in functions_posthoc.cpp).
+// DESCRIBE.GROUPS: the group summary that belongs beside a test.
 #include "addin/arguments.hpp"
 #include "addin/handlers.hpp"
 #include "core/describe.hpp"

@@ -6,29 +6,33 @@
 
 namespace quadrat::addin {
 
-// CHECK — functions_check.cpp
+// functions_check.cpp
 Table check_normal(const Arguments& a);
 Table check_variance(const Arguments& a);
 Table check_qq(const Arguments& a);
-Table check_model(const Arguments& a);
 
-// COMPARE — functions_compare.cpp
+// functions_compare.cpp
 Table compare_groups(const Arguments& a);
 Table compare_paired(const Arguments& a);
+
+// functions_posthoc.cpp
 Table compare_posthoc(const Arguments& a);
 Table compare_letters(const Arguments& a);
+Table adjust_p(const Arguments& a);
+
+// functions_counts.cpp: categorical responses and factors
 Table compare_counts(const Arguments& a);
 Table compare_expected(const Arguments& a);
-
-// RELATE and FIT — functions_fit.cpp
-Table relate_correlation(const Arguments& a);
-Table fit_linear(const Arguments& a);
 Table fit_logistic(const Arguments& a);
-Table fit_points(const Arguments& a);
 Table fit_factorial(const Arguments& a);
 
-// ADJUST, DESCRIBE, ADVISE — functions_describe.cpp, functions_advise.cpp
-Table adjust_p(const Arguments& a);
+// functions_fit.cpp: the linear model, its diagnostics, correlation
+Table relate_correlation(const Arguments& a);
+Table fit_linear(const Arguments& a);
+Table fit_points(const Arguments& a);
+Table check_model(const Arguments& a);
+
+// functions_describe.cpp, functions_advise.cpp
 Table describe_groups(const Arguments& a);
 Table advise_test(const Arguments& a);
 
