@@ -70,8 +70,6 @@ Profile profile_of(const Range& r) {
     return p;
 }
 
-std::string p_words(double p) { return format_p(p); }
-
 // Normality of a sample by Shapiro–Wilk, or "not testable" with the reason.
 struct NormalityFinding {
     bool normal = true;
@@ -94,7 +92,7 @@ NormalityFinding normality_of(std::span<const double> xs, const std::string& wha
     f.tested = true;
     f.p = sw.number("p");
     f.normal = f.p >= check_alpha;
-    f.words = what + (f.normal ? " look normal" : " are not normal") + " (Shapiro–Wilk " + p_words(f.p) + ")";
+    f.words = what + (f.normal ? " look normal" : " are not normal") + " (Shapiro–Wilk " + format_p(f.p) + ")";
     return f;
 }
 
@@ -183,12 +181,12 @@ void advise_groups(const Range& values, const Range& labels, Advice& advice) {
             if (after.normal.normal) {
                 transform = candidate;
                 advice.steps.push_back({"normality", chosen.normal.words + ", but they do after a " + candidate +
-                                                         " transform (Shapiro–Wilk " + p_words(after.normal.p) + ")",
+                                                         " transform (Shapiro–Wilk " + format_p(after.normal.p) + ")",
                                         "use transform " + quoted(candidate)});
                 chosen = std::move(after);
             } else {
                 advice.steps.push_back({"normality", chosen.normal.words + ", nor after a " + candidate + " transform (" +
-                                                         p_words(after.normal.p) + ")",
+                                                         format_p(after.normal.p) + ")",
                                         "use a rank test"});
             }
         } else {
@@ -203,7 +201,7 @@ void advise_groups(const Range& values, const Range& labels, Advice& advice) {
     const bool equal_spread = spread_p >= check_alpha;
     const std::string scale = transform == "none" ? "" : " on the " + transform + " scale";
     const std::string spread_words = std::string(equal_spread ? "spreads are similar" : "spreads differ") + scale +
-                                     " (Brown–Forsythe " + p_words(spread_p) + ")";
+                                     " (Brown–Forsythe " + format_p(spread_p) + ")";
 
     if (!normal.normal) {
         advice.method = "ranks";
@@ -349,14 +347,14 @@ void advise_relationship(const Range& response, const Range& predictor, Advice& 
     const bool linear = !linearity_known || checks.reset_p >= check_alpha;
     advice.steps.push_back({"linearity",
                             linearity_known ? std::string(linear ? "no sign of curvature" : "the relationship is curved") +
-                                                  " (RESET " + p_words(checks.reset_p) + ")"
+                                                  " (RESET " + format_p(checks.reset_p) + ")"
                                             : "RESET could not be computed: " + checks.linearity_note,
                             linear ? "a straight line describes it" : "use a rank correlation, which needs only a monotone trend"});
     const bool normality_known = std::isfinite(checks.normality_p);
     const bool normal = !normality_known || checks.normality_p >= check_alpha;
     advice.steps.push_back({"normality",
                             normality_known ? std::string(normal ? "residuals look normal" : "residuals are not normal") +
-                                                  " (Shapiro–Wilk " + p_words(checks.normality_p) + ")"
+                                                  " (Shapiro–Wilk " + format_p(checks.normality_p) + ")"
                                             : "residual normality not tested: " + checks.normality_note,
                             normal ? "Pearson's test is valid" : "Pearson's p would not be trustworthy"});
     advice.method = linear && normal ? "pearson" : "spearman";

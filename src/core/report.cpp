@@ -16,7 +16,6 @@ std::string printf_string(const char* format, double x) {
 std::string format_p(double p) {
     if (!std::isfinite(p)) return "p = n/a";
     if (p < 0.001) return "p < 0.001";
-    // Round first so that 0.0005 does not print as "p = 0.001" by a different route than 0.0014.
     return "p = " + printf_string("%.3f", p);
 }
 
