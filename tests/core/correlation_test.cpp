@@ -12,23 +12,17 @@
 
 #include "core/correlation.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
 using nlohmann::json;
 
-const json& reference() {
-    static const json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/linear.json");
-        return json::parse(in);
-    }();
-    return j;
-}
+const json& reference() { return reference_file("linear.json"); }
 
-void expect_relative(double computed, double expected, double tolerance, const std::string& what) {
-    EXPECT_NEAR(computed, expected, tolerance * std::fabs(expected)) << what;
-}
 
 TEST(Correlation, MatchesScipyOnSoilCoresAndFish) {
     for (const std::string name : {"cores", "fish"}) {

@@ -7,17 +7,14 @@
 
 #include "core/counts.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
-const nlohmann::json& reference() {
-    static const nlohmann::json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/categorical.json");
-        return nlohmann::json::parse(in);
-    }();
-    return j;
-}
+const nlohmann::json& reference() { return reference_file("categorical.json"); }
 
 ContingencyTable table_of(const nlohmann::json& rows) {
     ContingencyTable t;
@@ -29,12 +26,6 @@ ContingencyTable table_of(const nlohmann::json& rows) {
     }
     for (std::size_t j = 0; j < rows[0].size(); ++j) t.column_names.push_back("c" + std::to_string(j + 1));
     return t;
-}
-
-// Relative difference, or absolute below 1e-300 where a library underflows to 0.
-double relative_error(double got, double want) {
-    if (want == 0) return std::fabs(got);
-    return std::fabs(got - want) / std::fabs(want);
 }
 
 Cell num(double x) { return Cell::make_number(x); }

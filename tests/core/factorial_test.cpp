@@ -7,19 +7,15 @@
 
 #include "core/factorial.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
-const nlohmann::json& reference() {
-    static const nlohmann::json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/categorical.json");
-        return nlohmann::json::parse(in);
-    }();
-    return j;
-}
+const nlohmann::json& reference() { return reference_file("categorical.json"); }
 
-double relative_error(double got, double want) { return std::fabs(got - want) / std::max(std::fabs(want), 1e-300); }
 
 // Columns with a header row, as they stand on a sheet.
 struct Sheet {

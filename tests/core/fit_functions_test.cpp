@@ -9,19 +9,16 @@
 #include <nlohmann/json.hpp>
 
 #include "addin/registry.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
 using nlohmann::json;
 
-const json& reference() {
-    static const json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/linear.json");
-        return json::parse(in);
-    }();
-    return j;
-}
+const json& reference() { return reference_file("linear.json"); }
 
 Range block(const std::vector<std::vector<Cell>>& rows) {
     Range r;

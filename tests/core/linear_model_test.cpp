@@ -13,23 +13,17 @@
 
 #include "core/linear_model.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
 using nlohmann::json;
 
-const json& reference() {
-    static const json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/linear.json");
-        return json::parse(in);
-    }();
-    return j;
-}
+const json& reference() { return reference_file("linear.json"); }
 
-void expect_relative(double computed, double expected, double tolerance, const std::string& what) {
-    EXPECT_NEAR(computed, expected, tolerance * std::max(1e-300, std::fabs(expected))) << what;
-}
 
 LinearModel fit_set(const std::string& name) {
     const json& set = reference()[name];

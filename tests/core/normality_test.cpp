@@ -14,24 +14,17 @@
 #include "core/data.hpp"
 #include "core/normality.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
-const nlohmann::json& fixture() {
-    static const nlohmann::json data = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/normality.json");
-        return nlohmann::json::parse(in);
-    }();
-    return data;
-}
+const nlohmann::json& fixture() { return reference_file("normality.json"); }
 
 std::vector<double> values_of(const nlohmann::json& c) { return c.at("values").get<std::vector<double>>(); }
 
-double relative_error(double got, double want) {
-    if (want == 0) return std::fabs(got);
-    return std::fabs(got - want) / std::fabs(want);
-}
 
 std::string refusal_text(auto&& call) {
     try {

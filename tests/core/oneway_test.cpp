@@ -8,17 +8,14 @@
 
 #include "core/oneway.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
-const nlohmann::json& reference() {
-    static const nlohmann::json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/compare.json");
-        return nlohmann::json::parse(in);
-    }();
-    return j;
-}
+const nlohmann::json& reference() { return reference_file("compare.json"); }
 
 std::vector<std::vector<double>> groups_of(const nlohmann::json& c) {
     return c["groups"].get<std::vector<std::vector<double>>>();

@@ -8,17 +8,14 @@
 
 #include "core/paired.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
-const nlohmann::json& reference() {
-    static const nlohmann::json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/compare.json");
-        return nlohmann::json::parse(in);
-    }();
-    return j;
-}
+const nlohmann::json& reference() { return reference_file("compare.json"); }
 
 void expect_matches(const TestResult& r, const nlohmann::json& ref, double tolerance) {
     for (const char* key : {"statistic", "df", "p", "n", "estimate", "ci-low", "ci-high", "effect"})

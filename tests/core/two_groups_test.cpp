@@ -11,17 +11,14 @@
 #include "core/ranks.hpp"
 #include "core/refusal.hpp"
 #include "core/two_groups.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
-const nlohmann::json& reference() {
-    static const nlohmann::json j = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/compare.json");
-        return nlohmann::json::parse(in);
-    }();
-    return j;
-}
+const nlohmann::json& reference() { return reference_file("compare.json"); }
 
 std::vector<double> numbers(const nlohmann::json& j) { return j.get<std::vector<double>>(); }
 

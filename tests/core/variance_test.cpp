@@ -13,17 +13,14 @@
 #include "core/data.hpp"
 #include "core/refusal.hpp"
 #include "core/variance.hpp"
+#include "reference.hpp"
+
+using namespace quadrat::test_support;
 
 namespace quadrat {
 namespace {
 
-const nlohmann::json& fixture() {
-    static const nlohmann::json data = [] {
-        std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/normality.json");
-        return nlohmann::json::parse(in);
-    }();
-    return data;
-}
+const nlohmann::json& fixture() { return reference_file("normality.json"); }
 
 Groups groups_of(const nlohmann::json& c) {
     Groups g;
