@@ -113,6 +113,11 @@ double omega_squared(const AnovaTable& t) {
     return (t.ss_between - t.df_between * t.ms_within) / (t.ss_between + t.ss_within + t.ms_within);
 }
 
+Interval omega_squared_interval(const AnovaTable& t, double n) {
+    const Interval lambda = noncentral_f_interval(t.f, t.df_between, t.df_within, 0.95);
+    return {lambda.low / (lambda.low + n), lambda.high / (lambda.high + n)};
+}
+
 TestResult classic_one_way_anova(std::span<const std::vector<double>> groups) {
     const AnovaTable t = one_way_anova_table(groups);
     TestResult r;
@@ -124,6 +129,8 @@ TestResult classic_one_way_anova(std::span<const std::vector<double>> groups) {
         .add("n", static_cast<double>(total_count(groups)))
         .add("estimate", location_range(group_means(groups)))
         .add("effect", omega_squared(t));
+    const Interval omega = omega_squared_interval(t, r.number("n"));
+    r.add("effect ci-low", omega.low).add("effect ci-high", omega.high);
     return r;
 }
 
@@ -171,6 +178,7 @@ TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) 
         throw Refusal("one group's spread is so much smaller than the others' that Welch's df cannot be computed; use method 'pooled' or 'ranks'");
     const boost::math::fisher_f dist(k - 1, df2);
 
+    const AnovaTable classic = one_way_anova_table(raw_groups);
     TestResult r;
     r.test = "Welch's one-way ANOVA";
     r.add("statistic", f)
@@ -179,7 +187,9 @@ TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) 
         .add("p", cdf(complement(dist, f)))
         .add("n", static_cast<double>(total_count(raw_groups)))
         .add("estimate", location_range(group_means(raw_groups)))
-        .add("effect", omega_squared(one_way_anova_table(raw_groups)));
+        .add("effect", omega_squared(classic));
+    const Interval omega = omega_squared_interval(classic, r.number("n"));
+    r.add("effect ci-low", omega.low).add("effect ci-high", omega.high);
     return r;
 }
 

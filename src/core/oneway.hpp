@@ -2,6 +2,8 @@
 // one-way ANOVA or Kruskal–Wallis; two groups to the tests of two_groups.hpp.
 #pragma once
 
+#include "effect_interval.hpp"
+
 #include <span>
 #include <string>
 #include <vector>
@@ -24,6 +26,11 @@ AnovaTable one_way_anova_table(std::span<const std::vector<double>> groups);
 // ω² = (SS_between − (k−1)·MS_within)/(SS_total + MS_within) (Hays 1963; Olejnik & Algina 2003,
 // Psychol. Methods 8, 434–447). Can be slightly negative when F < 1; given as computed.
 double omega_squared(const AnovaTable& table);
+
+// The interval of ω² at 95%: the noncentrality interval of the classic F (effect_interval.hpp)
+// carried to ω² = λ/(λ + N) (Steiger 2004, Psychological Methods 9, 164–182). Both methods of
+// COMPARE.GROUPS report it, as they report the same ω².
+Interval omega_squared_interval(const AnovaTable& table, double n);
 
 // Classic one-way ANOVA: F = MS_between/MS_within on (k−1, N−k) df. estimate: largest minus
 // smallest group mean; effect: ω².

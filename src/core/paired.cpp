@@ -9,6 +9,7 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include "data.hpp"
+#include "effect_interval.hpp"
 #include "hodges_lehmann.hpp"
 #include "keywords.hpp"
 #include "ranks.hpp"
@@ -107,6 +108,8 @@ TestResult paired_t_test(std::span<const double> differences_raw, double level) 
     const double t = require_finite_statistic(m / se, "t");
     const boost::math::students_t dist(n - 1);
     const double margin = quantile(complement(dist, (1 - level) / 2)) * se;
+    // Cohen's d of the differences, d = t/√n: its interval from the noncentral t (Steiger & Fouladi 1997).
+    const Interval delta = noncentral_t_interval(t, n - 1, level);
 
     TestResult r;
     r.test = "Paired t-test";
@@ -117,7 +120,9 @@ TestResult paired_t_test(std::span<const double> differences_raw, double level) 
         .add("estimate", m / scale)
         .add("ci-low", (m - margin) / scale)
         .add("ci-high", (m + margin) / scale)
-        .add("effect", m / sd);
+        .add("effect", m / sd)
+        .add("effect ci-low", delta.low / std::sqrt(n))
+        .add("effect ci-high", delta.high / std::sqrt(n));
     return r;
 }
 

@@ -8,6 +8,7 @@
 #include <boost/math/distributions/normal.hpp>
 #include <boost/math/distributions/students_t.hpp>
 
+#include "effect_interval.hpp"
 #include "hodges_lehmann.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
@@ -83,6 +84,7 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
     const double t = require_finite_statistic(difference / standard_error, "t");
     if (!(df > 0 && std::isfinite(df))) throw Refusal("the degrees of freedom cannot be computed for these data");
     const double margin = t_critical(df, level) * standard_error;
+    const EffectWithInterval g = hedges_g(first, second, level);
 
     TestResult r;
     r.test = pooled ? "Student's two-sample t-test (pooled variance)" : "Welch two-sample t-test";
@@ -93,7 +95,9 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
         .add("estimate", difference / scale)
         .add("ci-low", (difference - margin) / scale)
         .add("ci-high", (difference + margin) / scale)
-        .add("effect", hedges_g(first, second));
+        .add("effect", g.value)
+        .add("effect ci-low", g.low)
+        .add("effect ci-high", g.high);
     return r;
 }
 
@@ -128,15 +132,18 @@ double power_of_two_scale(std::span<const std::span<const double>> groups) {
     return std::ldexp(1.0, std::clamp(-exponent, -1000, 1000));
 }
 
-double hedges_g(std::span<const double> first_raw, std::span<const double> second_raw) {
+EffectWithInterval hedges_g(std::span<const double> first_raw, std::span<const double> second_raw, double level) {
     const std::span<const double> both[] = {first_raw, second_raw};
     const double scale = power_of_two_scale(both);
     const std::vector<double> first = scaled(first_raw, scale), second = scaled(second_raw, scale);
     const GroupSummary a = summarize(first), b = summarize(second);
     const double pooled_sd = std::sqrt((a.sum_of_squares + b.sum_of_squares) / (a.n + b.n - 2));
-    if (!(pooled_sd > 0)) return not_available;
+    if (!(pooled_sd > 0)) return {not_available, not_available, not_available};
     const double correction = 1 - 3 / (4 * (a.n + b.n) - 9);
-    return (a.mean - b.mean) / pooled_sd * correction;
+    const double d = (a.mean - b.mean) / pooled_sd;
+    const double root_pairs = std::sqrt(a.n * b.n / (a.n + b.n));  // t = d · √(n₁n₂/(n₁+n₂))
+    const Interval delta = noncentral_t_interval(d * root_pairs, a.n + b.n - 2, level);
+    return {d * correction, delta.low / root_pairs * correction, delta.high / root_pairs * correction};
 }
 
 TestResult welch_t_test(std::span<const double> first, std::span<const double> second, double level) {

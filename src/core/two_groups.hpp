@@ -25,8 +25,13 @@ TestResult pooled_t_test(std::span<const double> first, std::span<const double> 
 // the critical values of U; effect: rank-biserial r = 2U₁/(n₁n₂) − 1.
 TestResult rank_sum_test(std::span<const double> first, std::span<const double> second, double level);
 
-// Hedges' g: (x̄₁ − x̄₂)/s_pooled × (1 − 3/(4(n₁+n₂) − 9)) (Hedges 1981, J. Educ. Stat. 6, 107–128).
-double hedges_g(std::span<const double> first, std::span<const double> second);
+// Hedges' g: (x̄₁ − x̄₂)/s_pooled × (1 − 3/(4(n₁+n₂) − 9)) (Hedges 1981, J. Educ. Stat. 6, 107–128),
+// with its interval: the noncentrality interval of the pooled t = d·√(n₁n₂/(n₁+n₂)) on n₁+n₂−2 df
+// (effect_interval.hpp), carried back to d and multiplied by the same small-sample factor.
+struct EffectWithInterval {
+    double value, low, high;
+};
+EffectWithInterval hedges_g(std::span<const double> first, std::span<const double> second, double level);
 
 // Exact null distribution of U for group sizes m and n without ties: P(U = u), u = 0..mn.
 // Bounded: only called for m, n < 50 (at most 2401 + 1 values, about 1.5 million additions).

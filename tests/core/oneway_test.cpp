@@ -76,7 +76,8 @@ TEST(OneWay, TableAndReport) {
     g.n_dropped = 2;
     const TestResult r = compare_groups(g, "welch", Transform::none);
     const Table t = r.table();
-    ASSERT_EQ(t.size(), 2u + 7u + 1u + 6u);  // header, test, 7 quantities, n dropped, 2 rows per group
+    // header, test, 7 quantities, the effect's interval, n dropped, 2 rows per group
+    ASSERT_EQ(t.size(), 2u + 7u + 2u + 1u + 6u);
     EXPECT_EQ(std::get<std::string>(t[1][1]), "Welch's one-way ANOVA");
     EXPECT_EQ(r.number("n dropped"), 2);
     EXPECT_EQ(r.report.rfind("Welch's one-way ANOVA: F(2, ", 0), 0u) << r.report;

@@ -101,7 +101,8 @@ TEST(TwoGroups, TableAndReport) {
     const TestResult r = compare_groups(two_groups(numbers(c["first"]), numbers(c["second"]), 3), "", Transform::none);
     const Table t = r.table();
     const std::vector<std::string> labels = {"quantity", "test", "statistic", "df", "p", "n", "n dropped",
-                                             "estimate", "ci-low", "ci-high", "effect", "upstream: n",
+                                             "estimate", "ci-low", "ci-high", "effect", "effect ci-low",
+                                             "effect ci-high", "upstream: n",
                                              "upstream: mean", "downstream: n", "downstream: mean"};
     ASSERT_EQ(t.size(), labels.size());
     for (std::size_t i = 0; i < labels.size(); ++i) EXPECT_EQ(std::get<std::string>(t[i][0]), labels[i]);

@@ -10,7 +10,8 @@ method, the value comes from them, called with every option that matters spelled
 LIBRARY-NOTES.md: mannwhitneyu and wilcoxon get `method` and `zero_method` explicitly). Where no
 library has it (Hodges–Lehmann intervals, Hedges' g, omega squared, epsilon squared, the t
 intervals; SciPy 1.10's ttest_ind has no df), it is computed here from the published formula in
-plain Python, by brute force (every pairwise difference / Walsh average listed and sorted, exact
+plain Python or 40-digit mpmath (the effect-size intervals: noncentral t and F inverted by their
+defining integral and Poisson mixture, Steiger & Fouladi 1997, Steiger 2004), by brute force (every pairwise difference / Walsh average listed and sorted, exact
 null distributions counted with Python integers), independently of the C++ selection algorithm.
 """
 import json
@@ -18,6 +19,7 @@ import math
 import os
 from fractions import Fraction
 
+import mpmath as mp
 import numpy as np
 import scipy
 import scipy.stats as st
@@ -25,6 +27,74 @@ import statsmodels
 from statsmodels.stats.oneway import anova_oneway
 
 LEVEL = 0.95
+mp.mp.dps = 40
+
+
+# ---------------------------------------------------------------- effect-size intervals
+def nct_cdf(t, nu, delta):
+    """P(T <= t) for the noncentral t: the integral over chi-square u of Phi(t sqrt(u/nu) - delta)."""
+    t, nu, delta = mp.mpf(t), mp.mpf(nu), mp.mpf(delta)
+    dens = lambda u: mp.exp((nu / 2 - 1) * mp.log(u) - u / 2 - (nu / 2) * mp.log(2) - mp.loggamma(nu / 2))
+    return mp.quad(lambda u: mp.ncdf(t * mp.sqrt(u / nu) - delta) * dens(u), [0, nu / 4, nu, 4 * nu, mp.inf])
+
+
+def ncf_cdf(f, d1, d2, lam):
+    """P(F <= f) for the noncentral F: the Poisson(lam/2) mixture of regularized incomplete betas."""
+    f, d1, d2, lam = mp.mpf(f), mp.mpf(d1), mp.mpf(d2), mp.mpf(lam)
+    x = d1 * f / (d1 * f + d2)
+    total, j = mp.mpf(0), 0
+    while True:
+        w = mp.exp(-lam / 2 + j * mp.log(lam / 2) - mp.loggamma(j + 1)) if lam > 0 else (1 if j == 0 else 0)
+        term = w * mp.betainc(d1 / 2 + j, d2 / 2, 0, x, regularized=True)
+        total += term
+        if j > lam / 2 + 10 and term < mp.mpf(10) ** -35:
+            return total
+        if lam == 0:
+            return total
+        j += 1
+
+
+def decreasing_root(cdf, target, guess, floor=None):
+    """The noncentrality where cdf(ncp) = target, cdf decreasing in ncp: bracket from scipy's
+    guess, then bisect in mpmath to 1e-25."""
+    if floor is not None and cdf(floor) < target:
+        return float(floor)
+    step = 0.5 + abs(guess) * 0.1
+    lo, hi = guess - step, guess + step
+    if floor is not None:
+        lo = max(lo, floor)
+    while cdf(lo) < target:
+        lo -= step
+        step *= 2
+        if floor is not None and lo <= floor:
+            lo = floor
+            break
+    while cdf(hi) > target:
+        hi += step
+        step *= 2
+    lo, hi = mp.mpf(lo), mp.mpf(hi)
+    while hi - lo > mp.mpf(10) ** -25 * (1 + abs(lo)):
+        mid = (lo + hi) / 2
+        if cdf(mid) > target:
+            lo = mid
+        else:
+            hi = mid
+    return float((lo + hi) / 2)
+
+
+def t_effect_interval(t, df, level=LEVEL):
+    a = (1 - level) / 2
+    lo = decreasing_root(lambda d: nct_cdf(t, df, d), 1 - a, t)
+    hi = decreasing_root(lambda d: nct_cdf(t, df, d), a, t)
+    return lo, hi
+
+
+def f_effect_interval(f, d1, d2, level=LEVEL):
+    a = (1 - level) / 2
+    guess = max(0.0, d1 * (f - 1))
+    lo = decreasing_root(lambda l: ncf_cdf(f, d1, d2, l), 1 - a, guess, floor=0)
+    hi = decreasing_root(lambda l: ncf_cdf(f, d1, d2, l), a, guess, floor=0)
+    return lo, hi
 
 
 def r10(x):
@@ -51,9 +121,13 @@ def t_reference(a, b, equal_var):
     diff = a.mean() - b.mean()
     q = st.t.ppf(1 - (1 - LEVEL) / 2, df)
     sp = math.sqrt(((n1 - 1) * v1 + (n2 - 1) * v2) / (n1 + n2 - 2))
-    g = diff / sp * (1 - 3 / (4 * (n1 + n2) - 9))
+    J = 1 - 3 / (4 * (n1 + n2) - 9)
+    g = diff / sp * J
+    root = math.sqrt(n1 * n2 / (n1 + n2))
+    lo, hi = t_effect_interval(diff / sp * root, n1 + n2 - 2)
     return {"statistic": float(res.statistic), "p": float(res.pvalue), "df": float(df),
-            "estimate": float(diff), "ci-low": diff - q * se, "ci-high": diff + q * se, "effect": g}
+            "estimate": float(diff), "ci-low": diff - q * se, "ci-high": diff + q * se, "effect": g,
+            "effect ci-low": lo / root * J, "effect ci-high": hi / root * J}
 
 
 # ---------------------------------------------------------------- rank-sum (Mann–Whitney)
@@ -119,13 +193,15 @@ def k_reference(groups):
     k, N = len(arrays), len(allv)
     msw = ssw / (N - k)
     omega = (ssb - (k - 1) * msw) / (ssb + ssw + msw)
+    lam_lo, lam_hi = f_effect_interval(float(classic.statistic), k - 1, N - k)
+    omega_ci = {"effect ci-low": lam_lo / (lam_lo + N), "effect ci-high": lam_hi / (lam_hi + N)}
     means = [g.mean() for g in arrays]
     medians = [float(np.median(g)) for g in arrays]
     return {
         "classic": {"statistic": float(classic.statistic), "p": float(classic.pvalue), "df": k - 1,
-                    "df2": N - k, "estimate": max(means) - min(means), "effect": omega},
+                    "df2": N - k, "estimate": max(means) - min(means), "effect": omega, **omega_ci},
         "welch": {"statistic": float(welch.statistic), "p": float(welch.pvalue), "df": float(welch.df[0]),
-                  "df2": float(welch.df[1]), "estimate": max(means) - min(means), "effect": omega},
+                  "df2": float(welch.df[1]), "estimate": max(means) - min(means), "effect": omega, **omega_ci},
         "ranks": {"statistic": float(kw.statistic), "p": float(kw.pvalue), "df": k - 1,
                   "estimate": max(medians) - min(medians), "effect": float(kw.statistic) / (N - 1)},
     }
@@ -151,6 +227,8 @@ def paired_reference(d, exact):
     out_t = {"statistic": float(t.statistic), "p": float(t.pvalue), "df": n_all - 1,
              "estimate": float(d.mean()), "ci-low": d.mean() - q * sd / math.sqrt(n_all),
              "ci-high": d.mean() + q * sd / math.sqrt(n_all), "effect": float(d.mean() / sd)}
+    lo, hi = t_effect_interval(float(t.statistic), n_all - 1)
+    out_t["effect ci-low"], out_t["effect ci-high"] = lo / math.sqrt(n_all), hi / math.sqrt(n_all)
     nz = np.sort(d[d != 0])
     n = len(nz)
     w = st.wilcoxon(nz, zero_method='wilcox', correction=not exact, method='exact' if exact else 'approx',
@@ -304,7 +382,7 @@ def main():
 
     strd = strd_univariate_ceilings()
 
-    out = {"generator": "tests/reference/generate_compare.py", "scipy": scipy.__version__,
+    out = {"generator": "tests/reference/generate_compare.py", "scipy": scipy.__version__, "mpmath": mp.__version__,
            "statsmodels": statsmodels.__version__, "numpy": np.__version__, "level": LEVEL, "cases": cases,
            "strd_univariate_ceiling": strd}
     path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "compare.json")
