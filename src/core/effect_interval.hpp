@@ -12,11 +12,11 @@ struct Interval {
 };
 
 // Noncentrality δ of a t statistic with `df` degrees of freedom: P(T ≤ t | δ_low) = 1 − α/2 and
-// P(T ≤ t | δ_high) = α/2. NaN limits where the noncentral t cannot be evaluated (|t| beyond 1e4).
+// P(T ≤ t | δ_high) = α/2. NaN limits beyond |t| = 1000, where the noncentral t gets slow to evaluate.
 Interval noncentral_t_interval(double t, double df, double level);
 
 // Noncentrality λ ≥ 0 of an F statistic with (df1, df2) degrees of freedom; a limit is 0 where
-// even λ = 0 leaves the observed F below that limit's point.
+// even λ = 0 leaves the observed F below that limit's point. NaN limits beyond df1·F = 1e7.
 Interval noncentral_f_interval(double f, double df1, double df2, double level);
 
 }  // namespace quadrat

@@ -98,6 +98,7 @@ TEST(EffectInterval, MirrorsAndLimits) {
     EXPECT_EQ(none.high, 0.0);
     // Beyond what the noncentral t can be evaluated at: no interval rather than a wrong one.
     EXPECT_TRUE(std::isnan(noncentral_t_interval(1e6, 10, 0.95).low));
+    EXPECT_TRUE(std::isnan(noncentral_f_interval(1e8, 5, 10, 0.95).high));
 }
 
 }  // namespace
