@@ -38,11 +38,13 @@ Table compare_expected(const Arguments& a) {
 }
 
 Table fit_logistic(const Arguments& a) {
-    const LogisticData data = read_logistic_data(argument(a, 0), argument(a, 1));
+    // The model table and the coefficient table of one fit in neighbouring cells share it.
+    const auto fit = remembered_on("fitLogistic", a, {0, 1}, [&] {
+        return quadrat::fit_logistic(read_logistic_data(argument(a, 0), argument(a, 1)));
+    });
     const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), logistic_outputs(), "output");
     const double level = level_argument(argument(a, 3));
-    const LogisticFit fit = quadrat::fit_logistic(data);
-    return output == "model" ? logistic_model(fit) : logistic_coefficients(fit, level);
+    return output == "model" ? logistic_model(*fit) : logistic_coefficients(*fit, level);
 }
 
 Table fit_factorial(const Arguments& a) {
@@ -60,11 +62,12 @@ Table fit_factorial(const Arguments& a) {
         else
             throw Refusal("sstype must be 2 (Type II, the default) or 3 (Type III)");
     }
-    const FactorialAnova anova = quadrat::fit_factorial(data, sstype);
-    if (output == "p-first") return single(anova.first.p);
-    if (output == "p-second") return single(anova.second.p);
-    if (output == "p-interaction") return single(anova.interaction.p);
-    return factorial_table(anova);
+    // The three p-values and the table in neighbouring cells share one fit.
+    const auto anova = remembered("fitFactorial", a, 3, [&] { return quadrat::fit_factorial(data, sstype); });
+    if (output == "p-first") return single(anova->first.p);
+    if (output == "p-second") return single(anova->second.p);
+    if (output == "p-interaction") return single(anova->interaction.p);
+    return factorial_table(*anova);
 }
 
 }  // namespace quadrat::addin

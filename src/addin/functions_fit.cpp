@@ -17,29 +17,40 @@ const Range& argument(const Arguments& a, std::size_t i) {
     return i < a.size() ? a[i] : omitted;
 }
 
-LinearModel fit_regression(const RegressionData& data) {
-    return fit_least_squares(data.y, data.predictors, data.names, true);
+struct FittedRegression {
+    RegressionData data;
+    LinearModel model;
+};
+
+// FIT.LINEAR, FIT.POINTS and CHECK.MODEL over the same y and xs share one fit: a sheet laid out
+// as a technician would (coefficients, checks, fitted points) computes it once.
+std::shared_ptr<const FittedRegression> fitted_regression(const Arguments& a) {
+    return remembered_on("regression", a, {0, 1}, [&] {
+        RegressionData data = read_regression(argument(a, 0), argument(a, 1));
+        LinearModel model = fit_least_squares(data.y, data.predictors, data.names, true);
+        return FittedRegression{std::move(data), std::move(model)};
+    });
 }
 }  // namespace
 
 Table fit_linear(const Arguments& a) {
-    const RegressionData data = read_regression(argument(a, 0), argument(a, 1));
+    const auto fit = fitted_regression(a);
     const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), linear_outputs(), "output");
     const double level = level_argument(argument(a, 3));
-    return linear_output(fit_regression(data), data.n_dropped, output, level);
+    return linear_output(fit->model, fit->data.n_dropped, output, level);
 }
 
 Table fit_points(const Arguments& a) {
-    const RegressionData data = read_regression(argument(a, 0), argument(a, 1));
+    const auto fit = fitted_regression(a);
     const std::string given = keyword_argument(argument(a, 2), "what");
     const std::string what = given.empty() ? given : match_keyword(given, point_columns(), "what");
-    return fit_points_table(fit_regression(data), data, what);
+    return fit_points_table(fit->model, fit->data, what);
 }
 
 Table check_model(const Arguments& a) {
-    const RegressionData data = read_regression(argument(a, 0), argument(a, 1));
+    const auto fit = fitted_regression(a);
     const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), check_model_outputs(), "output");
-    return check_model_output(fit_regression(data), data, output);
+    return check_model_output(fit->model, fit->data, output);
 }
 
 Table relate_correlation(const Arguments& a) {

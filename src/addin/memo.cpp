@@ -14,7 +14,7 @@ constexpr std::size_t largest_key_cells = 4'000'000;
 
 struct Entry {
     std::string key;
-    std::shared_ptr<const TestResult> result;
+    std::shared_ptr<const void> result;
 };
 
 std::mutex guard;
@@ -29,11 +29,12 @@ void append_value(std::string& key, T value) {
 }
 
 // Every cell in a byte string: exact equality of the key is exact equality of the data.
-std::string make_key(std::string_view function, const Arguments& arguments, std::size_t skipped) {
-    std::string key(function);
+std::string make_key(std::string_view kind, const Arguments& arguments, const std::vector<std::size_t>& keyed) {
+    std::string key(kind);
     key.push_back('\0');
-    for (std::size_t i = 0; i < arguments.size(); ++i) {
-        if (i == skipped) continue;
+    for (std::size_t i : keyed) {
+        append_value(key, i);
+        if (i >= arguments.size()) continue;  // left off by the caller
         const Range& r = arguments[i];
         append_value(key, r.rows);
         append_value(key, r.columns);
@@ -53,18 +54,20 @@ std::string make_key(std::string_view function, const Arguments& arguments, std:
     return key;
 }
 
-std::size_t cell_count(const Arguments& arguments) {
+std::size_t cell_count(const Arguments& arguments, const std::vector<std::size_t>& keyed) {
     std::size_t n = 0;
-    for (const auto& r : arguments) n += r.cells.size();
+    for (std::size_t i : keyed)
+        if (i < arguments.size()) n += arguments[i].cells.size();
     return n;
 }
 
 }  // namespace
 
-std::shared_ptr<const TestResult> remembered(std::string_view function, const Arguments& arguments,
-                                             std::size_t output_position, const std::function<TestResult()>& compute) {
-    if (cell_count(arguments) > largest_key_cells) return std::make_shared<const TestResult>(compute());
-    std::string key = make_key(function, arguments, output_position);
+std::shared_ptr<const void> remembered_result(std::string_view kind, const Arguments& arguments,
+                                              const std::vector<std::size_t>& keyed,
+                                              const std::function<std::shared_ptr<const void>()>& compute) {
+    if (cell_count(arguments, keyed) > largest_key_cells) return compute();
+    std::string key = make_key(kind, arguments, keyed);
     {
         std::lock_guard<std::mutex> lock(guard);
         for (auto it = entries.begin(); it != entries.end(); ++it)
@@ -75,7 +78,7 @@ std::shared_ptr<const TestResult> remembered(std::string_view function, const Ar
             }
     }
     // Computed outside the lock: a slow test does not hold up other cells.
-    auto result = std::make_shared<const TestResult>(compute());
+    auto result = compute();
     std::lock_guard<std::mutex> lock(guard);
     entries.push_front({std::move(key), result});
     if (entries.size() > capacity) entries.pop_back();

@@ -2,6 +2,7 @@
 // Behaviour checks, no numbers from a source.
 #include <gtest/gtest.h>
 
+#include "addin/handlers.hpp"
 #include "addin/memo.hpp"
 #include "core/refusal.hpp"
 
@@ -65,6 +66,31 @@ TEST(ResultCache, ARefusalIsNotKept) {
     EXPECT_THROW(remembered("f", a, 2, refuse), Refusal);
     EXPECT_THROW(remembered("f", a, 2, refuse), Refusal);
     EXPECT_EQ(calls, 2);
+}
+
+// A result of another type, keyed on chosen positions only: the fourth argument does not matter.
+TEST(ResultCache, KeysOnTheChosenPositions) {
+    forget_all();
+    int calls = 0;
+    auto count = [&] { return ++calls; };
+    Arguments a = arguments_with_output("p");
+    EXPECT_EQ(*remembered_on("k", a, {0, 1}, count), 1);
+    a[2] = Range::scalar(Cell::make_text("table"));
+    EXPECT_EQ(*remembered_on("k", a, {0, 1}, count), 1);
+    a[1].cells[2].text = "c";
+    EXPECT_EQ(*remembered_on("k", a, {0, 1}, count), 2);
+}
+
+// FIT.LINEAR's coefficients and model, CHECK.MODEL and FIT.POINTS over the same y and xs: one fit.
+TEST(ResultCache, OneRegressionServesItsNeighbours) {
+    forget_all();
+    const Range y = Range::column({2.1, 3.9, 6.2, 7.8, 10.1, 12.2}), x = Range::column({1, 2, 3, 4, 5, 6});
+    const Range blank = Range::omitted_argument();
+    fit_linear({y, x, Range::scalar(Cell::make_text("coefficients")), blank});
+    fit_linear({y, x, Range::scalar(Cell::make_text("model")), blank});
+    check_model({y, x, blank});
+    fit_points({y, x, blank});
+    EXPECT_EQ(remembered_hits(), 3u);
 }
 
 }  // namespace
