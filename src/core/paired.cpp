@@ -138,19 +138,9 @@ TestResult signed_rank_test(std::span<const double> differences, double level) {
     double p = 1;
     std::uint64_t k = 0;  // interval: the k-th smallest and k-th largest Walsh average
     if (exact) {
-        const std::vector<double> probability = signed_rank_null_distribution(count);
-        const auto t = static_cast<std::size_t>(std::llround(s.t_plus));
-        double lower = 0, upper = 0;
-        for (std::size_t v = 0; v <= t; ++v) lower += probability[v];
-        for (std::size_t v = probability.size(); v-- > t;) upper += probability[v];
-        p = std::min(1.0, 2 * std::min(lower, upper));
-        // Largest k with P(T⁺ ≤ k − 1) ≤ α/2 (Bauer 1972).
-        double cumulative = 0;
-        for (std::size_t v = 0; v < probability.size(); ++v) {
-            cumulative += probability[v];
-            if (cumulative > alpha_half * (1 + 1e-12)) break;
-            k = v + 1;
-        }
+        const ExactRankInference e = exact_rank_inference(signed_rank_null_distribution(count), s.t_plus, level);
+        p = e.p;
+        k = e.interval_position;
     } else {
         // Var(T⁺) = n(n+1)(2n+1)/24 − Σ(t³ − t)/48; continuity correction ½ for the p-value only.
         const double sd = std::sqrt(n * (n + 1) * (2 * n + 1) / 24 - s.ranking.tie_term / 48);

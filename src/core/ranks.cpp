@@ -36,4 +36,20 @@ double round_significant(double x, int digits) {
     return std::round(x * scale) / scale;
 }
 
+ExactRankInference exact_rank_inference(std::span<const double> probability, double observed, double level) {
+    const auto s = static_cast<std::size_t>(std::llround(observed));
+    double lower = 0, upper = 0;
+    for (std::size_t v = 0; v <= s && v < probability.size(); ++v) lower += probability[v];
+    for (std::size_t v = probability.size(); v-- > s;) upper += probability[v];
+    ExactRankInference out{std::min(1.0, 2 * std::min(lower, upper)), 0};
+    const double alpha_half = (1 - level) / 2;
+    double cumulative = 0;
+    for (std::size_t v = 0; v < probability.size(); ++v) {
+        cumulative += probability[v];
+        if (cumulative > alpha_half * (1 + 1e-12)) break;
+        out.interval_position = v + 1;
+    }
+    return out;
+}
+
 }  // namespace quadrat

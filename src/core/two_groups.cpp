@@ -197,19 +197,9 @@ TestResult rank_sum_test(std::span<const double> first, std::span<const double> 
     double p = 1.0;
     std::uint64_t k = 0;  // confidence limits: the k-th smallest and k-th largest pairwise difference
     if (exact) {
-        const std::vector<double> probability = rank_sum_null_distribution(m, n);
-        const auto u = static_cast<std::size_t>(std::llround(u1));
-        double lower = 0, upper = 0;
-        for (std::size_t v = 0; v <= u; ++v) lower += probability[v];
-        for (std::size_t v = probability.size(); v-- > u;) upper += probability[v];
-        p = std::min(1.0, 2.0 * std::min(lower, upper));
-        // Largest k with P(U ≤ k − 1) ≤ α/2 (Bauer 1972): the interval covers with at least `level`.
-        double cumulative = 0;
-        for (std::size_t v = 0; v < probability.size(); ++v) {
-            cumulative += probability[v];
-            if (cumulative > alpha_half * (1 + 1e-12)) break;
-            k = v + 1;
-        }
+        const ExactRankInference e = exact_rank_inference(rank_sum_null_distribution(m, n), u1, level);
+        p = e.p;
+        k = e.interval_position;
     } else {
         // Normal approximation: Var(U) = mn/12·((N+1) − Σ(t³−t)/(N(N−1))), continuity correction 1/2.
         const double sd = std::sqrt(pairs / 12.0 * ((total + 1) - ranking.tie_term / (total * (total - 1))));
