@@ -246,30 +246,37 @@ def marsh(office, available):
     s.label("G11", "Which test? ADVISE.TEST (a guide, not a verdict):", italic=True)
     s.sentence("G12", "=ADVISE.TEST(%s;%s)" % (H, Z), 10, 5)
 
-    s.label("G18", "Do the zones differ? (COMPARE.GROUPS, Welch: holds whether or not spreads are equal)", bold=True)
+    # The test follows the advice: its method, transform and post-hoc method are cells computed
+    # from ADVISE.TEST, so a new season's data that change the advice change the test with it.
+    s.label("G17", "The advice as keywords: method, transform, post-hoc method")
+    s.formula("M17", 'ADVISE.TEST(%s;%s;"method")' % (H, Z))
+    s.formula("N17", 'ADVISE.TEST(%s;%s;"transform")' % (H, Z))
+    s.formula("O17", 'IF(M17="welch";"games-howell";IF(M17="pooled";"tukey";"dunn"))')
+    M, T, P = "$M$17", "$N$17", "$O$17"
+    s.label("G18", "Do the zones differ? (COMPARE.GROUPS with the method the advice picks)", bold=True)
     s.label("G19", "p-value")
-    s.formula("K19", "COMPARE.GROUPS(%s;%s)" % (H, Z))
+    s.formula("K19", 'COMPARE.GROUPS(%s;%s;%s;"p";%s)' % (H, Z, M, T))
     s.label("G20", "F statistic")
-    s.formula("K20", 'COMPARE.GROUPS(%s;%s;"welch";"statistic")' % (H, Z))
+    s.formula("K20", 'COMPARE.GROUPS(%s;%s;%s;"statistic";%s)' % (H, Z, M, T))
     s.label("G21", "effect size ω²")
-    s.formula("K21", 'COMPARE.GROUPS(%s;%s;"welch";"effect")' % (H, Z))
+    s.formula("K21", 'COMPARE.GROUPS(%s;%s;%s;"effect";%s)' % (H, Z, M, T))
     s.label("G22", "largest - smallest mean, cm")
-    s.formula("K22", 'COMPARE.GROUPS(%s;%s;"welch";"estimate")' % (H, Z))
-    s.sentence("G23", '=COMPARE.GROUPS(%s;%s;"welch";"report")' % (H, Z), 10, 2)
+    s.formula("K22", 'COMPARE.GROUPS(%s;%s;%s;"estimate";%s)' % (H, Z, M, T))
+    s.sentence("G23", '=COMPARE.GROUPS(%s;%s;%s;"report";%s)' % (H, Z, M, T), 10, 2)
     s.sentence("G25", CAUTION, 10, 2)
     s.cell("G25").CharColor = 0x9C2A00
 
     row = 28
     letters_block = None
     if "COMPARE.POSTHOC" in available:
-        s.label("G%d" % row, "Pairs of zones, Games-Howell: difference in cm, 95% interval (COMPARE.POSTHOC)",
-                bold=True)
-        rows_, _ = s.array("G%d" % (row + 1), 'COMPARE.POSTHOC(%s;%s;"games-howell")' % (H, Z))
+        s.label("G%d" % row, "Pairs of zones by the advised post-hoc method: difference in cm, 95% interval "
+                "(COMPARE.POSTHOC)", bold=True)
+        rows_, _ = s.array("G%d" % (row + 1), 'COMPARE.POSTHOC(%s;%s;%s;;%s)' % (H, Z, P, T))
         s.number_format("I%d:N%d" % (row + 2, row + rows_), "0.000")
         row += rows_ + 2
     if "COMPARE.LETTERS" in available:
-        s.label("G%d" % row, "Zones sharing a letter do not differ (Games-Howell, 5%; COMPARE.LETTERS)", bold=True)
-        rows_, _ = s.array("G%d" % (row + 1), 'COMPARE.LETTERS(%s;%s;"games-howell")' % (H, Z))
+        s.label("G%d" % row, "Zones sharing a letter do not differ (same method, 5%; COMPARE.LETTERS)", bold=True)
+        rows_, _ = s.array("G%d" % (row + 1), 'COMPARE.LETTERS(%s;%s;%s;;%s)' % (H, Z, P, T))
         s.number_format("I%d:I%d" % (row + 2, row + rows_), "0.0")
         letters_block = row + 2  # first group row
         row += rows_ + 2
@@ -287,7 +294,7 @@ def marsh(office, available):
         q.formula("B%d" % r, "$survey.I%d" % (3 + i))
     q.number_format("B3:B6", "0.0")
     s.chart("means", "Q1", 12.0, 8.5, "A2:B6", "columns",
-            "Mean plant height by zone" + (" (letters: Games-Howell)" if letters_block else ""),
+            "Mean plant height by zone" + (" (letters: the advised post-hoc method)" if letters_block else ""),
             "zone", "mean height (cm)", headers=(True, True), data_sheet=q.sheet)
 
     # Normal Q-Q plot of the residuals from the zone means, over all 500 rows.
@@ -303,7 +310,7 @@ def marsh(office, available):
     s.widths([2.2, 1.8, 2.3, 2.0, 5.5, 0.6, 2.6])
     s.number_format("I3:P6", "0.0")
     s.number_format("K9:K10", "0.000")
-    s.number_format("K19:K19", "0.0000")
+    s.number_format("K19:K19", '[<0.0001]"< 0.0001";0.0000')
     s.number_format("K20:K22", "0.00")
     doc.calculateAll()
     store(doc, os.path.join(ROOT, "sample_sheets", "marsh-vegetation.fods"))
