@@ -192,5 +192,10 @@ TEST(PublishedModels, MendelDihybridPeas) {
     expect_printed(r.number("p"), c["p"].get<double>(), 0.925, 0.0005, "p");
 }
 
+// Not here, for want of a published worked example whose figures could be confirmed: the Yates
+// correction, Cramér's V, Kendall's τ-b with ties, the Fisher-z interval as a printed figure, and
+// Type II against Type III sums of squares on an unbalanced design. Each is checked against a
+// reference library in its own test file.
+
 }  // namespace
 }  // namespace quadrat
