@@ -1,7 +1,7 @@
 // Published worked examples for the group comparisons: COMPARE.GROUPS (classic one-way ANOVA,
 // Kruskal–Wallis), COMPARE.PAIRED (t, signed-rank, sign), COMPARE.POSTHOC (Tukey) and ADJUST.P.
 // The data are classic public data sets, stored with their sources by
-// tests/reference/generate_published.py, which also writes what SciPy/statsmodels give on them.
+// tests/reference/generate_published_examples.py, which also writes what SciPy/statsmodels give on them.
 // Each printed figure is held to its printed digits (half a unit in the last digit) by our value
 // and by the library's value alike (published.hpp).
 #include <gtest/gtest.h>
@@ -25,7 +25,7 @@ using namespace quadrat::test_support;
 namespace quadrat {
 namespace {
 
-const nlohmann::json& published() { return reference_file("published.json"); }
+const nlohmann::json& published() { return reference_file("published_examples.json"); }
 
 std::vector<std::vector<double>> groups_of(const nlohmann::json& c) {
     return c["values"].get<std::vector<std::vector<double>>>();
@@ -115,7 +115,7 @@ TEST(PublishedCompare, MontgomeryEtchRateKruskalWallis) {
     const TestResult r = kruskal_wallis_test(groups_of(c));
     expect_printed(r.number("statistic"), c["h"].get<double>(), 16.91, 0.005, "H");
     EXPECT_EQ(r.number("df"), 3);
-    // scipy.stats.kruskal 1.10 (tests/reference/generate_published.py): p to 1e-12 relative.
+    // scipy.stats.kruskal 1.10 (tests/reference/generate_published_examples.py): p to 1e-12 relative.
     expect_relative(r.number("p"), c["h_p"].get<double>(), 1e-12, "p");
     const TestResult sheet = compare_groups(sheet_groups_of(c), "ranks", Transform::none);
     expect_printed(sheet.number("statistic"), c["h"].get<double>(), 16.91, 0.005, "H, COMPARE.GROUPS");

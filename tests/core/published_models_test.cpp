@@ -1,6 +1,6 @@
 // Published worked examples for relationships, models and counts: RELATE.CORRELATION, FIT.LINEAR,
 // FIT.LOGISTIC, FIT.FACTORIAL, COMPARE.COUNTS and COMPARE.EXPECTED. The data are classic public
-// data sets, stored with their sources by tests/reference/generate_published.py, which also writes
+// data sets, stored with their sources by tests/reference/generate_published_examples.py, which also writes
 // what SciPy/statsmodels give on them. Each printed figure is held to its printed digits (half a
 // unit in the last digit) by our value and by the library's value alike (published.hpp).
 #include <gtest/gtest.h>
@@ -23,7 +23,7 @@ using namespace quadrat::test_support;
 namespace quadrat {
 namespace {
 
-const nlohmann::json& published() { return reference_file("published.json"); }
+const nlohmann::json& published() { return reference_file("published_examples.json"); }
 
 std::vector<double> numbers(const nlohmann::json& j) { return j.get<std::vector<double>>(); }
 

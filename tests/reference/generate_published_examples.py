@@ -2,9 +2,9 @@
 """Public data sets of published worked examples, and what the reference libraries give on them.
 Run with Debian's /usr/bin/python3 (SciPy 1.10, statsmodels 0.13):
 
-    /usr/bin/python3 tests/reference/generate_published.py
+    /usr/bin/python3 tests/reference/generate_published_examples.py
 
-writes tests/reference/published.json beside this script. Each data set below is a classic public
+writes tests/reference/published_examples.json beside this script. Each data set below is a classic public
 data set named with the book or paper that prints it. The published figures themselves are not in
 this file: they stand in tests/core/published_compare_test.cpp and published_models_test.cpp, each
 with its source on the line above the check, and those tests hold both our value and the library
@@ -26,7 +26,7 @@ import statsmodels.api as sm
 from statsmodels.formula.api import ols
 from statsmodels.stats.multitest import multipletests
 
-OUT = {"generator": "tests/reference/generate_published.py",
+OUT = {"generator": "tests/reference/generate_published_examples.py",
        "scipy": scipy.__version__, "statsmodels": statsmodels.__version__}
 
 
@@ -258,7 +258,7 @@ OUT["mendel"] = {"observed": flt(MENDEL), "expected": [9.0, 3.0, 3.0, 1.0],
 
 
 def main():
-    path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "published.json")
+    path = os.path.join(os.path.dirname(os.path.abspath(__file__)), "published_examples.json")
     with open(path, "w") as fh:
         json.dump(OUT, fh, indent=1, sort_keys=True)
         fh.write("\n")
