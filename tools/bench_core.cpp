@@ -11,6 +11,9 @@
 //   The result cache (src/addin/memo.*): a call that computes, a call answered from the cache,
 //   and ten cells asking ten outputs of one test, with and without the cache.
 //
+// Usage: quadrat_bench_core DATA_DIR --split LARGEST_N
+//   Where a COMPARE.GROUPS welch call's time goes (cache key, reading the cells, statistics).
+//
 // Every timed call starts with the cache emptied (forget_all), so it measures the computation;
 // the fastest of several runs is kept, since on a shared machine the slower ones measure the
 // neighbours.
@@ -27,6 +30,9 @@
 
 #include "addin/memo.hpp"
 #include "addin/registry.hpp"
+#include "core/data.hpp"
+#include "core/oneway.hpp"
+#include "core/transform.hpp"
 
 namespace {
 
@@ -237,6 +243,31 @@ int run_cache(std::size_t largest) {
     return 0;
 }
 
+// Where a COMPARE.GROUPS welch call's time goes: the whole call (cache emptied first), a call
+// answered from the cache (building the key from every cell, finding it), reading the cells into
+// groups (read_groups), and the statistics alone (quadrat::compare_groups on the groups).
+int run_split(std::size_t largest) {
+    for (std::size_t n : {std::size_t{10000}, std::size_t{100000}, std::size_t{1000000}}) {
+        if (n > largest) continue;
+        const Case c = make_case("groups-welch", n);
+        const Timing whole = time_calls(c, true);
+        const Timing hit = time_calls(c, false);
+        double reading = 1e300, statistics = 1e300;
+        for (int i = 0; i < 5; ++i) {
+            auto start = Clock::now();
+            const quadrat::Groups g = quadrat::read_groups(c.arguments[0], c.arguments[1]);
+            reading = std::min(reading, ms_since(start));
+            start = Clock::now();
+            const quadrat::TestResult r = quadrat::compare_groups(g, "welch", quadrat::parse_transform(""));
+            statistics = std::min(statistics, ms_since(start));
+            if (r.quantities.empty()) std::abort();
+        }
+        std::printf("split\tCOMPARE.GROUPS welch\t%zu\t%.6f\t%.6f\t%.6f\t%.6f\n", n, whole.fastest_ms, hit.fastest_ms,
+                    reading, statistics);
+    }
+    return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -245,6 +276,7 @@ int main(int argc, char** argv) {
         return 2;
     }
     data_dir = argv[1];
+    if (argc > 3 && std::string(argv[2]) == "--split") return run_split(std::strtoul(argv[3], nullptr, 10));
     if (argc > 3 && std::string(argv[2]) == "--cache") return run_cache(std::strtoul(argv[3], nullptr, 10));
     return run_cases();
 }
