@@ -6,8 +6,9 @@
 // n₁·n₂ pairwise differences (or n(n+1)/2 Walsh averages) can be 10¹⁰ and more, so they are never
 // enumerated for large samples: an order statistic is selected from the implicitly sorted matrix in
 // O(n log n) per step (Johnson & Mizoguchi 1978, SIAM J. Comput. 7, 147–153; Monahan 1984, ACM TOMS
-// 10, 265–270). Every difference or average is rounded to 10 significant digits first
-// (FUNCTIONS.md, "Ties and precision"), which keeps the matrix sorted (rounding is monotone).
+// 10, 265–270). Every difference or average is rounded
+// to 10 significant digits (FUNCTIONS.md, "Ties and precision"); rounding is monotone, so the
+// selection runs on the raw values and only the chosen one is rounded (the same value, far cheaper).
 #pragma once
 
 #include <cstdint>
