@@ -8,12 +8,10 @@
 // implementation offers the service org.quadrat.Functions and not the generic add-in service,
 // so Calc takes names and wizard texts from the .xcu and loads this library on first use.
 
-#include <cfloat>
 #include <cmath>
 #include <functional>
 #include <string>
 
-#include <com/sun/star/chart/XChartDataArray.hpp>
 #include <com/sun/star/lang/XServiceInfo.hpp>
 #include <com/sun/star/lang/XServiceName.hpp>
 #include <com/sun/star/sheet/FormulaResult.hpp>
@@ -110,68 +108,6 @@ Cell cell_from(const css::uno::Any& value) {
 // ranges (whole columns A:A, open-ended B2:B100000) are read down to the end of the used area.
 constexpr sal_Int32 rows_read_whole = 10000;
 
-// One cell as getDataArray() gives it; a void value is an error cell, so ask the cell which error.
-Cell cell_at(const css::uno::Reference<css::table::XCellRange>& part, sal_Int32 row, sal_Int32 column,
-             const css::uno::Any& value) {
-    if (value.hasValue()) return cell_from(value);
-    css::uno::Reference<css::table::XCell> cell = part->getCellByPosition(column, row);
-    const sal_Int32 code = cell.is() ? cell->getError() : 0;
-    return code != 0 ? Cell::make_error(error_name(code)) : Cell{};
-}
-
-css::uno::Sequence<css::uno::Sequence<css::uno::Any>> read_cells(const css::uno::Reference<css::table::XCellRange>& part) {
-    css::uno::Reference<css::sheet::XCellRangeData> data(part, css::uno::UNO_QUERY_THROW);
-    return data->getDataArray();
-}
-
-// Numbers first. getDataArray() wraps every cell in an `any` (a typed value with its own
-// bookkeeping), which on a long column costs several times what the statistics do;
-// XChartDataArray::getData() hands over plain doubles and marks every other cell (empty, text,
-// error, a formula's text) with the chart API's "not a number", DBL_MIN. The header row and each
-// marked cell are then read as getDataArray() gives them, so the Range is the same cell for cell
-// (a cell that really holds DBL_MIN is merely read twice). Used when few cells are marked (a
-// column of numbers; not a column of labels, which falls back at once) and the shape is the
-// range's own (the chart interface leaves hidden rows and columns out). Measured in DEVELOPERS.md,
-// "Benchmarks".
-bool read_numbers_first(const css::uno::Reference<css::table::XCellRange>& part, std::size_t rows, Range& range) {
-    const std::size_t columns = range.columns;
-    if (rows < 64) return false;  // short ranges: one getDataArray() is as quick
-    css::uno::Reference<css::chart::XChartDataArray> chart(part, css::uno::UNO_QUERY);
-    if (!chart.is()) return false;
-    // A label column is text all the way down: find out from its first rows before fetching it all.
-    const css::uno::Sequence<css::uno::Sequence<css::uno::Any>> head =
-        read_cells(part->getCellRangeByPosition(0, 0, static_cast<sal_Int32>(columns) - 1, 1));
-    if (head.getLength() != 2) return false;
-    for (sal_Int32 c = 0; c < static_cast<sal_Int32>(columns); ++c)
-        if (c >= head[1].getLength() || head[1][c].getValueTypeClass() != css::uno::TypeClass_DOUBLE) return false;
-    const css::uno::Sequence<css::uno::Sequence<double>> numbers = chart->getData();
-    if (static_cast<std::size_t>(numbers.getLength()) != rows) return false;
-    const std::size_t marked_at_most = std::max<std::size_t>(64, rows * columns / 100);
-    std::size_t marked = 0;
-    for (sal_Int32 r = 1; r < numbers.getLength(); ++r) {
-        if (static_cast<std::size_t>(numbers[r].getLength()) != columns) return false;
-        for (double x : numbers[r]) marked += x == DBL_MIN ? 1 : 0;
-        if (marked > marked_at_most) return false;
-    }
-    range.rows = rows;
-    range.cells.clear();
-    range.cells.reserve(rows * columns);
-    for (sal_Int32 c = 0; c < static_cast<sal_Int32>(columns); ++c)
-        range.cells.push_back(c < head[0].getLength() ? cell_at(part, 0, c, head[0][c]) : Cell{});
-    for (sal_Int32 r = 1; r < numbers.getLength(); ++r)
-        for (sal_Int32 c = 0; c < static_cast<sal_Int32>(columns); ++c) {
-            const double x = numbers[r][c];
-            if (x != DBL_MIN) {
-                range.cells.push_back(Cell::make_number(x));
-                continue;
-            }
-            const css::uno::Sequence<css::uno::Sequence<css::uno::Any>> one =
-                read_cells(part->getCellRangeByPosition(c, r, c, r));
-            range.cells.push_back(one.getLength() == 1 && one[0].getLength() == 1 ? cell_at(part, r, c, one[0][0]) : Cell{});
-        }
-    return true;
-}
-
 // A reference argument. A long one is read only down to the last row of the sheet's used area,
 // so a whole column (A:A) costs its used rows; the start is never moved, so row positions and
 // cell names stay true. Cells come in one getDataArray() call; an error cell arrives as a
@@ -212,16 +148,28 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
 
     css::uno::Reference<css::table::XCellRange> used_part =
         reference->getCellRangeByPosition(0, 0, last_column - address.StartColumn, last_row - address.StartRow);
-    range.columns = static_cast<std::size_t>(last_column - address.StartColumn + 1);
-    if (read_numbers_first(used_part, static_cast<std::size_t>(last_row - address.StartRow + 1), range)) return range;
-    const css::uno::Sequence<css::uno::Sequence<css::uno::Any>> rows = read_cells(used_part);
+    css::uno::Reference<css::sheet::XCellRangeData> data(used_part, css::uno::UNO_QUERY_THROW);
+    const css::uno::Sequence<css::uno::Sequence<css::uno::Any>> rows = data->getDataArray();
     range.rows = static_cast<std::size_t>(rows.getLength());
-    range.cells.clear();
+    range.columns = static_cast<std::size_t>(last_column - address.StartColumn + 1);
     range.cells.reserve(range.rows * range.columns);
     for (sal_Int32 r = 0; r < rows.getLength(); ++r) {
         const css::uno::Sequence<css::uno::Any>& row = rows[r];
-        for (sal_Int32 c = 0; c < static_cast<sal_Int32>(range.columns); ++c)
-            range.cells.push_back(c < row.getLength() ? cell_at(used_part, r, c, row[c]) : Cell{});
+        for (sal_Int32 c = 0; c < static_cast<sal_Int32>(range.columns); ++c) {
+            if (c >= row.getLength()) {
+                range.cells.emplace_back();
+                continue;
+            }
+            const css::uno::Any& value = row[c];
+            if (value.hasValue()) {
+                range.cells.push_back(cell_from(value));
+                continue;
+            }
+            // A void value is an error cell: ask the cell which error.
+            css::uno::Reference<css::table::XCell> cell = used_part->getCellByPosition(c, r);
+            const sal_Int32 code = cell.is() ? cell->getError() : 0;
+            range.cells.push_back(code != 0 ? Cell::make_error(error_name(code)) : Cell{});
+        }
     }
     return range;
 }
