@@ -242,8 +242,9 @@ def workbook_formulas():
             for o in ("p", "estimate"):
                 f.append('=RELATE.CORRELATION(%s;%s;"%s";"%s")' % (r(x), r(y), m, o))
     xs = "$E$2:$F$%d" % (ROWS + 1)
-    for o in ("r2", "p", "sigma", "intercept"):
+    for o in ("r2", "p", "sigma"):
         f.append('=FIT.LINEAR(%s;%s;"%s")' % (r("D"), xs, o))
+    f.append("=INDEX(FIT.LINEAR(%s;%s);3;2)" % (r("D"), xs))
     for o in ("slope", "intercept", "r2", "p"):
         f.append('=FIT.LINEAR(%s;%s;"%s")' % (r("D"), r("E"), o))
     for row, column in ((2, 2), (3, 2), (3, 5)):

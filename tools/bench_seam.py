@@ -2,9 +2,7 @@
 """Cost at the seam: how long a Quadrat recalculation takes in headless Calc, by how the range
 reaches the add-in, next to Calc's own AVERAGE and T.TEST on the same cells.
 
-    cmake --build build --target quadrat_bench_core      # the core's share, without the office
-    /usr/bin/python3 tools/bench_seam.py --oxt build/quadrat.oxt \
-        --core build/src/addin/uno/quadrat_bench_core [--rows 100000] [--repeat 5]
+    /usr/bin/python3 tools/bench_seam.py --oxt build/quadrat.oxt [--rows 100000] [--repeat 5]
 
 A sheet gets 100,000 filled rows (fixed seed): A a site label (upstream/downstream), B and C
 numbers. For each formula, `copies` identical cells are set, calculateAll() is timed `repeat`
@@ -15,15 +13,13 @@ other runs measure the neighbours. Compared:
   DESCRIBE.GROUPS(B; A)     the same plus groups, an `any` argument: Calc builds any[][] itself
   AVERAGE(B), T.TEST(B;C;2;3)  Calc's own functions on the same cells
 on 10k rows, 100k rows, and whole columns (B:B, A:A) over the 100k filled rows.
-With --core, the same DESCRIBE.GROUPS calls are timed on the core alone (tools/bench_core.cpp,
-no office), so that the seam's share is the difference.
+The core's own share per call is measured by the benchmark command (tools/benchmark.sh).
 Prints a Markdown table. Timings depend on the machine and its load; compare within one run.
 """
 
 import argparse
 import os
 import random
-import subprocess
 import sys
 import time
 
@@ -84,7 +80,6 @@ def main():
     parser.add_argument("--oxt", required=True)
     parser.add_argument("--rows", type=int, default=100000)
     parser.add_argument("--repeat", type=int, default=9)
-    parser.add_argument("--core", help="quadrat_bench_core executable: time the core alone as well")
     args = parser.parse_args()
     n = args.rows
     small = min(10000, n)
@@ -120,10 +115,6 @@ def main():
     for label, (a, b, c) in rows:
         print("| %s | %.2f ms | %.2f ms | %.2f ms |" % (label, a, b, c))
     print("\nempty-sheet calculateAll baseline subtracted: %.2f ms" % (baseline * 1000))
-    if args.core:
-        print("\nthe core alone on the same data (tools/bench_core.cpp, fastest of 9):")
-        out = subprocess.run([args.core, str(small), str(n)], check=True, capture_output=True, text=True).stdout
-        print("".join("    " + line + "\n" for line in out.splitlines()), end="")
     with open("/proc/loadavg") as f:
         print("load average during the run: %s" % " ".join(f.read().split()[:3]))
     if rss_start is not None and rss_end is not None:

@@ -271,6 +271,20 @@ def print_core_table(cases, sizes, core, library):
                                                         "%.1f×" % ratio, flag))
             if worst is None or ratio < worst[0]:
                 worst = (ratio, name, n)
+    # The same ratios at a glance.
+    print("\n| ratio library/core | " + " | ".join("n = %g" % n for n in sizes) + " |")
+    print("| --- |" + " --- |" * len(sizes))
+    for name, quadrat, _, _ in cases:
+        row = []
+        for n in sizes:
+            c, lib = core.get((name, n)), library.get((name, n))
+            if c is None or lib is None:
+                row.append("—")
+            elif lib[0] == "skipped":
+                row.append("skipped")
+            else:
+                row.append("%.2g×" % (lib[0] / c[0]) if c[0] > 0 else "—")
+        print("| %s | %s |" % (quadrat, " | ".join(row)))
     if worst:
         print("\nsmallest ratio: %.2f× (%s, n = %d)" % worst)
     for note in notes:
