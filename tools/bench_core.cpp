@@ -7,6 +7,10 @@
 //   DATA_DIR/cases.tsv lists `case<TAB>n` lines; DATA_DIR/<name>.f64 (float64) and <name>.i32
 //   (int32 label codes) hold the arrays, little-endian, a case at size n using their first n rows.
 //   Prints one line per case: `case<TAB>n<TAB>fastest ms<TAB>runs<TAB>top-left answer`.
+// Usage: quadrat_bench_core DATA_DIR CASE N
+//   One case at one size (tools/benchmark.py starts one process per case and size, so that no
+//   case inherits the heap another left behind: on this VM that alone changed a 10⁶-row call
+//   from 56 ms to 876 ms).
 // Usage: quadrat_bench_core DATA_DIR --cache LARGEST_N
 //   The result cache (src/addin/memo.*): a call that computes, a call answered from the cache,
 //   and ten cells asking ten outputs of one test, with and without the cache.
@@ -192,6 +196,13 @@ Timing time_calls(const Case& c, bool empty_cache_first, int most = 9, double bu
     return t;
 }
 
+void run_case(const std::string& name, std::size_t n) {
+    const Case c = make_case(name, n);
+    const Timing t = time_calls(c, true);
+    std::printf("%s\t%zu\t%.6f\t%d\t%s\n", name.c_str(), n, t.fastest_ms, t.runs, t.answer.c_str());
+    std::fflush(stdout);
+}
+
 int run_cases() {
     std::ifstream list(data_dir + "/cases.tsv");
     std::string line;
@@ -199,11 +210,7 @@ int run_cases() {
         std::istringstream fields(line);
         std::string name;
         std::size_t n = 0;
-        if (!(fields >> name >> n)) continue;
-        const Case c = make_case(name, n);
-        const Timing t = time_calls(c, true);
-        std::printf("%s\t%zu\t%.6f\t%d\t%s\n", name.c_str(), n, t.fastest_ms, t.runs, t.answer.c_str());
-        std::fflush(stdout);
+        if (fields >> name >> n) run_case(name, n);
     }
     return 0;
 }
@@ -276,6 +283,10 @@ int main(int argc, char** argv) {
         return 2;
     }
     data_dir = argv[1];
+    if (argc == 4 && std::string(argv[2]).rfind("--", 0) != 0) {
+        run_case(argv[2], std::strtoul(argv[3], nullptr, 10));
+        return 0;
+    }
     if (argc > 3 && std::string(argv[2]) == "--split") return run_split(std::strtoul(argv[3], nullptr, 10));
     if (argc > 3 && std::string(argv[2]) == "--cache") return run_cache(std::strtoul(argv[3], nullptr, 10));
     return run_cases();

@@ -215,20 +215,17 @@ def run_libraries(cases, sizes, arrays, limit_seconds):
 
 
 def run_core(core, folder, cases, sizes):
-    with open(os.path.join(folder, "cases.tsv"), "w") as f:
-        for name, _, _, _ in cases:
-            for n in sizes:
-                if name == "normal-shapiro-wilk" and n > 5000:
-                    continue
-                f.write("%s\t%d\n" % (name, n))
+    """One process per case and size: no case inherits the heap another left behind."""
     results = {}
-    process = subprocess.Popen([core, folder], stdout=subprocess.PIPE, text=True)
-    for line in process.stdout:
-        name, n, ms, runs, answer = line.rstrip("\n").split("\t")
-        results[(name, int(n))] = (float(ms), int(runs), answer)
-        print("  core    %-26s n=%-8s %10.3f ms (%s runs) %s" % (name, n, float(ms), runs, answer[:40]), file=sys.stderr)
-    if process.wait() != 0:
-        raise RuntimeError("quadrat_bench_core failed")
+    for name, _, _, _ in cases:
+        for n in sizes:
+            if name == "normal-shapiro-wilk" and n > 5000:
+                continue
+            line = subprocess.run([core, folder, name, str(n)], check=True, capture_output=True, text=True).stdout
+            name_, n_, ms, runs, answer = line.rstrip("\n").split("\t")
+            results[(name, n)] = (float(ms), int(runs), answer)
+            print("  core    %-26s n=%-8s %10.3f ms (%s runs) %s" % (name, n, float(ms), runs, answer[:40]),
+                  file=sys.stderr)
     return results
 
 
