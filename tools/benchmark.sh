@@ -17,8 +17,8 @@ for a in "$@"; do
 done
 launcher=()
 if command -v ccache >/dev/null; then launcher=(-DCMAKE_CXX_COMPILER_LAUNCHER=ccache); fi
-cmake -S . -B "$BUILD" -DCMAKE_BUILD_TYPE=Release -DQUADRAT_EXTENSION=$([[ $office == 1 ]] && echo ON || echo OFF) \
-  "${launcher[@]}" >"$BUILD.log"
+# The extension stays as configured (ON for a new folder); --skip-office only builds less.
+cmake -S . -B "$BUILD" -DCMAKE_BUILD_TYPE=Release "${launcher[@]}" >"$BUILD.log"
 targets=(quadrat_bench_core)
 if [[ $office == 1 ]]; then targets+=(quadrat_oxt); fi
 cmake --build "$BUILD" -j2 --target "${targets[@]}" >>"$BUILD.log" 2>&1 || { tail -30 "$BUILD.log"; exit 1; }
