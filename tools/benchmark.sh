@@ -18,10 +18,12 @@ done
 launcher=()
 if command -v ccache >/dev/null; then launcher=(-DCMAKE_CXX_COMPILER_LAUNCHER=ccache); fi
 # The extension stays as configured (ON for a new folder); --skip-office only builds less.
-cmake -S . -B "$BUILD" -DCMAKE_BUILD_TYPE=Release "${launcher[@]}" >"$BUILD.log"
+mkdir -p "$BUILD"
+log="$BUILD/benchmark-build.log"
+cmake -S . -B "$BUILD" -DCMAKE_BUILD_TYPE=Release "${launcher[@]}" >"$log"
 targets=(quadrat_bench_core)
 if [[ $office == 1 ]]; then targets+=(quadrat_oxt); fi
-cmake --build "$BUILD" -j2 --target "${targets[@]}" >>"$BUILD.log" 2>&1 || { tail -30 "$BUILD.log"; exit 1; }
+cmake --build "$BUILD" -j2 --target "${targets[@]}" >>"$log" 2>&1 || { tail -30 "$log"; exit 1; }
 oxt=()
 if [[ $office == 1 ]]; then oxt=(--oxt "$BUILD/quadrat.oxt"); fi
 exec /usr/bin/python3 tools/benchmark.py --core "$BUILD/quadrat_bench_core" "${oxt[@]}" "${args[@]}"
