@@ -293,6 +293,8 @@ def print_cache(core, folder, largest):
     print("\n### 2. The result cache (src/addin/memo.*), core only\n")
     print("| test | n | computing call | answered from the cache | 10 outputs, no cache | 10 outputs, cache |")
     print("| --- | --- | --- | --- | --- | --- |")
+    if not out.strip():
+        print("| (needs a size of 10⁴ or more in --sizes) | | | | | |")
     for line in out.splitlines():
         _, test, n, miss, hit, without, with_ = line.split("\t")
         print("| %s | %s | %s | %s | %s | %s |" % (test, n, fmt_ms(float(miss)), fmt_ms(float(hit)),
