@@ -29,8 +29,28 @@ void append_value(std::string& key, T value) {
 }
 
 // Every cell in a byte string: exact equality of the key is exact equality of the data.
+// The key's exact length first, so that a million-cell key is written once, not regrown.
+std::size_t key_size(std::string_view kind, const Arguments& arguments, const std::vector<std::size_t>& keyed) {
+    std::size_t size = kind.size() + 1;
+    for (std::size_t i : keyed) {
+        size += sizeof i;
+        if (i >= arguments.size()) continue;
+        const Range& r = arguments[i];
+        size += sizeof r.rows + sizeof r.columns + sizeof r.omitted + sizeof r.is_reference + sizeof r.first_row +
+                sizeof r.first_column;
+        for (const Cell& c : r.cells) {
+            size += 1;
+            if (c.kind == CellKind::number) size += sizeof c.number;
+            if (c.kind == CellKind::text || c.kind == CellKind::error) size += sizeof(std::size_t) + c.text.size();
+        }
+    }
+    return size;
+}
+
 std::string make_key(std::string_view kind, const Arguments& arguments, const std::vector<std::size_t>& keyed) {
-    std::string key(kind);
+    std::string key;
+    key.reserve(key_size(kind, arguments, keyed));
+    key += kind;
     key.push_back('\0');
     for (std::size_t i : keyed) {
         append_value(key, i);
