@@ -25,8 +25,13 @@ std::string format_number(double x) {
     if (a == 0) return "0.00";
     if (a >= 0.1) return printf_string("%.2f", x);
     if (a >= 1e-4) {
-        // Three significant digits in fixed notation: 0.0123, 0.000123.
-        const int decimals = 2 - static_cast<int>(std::floor(std::log10(a)));
+        // Three significant digits in fixed notation: 0.0123, 0.000123. The decimals follow the
+        // value as rounded to three digits, so 0.0099996 shows 0.0100 (not 0.01000) and 0.09999,
+        // which rounds to 0.1, takes the two-decimal form 0.10 (not 0.1000).
+        int exponent = static_cast<int>(std::floor(std::log10(a)));
+        if (std::round(a * std::pow(10.0, 2 - exponent)) >= 1000) ++exponent;  // 999.6 rounds to 1000
+        if (exponent >= -1) return printf_string("%.2f", x);
+        const int decimals = 2 - exponent;
         char format[16];
         std::snprintf(format, sizeof format, "%%.%df", decimals);
         return printf_string(format, x);
