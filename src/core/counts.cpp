@@ -374,7 +374,7 @@ TestResult compare_counts(const ContingencyTable& table, const std::string& meth
         statistic = pearson;
         p = chi_square_upper_tail(statistic, df);
     } else if (method == "yates") {
-        r.test = "chi-square test of association with Yates' continuity correction";
+        r.test = "Chi-square test of association with Yates' continuity correction";
         statistic = pearson_statistic(table.counts, m, true);
         p = chi_square_upper_tail(statistic, df);
     } else if (method == "g") {
@@ -385,7 +385,7 @@ TestResult compare_counts(const ContingencyTable& table, const std::string& meth
         r.test = "Fisher's exact test";
         p = fisher_exact_2x2(table.counts[0][0], table.counts[0][1], table.counts[1][0], table.counts[1][1]);
     } else {
-        r.test = "Fisher-Freeman-Halton exact test";
+        r.test = "Fisher–Freeman–Halton exact test";
         p = fisher_exact_rxc(table.counts);
     }
 
@@ -431,7 +431,7 @@ TestResult compare_expected(const std::vector<double>& observed, const std::vect
     const double p = chi_square_upper_tail(statistic, df);
 
     TestResult r;
-    r.test = "chi-square goodness-of-fit test";
+    r.test = "Chi-square goodness-of-fit test";
     r.add("statistic", statistic).add("df", df).add("p", p).add("n", n).add("n dropped", double(n_dropped));
     r.add("smallest expected count", small.smallest).add("cells expected below 5", small.below_five);
     r.report = r.test + ": χ²(" + format_df(df) + ") = " + format_number(statistic) + ", " + format_p(p) +
