@@ -249,8 +249,9 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
     else
         r.add("variance ratio", std::string("undefined: group " + quoted(groups.names[smallest - log_variances.begin()]) +
                                             " has zero variance"));
+    // n after p, as in CHECK.NORMAL's sentence: χ² df (Bartlett, Fligner) do not show it.
     r.report = r.test + ": " + symbol_and_df + " = " + format_number(statistic) + ", " + format_p(p) +
-               "; largest variance over smallest " + (*smallest > -HUGE_VAL ? format_number(ratio) : std::string("undefined"));
+               ", n = " + std::to_string(groups.n_used) + "; largest variance over smallest " + (*smallest > -HUGE_VAL ? format_number(ratio) : std::string("undefined"));
     return r;
 }
 
