@@ -1,0 +1,478 @@
+// The `report` output of every function that has one, checked word for word through the registry
+// and the fence, as a cell shows it. Each expected sentence is written out in full; its numbers
+// come from tests/reference/generate_reports.py (SciPy 1.10 / statsmodels 0.13, or the published
+// formula where no library has the method), which also formats them by the catalogue's rules
+// (FUNCTIONS.md, "Outputs") and stores them as "tokens": every test below checks that each token
+// of its case appears in the written-out sentence, so no number here is copied from the C++ side.
+// The data are invented field scenarios, the same lists as in the generator.
+#include <gtest/gtest.h>
+
+#include <set>
+#include <string>
+#include <variant>
+
+#include "addin/registry.hpp"
+#include "core/cells.hpp"
+#include "core/report.hpp"
+#include "reference.hpp"
+
+namespace quadrat::addin {
+namespace {
+
+using quadrat::test_support::reference_file;
+
+const Range omitted = Range::omitted_argument();
+Range text(const std::string& s) { return Range::scalar(Cell::make_text(s)); }
+Range number(double x) { return Range::scalar(Cell::make_number(x)); }
+
+// A column of numbers under a text header, as a sheet holds it.
+Range numbers_with_header(const std::string& header, const std::vector<double>& xs) {
+    std::vector<double> all{0.0};
+    all.insert(all.end(), xs.begin(), xs.end());
+    Range r = Range::column(all);
+    r.cells[0] = Cell::make_text(header);
+    return r;
+}
+
+// Long format: one value column and one label column, each under a header.
+struct LongTable {
+    Range values, groups;
+};
+LongTable long_table(const std::string& value_header, const std::vector<std::pair<std::string, std::vector<double>>>& groups) {
+    std::vector<double> values;
+    std::vector<std::string> labels{"site"};
+    for (const auto& [label, xs] : groups)
+        for (double x : xs) {
+            values.push_back(x);
+            labels.push_back(label);
+        }
+    return {numbers_with_header(value_header, values), Range::text_column(labels)};
+}
+
+Range block(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
+    Range r;
+    r.rows = rows;
+    r.columns = columns;
+    r.cells = std::move(cells);
+    r.is_reference = true;
+    return r;
+}
+
+Table call(const char* method, const Arguments& a) {
+    const FunctionInfo* f = find_function(method);
+    EXPECT_NE(f, nullptr) << method;
+    if (!f) return {};
+    return call_fenced(*f, a);
+}
+
+std::string text_of(const Table& t) {
+    if (t.size() != 1 || t[0].size() != 1 || !std::holds_alternative<std::string>(t[0][0])) return "(not a single text)";
+    return std::get<std::string>(t[0][0]);
+}
+
+// The sentence the cell shows is `expected`, and `expected` holds every number the generator
+// formatted for this case.
+void expect_sentence(const Table& shown, const std::string& expected, const std::string& family, const std::string& name) {
+    EXPECT_EQ(text_of(shown), expected) << family << " / " << name;
+    const auto& fixture = reference_file("reports.json");
+    ASSERT_TRUE(fixture.contains(family) && fixture[family].contains(name)) << "no reference case " << family << " / " << name;
+    for (const auto& [key, token] : fixture[family][name]["tokens"].items())
+        EXPECT_NE(expected.find(token.get<std::string>()), std::string::npos)
+            << family << " / " << name << ": the reference " << key << " '" << token.get<std::string>()
+            << "' is not in the expected sentence";
+}
+
+// ---------------------------------------------------------------- the data (generate_reports.py)
+// Dissolved oxygen (mg/L) at a riffle and a pool; no ties.
+const std::vector<double> riffle = {9.1, 8.7, 9.4, 8.9, 9.6, 9.0, 8.6, 9.3};
+const std::vector<double> pool = {8.2, 8.85, 7.8, 9.2, 8.5, 8.0, 8.35};
+// Mayfly nymphs per kick sample on gravel and on silt: whole counts, ties, a zero.
+const std::vector<double> gravel = {12, 7, 9, 15, 7, 11, 9, 14, 10, 12};
+const std::vector<double> silt = {4, 6, 0, 7, 3, 5, 6, 2, 9};
+// Nitrate (mg/L) in drains from three land uses.
+const std::vector<double> forest = {0.42, 0.61, 0.38, 0.55, 0.47, 0.71, 0.50};
+const std::vector<double> pasture = {0.65, 0.98, 0.52, 1.10, 0.58, 0.81, 0.91};
+const std::vector<double> cropland = {0.6, 1.9, 0.5, 1.2, 2.2, 0.8, 2.9, 0.45, 1.4};
+// Conductivity (µS/cm) above and below a road culvert at ten points.
+const std::vector<double> above = {212, 198, 240, 225, 187, 260, 231, 205, 219, 248};
+const std::vector<double> below = {232, 204, 251, 229, 215, 263, 258, 203, 238, 270};
+// pH of nine farm ponds, against 7.
+const std::vector<double> ph = {7.42, 6.91, 7.85, 7.23, 7.61, 7.08, 7.36, 7.96, 7.18};
+// Water temperature (°C) at twenty springs, a few warm ones.
+const std::vector<double> springs = {9.8,  10.1, 9.6, 10.4, 9.9, 10.0, 11.2, 9.7, 10.2, 11.9,
+                                     9.5,  10.3, 10.0, 10.8, 9.9, 10.6, 9.8, 12.4, 10.1, 9.7};
+// Stream width (m), canopy cover (%) and bankside willow cover (%) on twelve reaches.
+const std::vector<double> width = {2.1, 3.4, 1.6, 4.8, 2.9, 5.5, 3.9, 1.2, 4.3, 2.5, 6.1, 3.0};
+const std::vector<double> canopy = {78, 52, 85, 61, 58, 66, 47, 72, 40, 70, 55, 35};
+const std::vector<double> willow = {10, 22, 5, 30, 12, 35, 18, 4, 26, 15, 40, 20};
+// Traps set and crayfish counted per reach: whole numbers with ties.
+const std::vector<double> traps = {2, 2, 3, 3, 4, 4, 5, 5, 6, 6, 7, 8};
+const std::vector<double> crayfish = {3, 5, 4, 6, 6, 9, 7, 11, 9, 12, 14, 13};
+
+LongTable oxygen() { return long_table("oxygen", {{"riffle", riffle}, {"pool", pool}}); }
+LongTable oxygen_pool_first() { return long_table("oxygen", {{"pool", pool}, {"riffle", riffle}}); }
+LongTable nitrate() { return long_table("nitrate", {{"forest", forest}, {"pasture", pasture}, {"cropland", cropland}}); }
+
+Table groups_report(const LongTable& t, const char* method, const char* transform) {
+    return call("compareGroups", {t.values, t.groups, text(method), text("report"), text(transform)});
+}
+
+// ---------------------------------------------------------------- COMPARE.GROUPS, two groups
+// Today's wording of oneway.cpp / two_groups.cpp (the lead's files); see the report for proposals.
+
+TEST(ReportSentence, TwoGroupsWelch) {
+    expect_sentence(groups_report(oxygen(), "welch", "none"),
+                    "Welch two-sample t-test: t(10.7) = 3.00, p = 0.012; mean difference 0.66 "
+                    "(riffle − pool; 95% CI 0.17 to 1.15), Hedges' g = 1.50",
+                    "groups", "oxygen welch none");
+    expect_sentence(groups_report(oxygen(), "welch", "log"),
+                    "Welch two-sample t-test: t(10.2) = 3.00, p = 0.013; ratio of geometric means 1.08 "
+                    "(riffle ÷ pool; 95% CI 1.02 to 1.14), Hedges' g = 1.50",
+                    "groups", "oxygen welch log");
+}
+
+TEST(ReportSentence, TwoGroupsPooled) {
+    expect_sentence(groups_report(oxygen(), "pooled", "none"),
+                    "Student's two-sample t-test (pooled variance): t(13) = 3.07, p = 0.009; mean difference 0.66 "
+                    "(riffle − pool; 95% CI 0.20 to 1.13), Hedges' g = 1.50",
+                    "groups", "oxygen pooled none");
+    expect_sentence(groups_report(oxygen(), "pooled", "log"),
+                    "Student's two-sample t-test (pooled variance): t(13) = 3.08, p = 0.009; ratio of geometric means 1.08 "
+                    "(riffle ÷ pool; 95% CI 1.02 to 1.14), Hedges' g = 1.50",
+                    "groups", "oxygen pooled log");
+}
+
+TEST(ReportSentence, TwoGroupsRanks) {
+    expect_sentence(groups_report(oxygen(), "ranks", "none"),
+                    "Wilcoxon–Mann–Whitney rank-sum test (exact p): U = 49, p = 0.014; Hodges–Lehmann shift 0.70 "
+                    "(riffle − pool; 95% CI 0.15 to 1.20), rank-biserial r = 0.75",
+                    "groups", "oxygen ranks none");
+    expect_sentence(groups_report(oxygen(), "ranks", "log"),
+                    "Wilcoxon–Mann–Whitney rank-sum test (exact p): U = 49, p = 0.014; Hodges–Lehmann ratio 1.09 "
+                    "(riffle ÷ pool; 95% CI 1.02 to 1.15), rank-biserial r = 0.75",
+                    "groups", "oxygen ranks log");
+    // Ties: the normal approximation.
+    const LongTable mayfly = long_table("nymphs", {{"gravel", gravel}, {"silt", silt}});
+    expect_sentence(groups_report(mayfly, "ranks", "none"),
+                    "Wilcoxon–Mann–Whitney rank-sum test (normal approximation): U = 86, p < 0.001; Hodges–Lehmann shift 6.00 "
+                    "(gravel − silt; 95% CI 3.00 to 9.00), rank-biserial r = 0.91",
+                    "groups", "mayfly ranks none");
+}
+
+// Negative estimates (first group lower) keep the ASCII minus of report.cpp; ratios go below 1.
+TEST(ReportSentence, TwoGroupsLowerGroupFirst) {
+    expect_sentence(groups_report(oxygen_pool_first(), "welch", "none"),
+                    "Welch two-sample t-test: t(10.7) = -3.00, p = 0.012; mean difference -0.66 "
+                    "(pool − riffle; 95% CI -1.15 to -0.17), Hedges' g = -1.50",
+                    "groups", "oxygen reversed welch none");
+    expect_sentence(groups_report(oxygen_pool_first(), "welch", "log"),
+                    "Welch two-sample t-test: t(10.2) = -3.00, p = 0.013; ratio of geometric means 0.93 "
+                    "(pool ÷ riffle; 95% CI 0.88 to 0.98), Hedges' g = -1.50",
+                    "groups", "oxygen reversed welch log");
+    expect_sentence(groups_report(oxygen_pool_first(), "pooled", "none"),
+                    "Student's two-sample t-test (pooled variance): t(13) = -3.07, p = 0.009; mean difference -0.66 "
+                    "(pool − riffle; 95% CI -1.13 to -0.20), Hedges' g = -1.50",
+                    "groups", "oxygen reversed pooled none");
+    expect_sentence(groups_report(oxygen_pool_first(), "pooled", "log"),
+                    "Student's two-sample t-test (pooled variance): t(13) = -3.08, p = 0.009; ratio of geometric means 0.93 "
+                    "(pool ÷ riffle; 95% CI 0.88 to 0.98), Hedges' g = -1.50",
+                    "groups", "oxygen reversed pooled log");
+    expect_sentence(groups_report(oxygen_pool_first(), "ranks", "none"),
+                    "Wilcoxon–Mann–Whitney rank-sum test (exact p): U = 7, p = 0.014; Hodges–Lehmann shift -0.70 "
+                    "(pool − riffle; 95% CI -1.20 to -0.15), rank-biserial r = -0.75",
+                    "groups", "oxygen reversed ranks none");
+    expect_sentence(groups_report(oxygen_pool_first(), "ranks", "log"),
+                    "Wilcoxon–Mann–Whitney rank-sum test (exact p): U = 7, p = 0.014; Hodges–Lehmann ratio 0.92 "
+                    "(pool ÷ riffle; 95% CI 0.87 to 0.98), rank-biserial r = -0.75",
+                    "groups", "oxygen reversed ranks log");
+}
+
+// log(x+1) keeps the difference on the transformed scale and says so.
+TEST(ReportSentence, TwoGroupsLog1p) {
+    const LongTable mayfly = long_table("nymphs", {{"gravel", gravel}, {"silt", silt}});
+    expect_sentence(groups_report(mayfly, "welch", "log1p"),
+                    "Welch two-sample t-test: t(9.7) = 3.50, p = 0.006; mean difference on the log(x+1) scale 0.85 "
+                    "(gravel − silt; 95% CI 0.31 to 1.40), Hedges' g = 1.61",
+                    "groups", "mayfly welch log1p");
+}
+
+// ---------------------------------------------------------------- COMPARE.GROUPS, three groups
+
+TEST(ReportSentence, ThreeGroups) {
+    expect_sentence(groups_report(nitrate(), "welch", "none"),
+                    "Welch's one-way ANOVA: F(2, 11.4) = 7.30, p = 0.009; largest minus smallest mean 0.81 "
+                    "(cropland − forest), ω² = 0.23",
+                    "groups", "nitrate welch none");
+    expect_sentence(groups_report(nitrate(), "welch", "log"),
+                    "Welch's one-way ANOVA: F(2, 12.8) = 7.61, p = 0.007; ratio of largest to smallest geometric mean 2.14 "
+                    "(cropland ÷ forest), ω² = 0.27",
+                    "groups", "nitrate welch log");
+    expect_sentence(groups_report(nitrate(), "pooled", "none"),
+                    "Classic one-way ANOVA: F(2, 20) = 4.40, p = 0.026; largest minus smallest mean 0.81 "
+                    "(cropland − forest), ω² = 0.23",
+                    "groups", "nitrate pooled none");
+    expect_sentence(groups_report(nitrate(), "pooled", "log"),
+                    "Classic one-way ANOVA: F(2, 20) = 5.16, p = 0.016; ratio of largest to smallest geometric mean 2.14 "
+                    "(cropland ÷ forest), ω² = 0.27",
+                    "groups", "nitrate pooled log");
+    expect_sentence(groups_report(nitrate(), "ranks", "none"),
+                    "Kruskal–Wallis test: H(2) = 7.26, p = 0.026; largest minus smallest median 0.70 "
+                    "(cropland − forest), ε² = 0.33",
+                    "groups", "nitrate ranks none");
+    expect_sentence(groups_report(nitrate(), "ranks", "log"),
+                    "Kruskal–Wallis test: H(2) = 7.26, p = 0.026; ratio of largest to smallest median 2.40 "
+                    "(cropland ÷ forest), ε² = 0.33",
+                    "groups", "nitrate ranks log");
+}
+
+// ---------------------------------------------------------------- COMPARE.PAIRED
+// Today's wording of paired.cpp (the lead's file).
+
+Table paired_report(const Range& first, const Range& second, const char* method, const char* transform) {
+    return call("comparePaired", {first, second, text(method), text("report"), text(transform)});
+}
+
+TEST(ReportSentence, Paired) {
+    const Range first = numbers_with_header("above", above), second = numbers_with_header("below", below);
+    expect_sentence(paired_report(first, second, "t", "none"),
+                    "Paired t-test: t(9) = -4.06, p = 0.003; mean difference -13.80 (above − below; 95% CI -21.49 to -6.11), "
+                    "Cohen's d = -1.28",
+                    "paired", "culvert t none");
+    expect_sentence(paired_report(first, second, "t", "log"),
+                    "Paired t-test: t(9) = -3.93, p = 0.003; ratio of geometric means 0.94 (above ÷ below; 95% CI 0.91 to 0.97), "
+                    "Cohen's d = -1.24",
+                    "paired", "culvert t log");
+    expect_sentence(paired_report(first, second, "signed-rank", "none"),
+                    "Wilcoxon signed-rank test (exact p): T⁺ = 1, p = 0.004; Hodges–Lehmann pseudo-median -13.00 "
+                    "(above − below; 95% CI -23.00 to -4.50), matched-pairs rank-biserial r = -0.96",
+                    "paired", "culvert signed-rank none");
+    expect_sentence(paired_report(first, second, "sign", "none"),
+                    "Sign test (exact binomial): 1 of 10 differences positive, p = 0.021; median difference -15.00 "
+                    "(above − below; 95% CI -27.00 to -3.00), matched-pairs rank-biserial r = -0.96",
+                    "paired", "culvert sign none");
+}
+
+TEST(ReportSentence, OneSample) {
+    const Range ponds = numbers_with_header("pH", ph);
+    expect_sentence(paired_report(ponds, number(7), "t", "none"),
+                    "One-sample t-test: t(8) = 3.43, p = 0.009; mean difference 0.40 (pH − 7; 95% CI 0.13 to 0.67), "
+                    "Cohen's d = 1.14",
+                    "paired", "ph t");
+    expect_sentence(paired_report(ponds, number(7), "signed-rank", "none"),
+                    "Wilcoxon one-sample signed-rank test (exact p): T⁺ = 43, p = 0.012; Hodges–Lehmann pseudo-median 0.39 "
+                    "(pH − 7; 95% CI 0.13 to 0.69), matched-pairs rank-biserial r = 0.91",
+                    "paired", "ph signed-rank");
+    expect_sentence(paired_report(ponds, number(7), "sign", "none"),
+                    "One-sample sign test (exact binomial): 8 of 9 differences positive, p = 0.039; median difference 0.36 "
+                    "(pH − 7; 95% CI 0.0800 to 0.85), matched-pairs rank-biserial r = 0.91",
+                    "paired", "ph sign");
+}
+
+// ---------------------------------------------------------------- CHECK.NORMAL
+
+Table normal_report(const Range& values, const Range& groups, const char* method) {
+    return call("checkNormal", {values, groups, text(method), text("report")});
+}
+
+TEST(ReportSentence, Normality) {
+    const Range temperature = numbers_with_header("temperature", springs);
+    expect_sentence(normal_report(temperature, omitted, "shapiro-wilk"),
+                    "Shapiro–Wilk normality test: W = 0.82, p = 0.002, n = 20", "normality", "springs shapiro-wilk");
+    expect_sentence(normal_report(temperature, omitted, "shapiro-francia"),
+                    "Shapiro–Francia normality test: W′ = 0.81, p = 0.002, n = 20", "normality", "springs shapiro-francia");
+    // p = 0.00132: the last p shown with three decimals above the "p < 0.001" form.
+    expect_sentence(normal_report(temperature, omitted, "anderson-darling"),
+                    "Anderson–Darling normality test: A² = 1.34, p = 0.001, n = 20", "normality", "springs anderson-darling");
+    expect_sentence(normal_report(temperature, omitted, "lilliefors"),
+                    "Lilliefors (Kolmogorov–Smirnov) normality test: D = 0.20, p = 0.034, n = 20", "normality",
+                    "springs lilliefors");
+    expect_sentence(normal_report(temperature, omitted, "dagostino"),
+                    "D'Agostino K² omnibus normality test: K² = 12.34, p = 0.002, n = 20", "normality", "springs dagostino");
+    expect_sentence(normal_report(temperature, omitted, "jarque-bera"),
+                    "Jarque–Bera normality test: JB = 9.98, p = 0.007, n = 20", "normality", "springs jarque-bera");
+    const LongTable t = oxygen();
+    expect_sentence(normal_report(t.values, t.groups, "shapiro-wilk"),
+                    "Shapiro–Wilk normality test of the residuals from 2 group means: W = 0.98, p = 0.941, n = 15",
+                    "normality", "oxygen residuals shapiro-wilk");
+}
+
+// ---------------------------------------------------------------- CHECK.VARIANCE
+
+Table variance_report(const LongTable& t, const char* method) {
+    return call("checkVariance", {t.values, t.groups, text(method), text("report")});
+}
+
+TEST(ReportSentence, Variance) {
+    expect_sentence(variance_report(nitrate(), "brown-forsythe"),
+                    "Brown–Forsythe test of equal variances (deviations from group medians): F(2, 20) = 8.07, p = 0.003, n = 23; "
+                    "largest variance over smallest 56.50",
+                    "variance", "nitrate brown-forsythe");
+    expect_sentence(variance_report(nitrate(), "levene"),
+                    "Levene test of equal variances (deviations from group means): F(2, 20) = 10.09, p < 0.001, n = 23; "
+                    "largest variance over smallest 56.50",
+                    "variance", "nitrate levene");
+    expect_sentence(variance_report(nitrate(), "bartlett"),
+                    "Bartlett test of equal variances: χ²(2) = 22.01, p < 0.001, n = 23; largest variance over smallest 56.50",
+                    "variance", "nitrate bartlett");
+    expect_sentence(variance_report(nitrate(), "fligner"),
+                    "Fligner–Killeen test of equal variances (median-centred): χ²(2) = 10.40, p = 0.006, n = 23; "
+                    "largest variance over smallest 56.50",
+                    "variance", "nitrate fligner");
+    expect_sentence(variance_report(oxygen(), "f-ratio"),
+                    "F-test of equal variances (two-sided; first group over second): F(7, 6) = 0.51, p = 0.394, n = 15; "
+                    "largest variance over smallest 1.98",
+                    "variance", "oxygen f-ratio");
+}
+
+// ---------------------------------------------------------------- COMPARE.COUNTS, COMPARE.EXPECTED
+
+Cell num(double x) { return Cell::make_number(x); }
+Cell txt(const char* s) { return Cell::make_text(s); }
+
+// Mayfly found / not found in kick samples, riffle and pool.
+Range mayfly_block() {
+    return block(3, 3, {txt("mayfly"), txt("riffle"), txt("pool"),  //
+                        txt("found"), num(18), num(7),              //
+                        txt("not found"), num(5), num(14)});
+}
+// Heron nests by tree species in two marshes.
+Range nests_block() {
+    return block(3, 4, {txt("marsh"), txt("alder"), txt("willow"), txt("oak"),  //
+                        txt("north"), num(5), num(2), num(1),                    //
+                        txt("south"), num(1), num(4), num(6)});
+}
+
+Table counts_report(const Range& block, const char* method) {
+    return call("compareCounts", {block, omitted, text(method), text("report")});
+}
+
+TEST(ReportSentence, Counts) {
+    expect_sentence(counts_report(mayfly_block(), "chi-square"),
+                    "Pearson's chi-square test of association: χ²(1) = 9.03, p = 0.003, n = 44; φ = 0.45", "counts",
+                    "mayfly chi-square");
+    expect_sentence(counts_report(mayfly_block(), "yates"),
+                    "Chi-square test of association with Yates' continuity correction: χ²(1) = 7.29, p = 0.007, n = 44; φ = 0.45",
+                    "counts", "mayfly yates");
+    expect_sentence(counts_report(mayfly_block(), "g"),
+                    "G-test of association (likelihood ratio): G(1) = 9.36, p = 0.002, n = 44; φ = 0.45", "counts", "mayfly g");
+    expect_sentence(counts_report(mayfly_block(), "fisher"), "Fisher's exact test: p = 0.005, n = 44; φ = 0.45", "counts",
+                    "mayfly fisher");
+    expect_sentence(counts_report(nests_block(), "chi-square"),
+                    "Pearson's chi-square test of association: χ²(2) = 6.60, p = 0.037, n = 19; Cramér's V = 0.59", "counts",
+                    "nests chi-square");
+    expect_sentence(counts_report(nests_block(), "fisher"),
+                    "Fisher–Freeman–Halton exact test: p = 0.062, n = 19; Cramér's V = 0.59", "counts", "nests fisher");
+}
+
+TEST(ReportSentence, Expected) {
+    // Newts by sex in pitfall traps, against 1:1 (expected omitted).
+    expect_sentence(call("compareExpected", {Range::column({34, 22}), omitted, text("report")}),
+                    "Chi-square goodness-of-fit test: χ²(1) = 2.57, p = 0.109, n = 56", "counts", "newts");
+}
+
+// ---------------------------------------------------------------- RELATE.CORRELATION
+
+Table correlation_report(const std::vector<double>& x, const std::vector<double>& y, const char* method) {
+    return call("relateCorrelation", {Range::column(x), Range::column(y), text(method), text("report")});
+}
+
+TEST(ReportSentence, Correlation) {
+    expect_sentence(correlation_report(width, canopy, "pearson"),
+                    "Pearson correlation: r = -0.46 (95% CI -0.82 to 0.16), t(10) = -1.63, p = 0.133, n = 12", "correlation",
+                    "width pearson");
+    expect_sentence(correlation_report(width, canopy, "spearman"),
+                    "Spearman rank correlation: ρ = -0.56, t(10) = -2.13, p = 0.059, n = 12", "correlation", "width spearman");
+    expect_sentence(correlation_report(width, canopy, "kendall"), "Kendall's tau-b: τ = -0.39, exact p = 0.086, n = 12",
+                    "correlation", "width kendall");
+    expect_sentence(correlation_report(traps, crayfish, "kendall"), "Kendall's tau-b: τ = 0.82, z = 3.55, p < 0.001, n = 12",
+                    "correlation", "crayfish kendall");
+}
+
+// ---------------------------------------------------------------- FIT.LINEAR
+
+TEST(ReportSentence, LinearRegression) {
+    expect_sentence(call("fitLinear", {numbers_with_header("canopy", canopy), numbers_with_header("width", width), text("report")}),
+                    "Linear regression: R² = 0.21, F(1, 10) = 2.67, p = 0.133, n = 12; slope -4.55 (95% CI -10.74 to 1.65)",
+                    "linear", "canopy on width");
+    Range xs = block(13, 2, {txt("width"), txt("willow")});
+    for (std::size_t i = 0; i < width.size(); ++i) {
+        xs.cells.push_back(num(width[i]));
+        xs.cells.push_back(num(willow[i]));
+    }
+    expect_sentence(call("fitLinear", {numbers_with_header("canopy", canopy), xs, text("report")}),
+                    "Linear regression: R² = 0.22, F(2, 9) = 1.27, p = 0.328, n = 12", "linear", "canopy on width and willow");
+    // A perfect line (y = 2 + 0.5x, by construction): the sentence says what is and is not defined.
+    EXPECT_EQ(text_of(call("fitLinear", {Range::column({2.5, 3, 3.5, 4, 4.5}), Range::column({1, 2, 3, 4, 5}), text("report")})),
+              "Linear regression: perfect fit (R² = 1, residual SD 0, n = 5): the coefficients are exact; standard errors "
+              "are 0, and t, F and p are not defined; slope 0.50");
+}
+
+// ---------------------------------------------------------------- ADVISE.TEST
+
+TEST(ReportSentence, Advisor) {
+    const LongTable t = oxygen();
+    expect_sentence(call("adviseTest", {t.values, t.groups, text("report")}),
+                    "Suggested: COMPARE.GROUPS, method 'welch'. Why: continuous response (n = 15), predictor with 2 groups "
+                    "(sizes 7 to 8), so compare two groups; the residuals from the group means look normal (Shapiro–Wilk "
+                    "p = 0.941), so a test of means fits; spreads are similar (Brown–Forsythe p = 0.485), so Welch's t-test, "
+                    "which does not assume equal spreads. A guide, not a verdict: check it against the study design.",
+                    "advisor", "oxygen");
+}
+
+// ---------------------------------------------------------------- coverage and refusals
+
+// Every function whose wizard text offers `report` is exercised above.
+TEST(ReportSentence, EveryFunctionWithReportIsCovered) {
+    const std::set<std::string> covered = {"COMPARE.GROUPS", "COMPARE.PAIRED", "CHECK.NORMAL",       "CHECK.VARIANCE",
+                                           "COMPARE.COUNTS", "COMPARE.EXPECTED", "RELATE.CORRELATION", "FIT.LINEAR",
+                                           "ADVISE.TEST"};
+    for (const FunctionInfo& f : registry()) {
+        for (const ArgumentInfo& a : f.arguments) {
+            if (std::string(a.name) == "output" && std::string(a.description).find("report") != std::string::npos) {
+                EXPECT_TRUE(covered.count(f.display_name)) << f.display_name << " offers report but has no sentence test here";
+            }
+        }
+    }
+}
+
+// A refusal is the refusal text, never a sentence around it.
+TEST(ReportSentence, RefusalHasNoSentence) {
+    const LongTable t = long_table("oxygen", {{"riffle", riffle}, {"pool", {8.2}}});
+    EXPECT_EQ(text_of(groups_report(t, "welch", "none")), "group 'pool' has 1 value; each group needs at least 2");
+    EXPECT_EQ(text_of(call("fitLogistic", {Range::column({0, 1, 0, 1}), Range::column({1, 2, 3, 4}), text("report")})),
+              "unknown output 'report'; valid: coefficients, model");
+}
+
+// ---------------------------------------------------------------- number formats at the edges
+// The catalogue's rules (FUNCTIONS.md, "Outputs"): common practice, no source.
+
+TEST(ReportFormatEdges, PValuesAroundTheThreshold) {
+    EXPECT_EQ(format_p(0.001), "p = 0.001");
+    EXPECT_EQ(format_p(0.0014999), "p = 0.001");
+    EXPECT_EQ(format_p(0.00099999), "p < 0.001");
+    EXPECT_EQ(format_p(0.0005), "p < 0.001");
+    EXPECT_EQ(format_p(0.0), "p < 0.001");
+    EXPECT_EQ(format_p(0.0344999), "p = 0.034");
+    EXPECT_EQ(format_p(0.0345001), "p = 0.035");
+    EXPECT_EQ(format_p(0.9996), "p = 1.000");
+}
+
+TEST(ReportFormatEdges, NumbersAroundTheSignificantDigitsRule) {
+    // Just below 0.1, three significant digits would show 0.100: the two-decimal form instead.
+    EXPECT_EQ(format_number(0.09999), "0.10");
+    EXPECT_EQ(format_number(-0.09999), "-0.10");
+    EXPECT_EQ(format_number(0.0999), "0.0999");
+    // Rounding up across a power of ten keeps three significant digits.
+    EXPECT_EQ(format_number(0.0099996), "0.0100");
+    EXPECT_EQ(format_number(0.00099996), "0.00100");
+    EXPECT_EQ(format_number(0.000099996), "1.00e-04");
+    // Negative numbers carry an ASCII hyphen-minus (report.cpp).
+    EXPECT_EQ(format_number(-13.8), "-13.80");
+    EXPECT_EQ(format_number(-0.0456), "-0.0456");
+    EXPECT_EQ(format_number(-0.0), "0.00");
+    EXPECT_EQ(format_df(10.7053), "10.7");
+    EXPECT_EQ(format_df(13.0), "13");
+}
+
+}  // namespace
+}  // namespace quadrat::addin

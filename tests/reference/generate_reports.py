@@ -1,0 +1,372 @@
+#!/usr/bin/python3
+"""Reference numbers for the `report` sentences (tests/core/report_sentences_test.cpp).
+
+Run from anywhere with Debian's /usr/bin/python3 (SciPy 1.10, statsmodels 0.13):
+    /usr/bin/python3 tests/reference/generate_reports.py
+writes tests/reference/reports.json beside this script.
+
+Every data set is an invented field scenario of our own, small enough to read in the test. For
+each case the script stores the reference numbers and, under "tokens", the same numbers formatted
+here by the catalogue's rules (FUNCTIONS.md, "Outputs"): p with three decimals and "p < 0.001"
+below; statistics and estimates with two decimals, three significant digits below 0.1 (and
+x.xxe-05 below 1e-4); df as whole numbers, fractional (Welch) df with one decimal. The test
+spells each sentence out in full and checks that every token stored here appears in it, so each
+number of a sentence is traced to a library value computed independently of the C++ code.
+
+Sources, per method: scipy.stats (ttest_ind, mannwhitneyu, f_oneway, kruskal, wilcoxon,
+binomtest, levene, bartlett, fligner, normaltest, jarque_bera, chi2_contingency, fisher_exact,
+chisquare, pearsonr, spearmanr, kendalltau), statsmodels (anova_oneway for Welch's ANOVA,
+normal_ad, lilliefors, OLS); and where no library has the method, the published formula in plain
+Python or mpmath, reused from the other generators: Hedges' g, ω², ε², Hodges–Lehmann
+intervals (generate_compare.py), Shapiro–Wilk and Shapiro–Francia by Royston (1995, 1993) in
+mpmath (generate_normality.py), Freeman–Halton in exact fractions (generate_categorical.py).
+
+A number whose rounding would flip under a relative change of 1e-9 is reported on stdout: the
+data are chosen so that none does, so the C++ values (which agree with these to about 1e-12)
+round to the same digits.
+"""
+import json
+import math
+import os
+import sys
+
+import numpy as np
+import scipy
+import scipy.stats as st
+import statsmodels
+import statsmodels.api as sm
+from statsmodels.stats.diagnostic import lilliefors, normal_ad
+
+HERE = os.path.dirname(os.path.abspath(__file__))
+sys.path.insert(0, HERE)
+from generate_compare import k_reference, paired_reference, rank_sum_reference, t_reference  # noqa: E402
+from generate_normality import royston_shapiro_francia, royston_shapiro_wilk  # noqa: E402
+from generate_categorical import freeman_halton_p  # noqa: E402
+
+near_boundary = []
+
+
+# ---------------------------------------------------------------- the catalogue's number rules
+def fmt_p(p):
+    return "p < 0.001" if p < 0.001 else "p = %.3f" % p
+
+
+def fmt_number(x):
+    a = abs(x)
+    if a == 0:
+        return "0.00"
+    if a >= 0.1:
+        return "%.2f" % x
+    if a >= 1e-4:
+        # three significant digits; a value that rounds up to 0.1 takes the two-decimal form
+        rounded = float("%.3g" % x)
+        if abs(rounded) >= 0.1:
+            return "%.2f" % rounded
+        decimals = 2 - math.floor(math.log10(abs(rounded)))
+        return "%.*f" % (decimals, x)
+    return "%.2e" % x
+
+
+def fmt_df(d):
+    return "%d" % d if d == round(d) else "%.1f" % d
+
+
+def checked(formatter, x):
+    """Format x, noting it when a relative change of 1e-9 would change its digits."""
+    s = formatter(x)
+    if x != 0 and (formatter(x * (1 + 1e-9)) != s or formatter(x * (1 - 1e-9)) != s):
+        near_boundary.append((s, x))
+    return s
+
+
+def P(p):
+    return checked(fmt_p, p)
+
+
+def N(x):
+    return checked(fmt_number, x)
+
+
+def DF(d):
+    # whole-number df are exact (n − 1, k − 1, counts): nothing to round
+    return fmt_df(d) if d == round(d) else checked(fmt_df, d)
+
+
+# ---------------------------------------------------------------- data: invented field scenarios
+# Dissolved oxygen (mg/L) at two stream sites, riffle and pool; no ties (exact rank-sum p).
+RIFFLE = [9.1, 8.7, 9.4, 8.9, 9.6, 9.0, 8.6, 9.3]
+POOL = [8.2, 8.85, 7.8, 9.2, 8.5, 8.0, 8.35]
+# Mayfly nymphs per kick sample, gravel and silt beds: counts with ties and a zero.
+GRAVEL = [12, 7, 9, 15, 7, 11, 9, 14, 10, 12]
+SILT = [4, 6, 0, 7, 3, 5, 6, 2, 9]
+# Nitrate (mg/L) in drains from three land uses; odd group sizes so each median is one value.
+FOREST = [0.42, 0.61, 0.38, 0.55, 0.47, 0.71, 0.50]
+PASTURE = [0.65, 0.98, 0.52, 1.10, 0.58, 0.81, 0.91]
+CROPLAND = [0.6, 1.9, 0.5, 1.2, 2.2, 0.8, 2.9, 0.45, 1.4]
+# Conductivity (µS/cm) above and below a road culvert at ten sampling points.
+ABOVE = [212, 198, 240, 225, 187, 260, 231, 205, 219, 248]
+BELOW = [232, 204, 251, 229, 215, 263, 258, 203, 238, 270]
+# pH of nine farm ponds, against neutral 7.
+PH = [7.42, 6.91, 7.85, 7.23, 7.61, 7.08, 7.36, 7.96, 7.18]
+# Water temperature (°C) logged at twenty springs: skewed, a few warm ones.
+SPRINGS = [9.8, 10.1, 9.6, 10.4, 9.9, 10.0, 11.2, 9.7, 10.2, 11.9,
+           9.5, 10.3, 10.0, 10.8, 9.9, 10.6, 9.8, 12.4, 10.1, 9.7]
+# Mayfly presence in kick samples by habitat: rows present/absent, columns riffle/pool.
+MAYFLY = [[18, 7], [5, 14]]
+# Heron nest sites by tree species (alder, willow, oak) in two marshes, small counts.
+NESTS = [[5, 2, 1], [1, 4, 6]]
+# Newts caught by sex in pitfall traps, against 1:1.
+NEWTS = [34, 22]
+# Stream width (m) and canopy cover (%), twelve reaches; no ties.
+WIDTH = [2.1, 3.4, 1.6, 4.8, 2.9, 5.5, 3.9, 1.2, 4.3, 2.5, 6.1, 3.0]
+CANOPY = [78, 52, 85, 61, 58, 66, 47, 72, 40, 70, 55, 35]
+# Survey effort: crayfish counted (whole numbers, ties) against traps set per reach.
+TRAPS = [2, 2, 3, 3, 4, 4, 5, 5, 6, 6, 7, 8]
+CRAYFISH = [3, 5, 4, 6, 6, 9, 7, 11, 9, 12, 14, 13]
+# Bankside willow cover (%) as a second predictor of canopy, for FIT.LINEAR with two predictors.
+WILLOW = [10, 22, 5, 30, 12, 35, 18, 4, 26, 15, 40, 20]
+
+
+def hedges_log_groups(a, b):
+    return t_reference(np.log(a), np.log(b), False), t_reference(np.log(a), np.log(b), True)
+
+
+def exp_interval(ref):
+    out = dict(ref)
+    for key in ("estimate", "ci-low", "ci-high"):
+        if key in out:
+            out[key] = math.exp(out[key])
+    return out
+
+
+def two_group_cases():
+    cases = {}
+    for name, a, b in (("oxygen", RIFFLE, POOL), ("oxygen reversed", POOL, RIFFLE)):
+        for transform in ("none", "log"):
+            fa, fb = (np.log(a), np.log(b)) if transform == "log" else (np.asarray(a), np.asarray(b))
+            welch = t_reference(fa, fb, False)
+            pooled = t_reference(fa, fb, True)
+            ranks = rank_sum_reference(list(fa), list(fb), True)
+            if transform == "log":
+                welch, pooled, ranks = exp_interval(welch), exp_interval(pooled), exp_interval(ranks)
+            for method, ref in (("welch", welch), ("pooled", pooled), ("ranks", ranks)):
+                tokens = {"p": P(ref["p"]), "estimate": N(ref["estimate"]), "ci-low": N(ref["ci-low"]),
+                          "ci-high": N(ref["ci-high"]), "effect": N(ref["effect"])}
+                if method == "ranks":
+                    tokens["statistic"] = DF(ref["statistic"])
+                else:
+                    tokens["statistic"] = N(ref["statistic"])
+                    tokens["df"] = DF(ref["df"])
+                cases[f"{name} {method} {transform}"] = {"reference": ref, "tokens": tokens}
+    # Counts with ties: rank-sum by the normal approximation; Welch on the log(x+1) scale.
+    ranks = rank_sum_reference(GRAVEL, SILT, False)
+    cases["mayfly ranks none"] = {"reference": ranks, "tokens": {
+        "statistic": DF(ranks["statistic"]), "p": P(ranks["p"]), "estimate": N(ranks["estimate"]),
+        "ci-low": N(ranks["ci-low"]), "ci-high": N(ranks["ci-high"]), "effect": N(ranks["effect"])}}
+    welch = t_reference(np.log1p(GRAVEL), np.log1p(SILT), False)
+    cases["mayfly welch log1p"] = {"reference": welch, "tokens": {
+        "statistic": N(welch["statistic"]), "df": DF(welch["df"]), "p": P(welch["p"]),
+        "estimate": N(welch["estimate"]), "ci-low": N(welch["ci-low"]), "ci-high": N(welch["ci-high"]),
+        "effect": N(welch["effect"])}}
+    return cases
+
+
+def three_group_cases():
+    cases = {}
+    names = ["forest", "pasture", "cropland"]
+    raw = [FOREST, PASTURE, CROPLAND]
+    for transform in ("none", "log"):
+        groups = [np.log(g) for g in raw] if transform == "log" else [np.asarray(g, float) for g in raw]
+        ref = k_reference(groups)
+        for method, key in (("welch", "welch"), ("pooled", "classic"), ("ranks", "ranks")):
+            r = dict(ref[key])
+            location = [float(np.median(g)) for g in groups] if method == "ranks" else [g.mean() for g in groups]
+            r["largest"] = names[int(np.argmax(location))]
+            r["smallest"] = names[int(np.argmin(location))]
+            if transform == "log":
+                r["estimate"] = math.exp(r["estimate"])
+            tokens = {"statistic": N(r["statistic"]), "df": DF(r["df"]), "p": P(r["p"]),
+                      "estimate": N(r["estimate"]), "effect": N(r["effect"])}
+            if "df2" in r:
+                tokens["df2"] = DF(r["df2"])
+            cases[f"nitrate {method} {transform}"] = {"reference": r, "tokens": tokens}
+    return cases
+
+
+def paired_tokens(ref, method):
+    tokens = {"p": P(ref["p"]), "estimate": N(ref["estimate"]), "effect": N(ref["effect"])}
+    if "ci-low" in ref:
+        tokens["ci-low"] = N(ref["ci-low"])
+        tokens["ci-high"] = N(ref["ci-high"])
+    if method == "t":
+        tokens["statistic"] = N(ref["statistic"])
+        tokens["df"] = DF(ref["df"])
+    else:
+        tokens["statistic"] = DF(ref["statistic"])
+    if method == "sign":
+        tokens["n"] = DF(ref["n"])  # "8 of 9 differences positive"
+    return tokens
+
+
+def paired_cases():
+    cases = {}
+    d = [a - b for a, b in zip(ABOVE, BELOW)]
+    ref = paired_reference(d, True)
+    for method in ("t", "signed-rank", "sign"):
+        cases[f"culvert {method} none"] = {"reference": ref[method], "tokens": paired_tokens(ref[method], method)}
+    # On the log scale; the mean difference and its limits come back as ratios, Cohen's d stays
+    # as it is (a standardized effect has no unit to return to).
+    log_ref = exp_interval(paired_reference([math.log(a) - math.log(b) for a, b in zip(ABOVE, BELOW)], True)["t"])
+    cases["culvert t log"] = {"reference": log_ref, "tokens": paired_tokens(log_ref, "t")}
+    ref = paired_reference([x - 7 for x in PH], True)
+    for method in ("t", "signed-rank", "sign"):
+        cases[f"ph {method}"] = {"reference": ref[method], "tokens": paired_tokens(ref[method], method)}
+    return cases
+
+
+def normality_cases():
+    cases = {}
+    x = np.asarray(SPRINGS)
+    w, p = royston_shapiro_wilk(x)
+    cases["springs shapiro-wilk"] = {"W": w, "p": p}
+    w, p = royston_shapiro_francia(x)
+    cases["springs shapiro-francia"] = {"W": w, "p": p}
+    a2, p = normal_ad(x)
+    cases["springs anderson-darling"] = {"A2": float(a2), "p": float(p)}
+    dstat, p = lilliefors(x, dist="norm", pvalmethod="approx")
+    cases["springs lilliefors"] = {"D": float(dstat), "p": float(p)}
+    k2 = st.normaltest(x)
+    cases["springs dagostino"] = {"K2": float(k2.statistic), "p": float(k2.pvalue)}
+    jb = st.jarque_bera(x)
+    cases["springs jarque-bera"] = {"JB": float(jb.statistic), "p": float(jb.pvalue)}
+    out = {}
+    for name, ref in cases.items():
+        stat = [v for k, v in ref.items() if k != "p"][0]
+        out[name] = {"reference": ref, "tokens": {"statistic": N(stat), "p": P(ref["p"])}}
+    # Grouped form: residuals from the two site means of the oxygen data.
+    residuals = [v - np.mean(RIFFLE) for v in RIFFLE] + [v - np.mean(POOL) for v in POOL]
+    w, p = royston_shapiro_wilk(residuals)
+    out["oxygen residuals shapiro-wilk"] = {"reference": {"W": w, "p": p}, "tokens": {"statistic": N(w), "p": P(p)}}
+    return out
+
+
+def variance_cases():
+    groups = [np.asarray(g) for g in (FOREST, PASTURE, CROPLAND)]
+    variances = [g.var(ddof=1) for g in groups]
+    ratio = max(variances) / min(variances)
+    k, n = len(groups), sum(len(g) for g in groups)
+    out = {}
+    for method, res, dfs in (("brown-forsythe", st.levene(*groups, center="median"), (k - 1, n - k)),
+                             ("levene", st.levene(*groups, center="mean"), (k - 1, n - k)),
+                             ("bartlett", st.bartlett(*groups), (k - 1,)),
+                             ("fligner", st.fligner(*groups, center="median"), (k - 1,))):
+        ref = {"statistic": float(res.statistic), "p": float(res.pvalue), "df": list(dfs), "variance ratio": ratio}
+        out[f"nitrate {method}"] = {"reference": ref, "tokens": {
+            "statistic": N(ref["statistic"]), "p": P(ref["p"]), "variance ratio": N(ratio)}}
+    a, b = np.asarray(RIFFLE), np.asarray(POOL)
+    f = a.var(ddof=1) / b.var(ddof=1)
+    d1, d2 = len(a) - 1, len(b) - 1
+    p = min(1.0, 2 * min(st.f.cdf(f, d1, d2), st.f.sf(f, d1, d2)))
+    ratio = max(a.var(ddof=1), b.var(ddof=1)) / min(a.var(ddof=1), b.var(ddof=1))
+    out["oxygen f-ratio"] = {"reference": {"statistic": f, "p": p, "df": [d1, d2], "variance ratio": ratio},
+                             "tokens": {"statistic": N(f), "p": P(p), "variance ratio": N(ratio)}}
+    return out
+
+
+def counts_cases():
+    out = {}
+    a = np.asarray(MAYFLY, float)
+    phi = float(st.contingency.association(a.astype(np.int64), method="cramer"))
+    for method, correction, lam in (("chi-square", False, None), ("yates", True, None), ("g", False, "log-likelihood")):
+        stat, p, dof, _ = st.chi2_contingency(a, correction=correction, lambda_=lam)
+        out[f"mayfly {method}"] = {"reference": {"statistic": float(stat), "p": float(p), "df": int(dof), "effect": phi},
+                                   "tokens": {"statistic": N(stat), "p": P(p), "effect": N(phi)}}
+    p = float(st.fisher_exact(a.astype(np.int64), alternative="two-sided")[1])
+    out["mayfly fisher"] = {"reference": {"p": p, "effect": phi}, "tokens": {"p": P(p), "effect": N(phi)}}
+    b = np.asarray(NESTS, float)
+    v = float(st.contingency.association(b.astype(np.int64), method="cramer"))
+    stat, p, dof, _ = st.chi2_contingency(b, correction=False)
+    out["nests chi-square"] = {"reference": {"statistic": float(stat), "p": float(p), "df": int(dof), "effect": v},
+                               "tokens": {"statistic": N(stat), "p": P(p), "effect": N(v)}}
+    p = freeman_halton_p(NESTS)
+    out["nests fisher"] = {"reference": {"p": p, "effect": v}, "tokens": {"p": P(p), "effect": N(v)}}
+    stat, p = st.chisquare(NEWTS)
+    out["newts"] = {"reference": {"statistic": float(stat), "p": float(p)}, "tokens": {"statistic": N(stat), "p": P(p)}}
+    return out
+
+
+def correlation_cases():
+    out = {}
+    n = len(WIDTH)
+    r = st.pearsonr(WIDTH, CANOPY)
+    ci = r.confidence_interval(confidence_level=0.95)
+    t = r.statistic * math.sqrt((n - 2) / (1 - r.statistic ** 2))
+    out["width pearson"] = {"reference": {"r": float(r.statistic), "ci-low": float(ci.low), "ci-high": float(ci.high),
+                                          "t": float(t), "p": float(r.pvalue)},
+                            "tokens": {"estimate": N(r.statistic), "ci-low": N(ci.low), "ci-high": N(ci.high),
+                                       "statistic": N(t), "p": P(r.pvalue)}}
+    rho = st.spearmanr(WIDTH, CANOPY)
+    t = rho.correlation * math.sqrt((n - 2) / (1 - rho.correlation ** 2))
+    out["width spearman"] = {"reference": {"rho": float(rho.correlation), "t": float(t), "p": float(rho.pvalue)},
+                             "tokens": {"estimate": N(rho.correlation), "statistic": N(t), "p": P(rho.pvalue)}}
+    tau = st.kendalltau(WIDTH, CANOPY, method="exact")
+    out["width kendall"] = {"reference": {"tau": float(tau.correlation), "p": float(tau.pvalue)},
+                            "tokens": {"estimate": N(tau.correlation), "p": P(tau.pvalue)}}
+    tau = st.kendalltau(TRAPS, CRAYFISH, method="asymptotic")
+    # scipy gives no z: the two-sided normal p read back into |z|, signed as τ.
+    z = math.copysign(st.norm.isf(tau.pvalue / 2), tau.correlation)
+    out["crayfish kendall"] = {"reference": {"tau": float(tau.correlation), "z": z, "p": float(tau.pvalue)},
+                               "tokens": {"estimate": N(tau.correlation), "statistic": N(z), "p": P(tau.pvalue)}}
+    return out
+
+
+def linear_cases():
+    out = {}
+    X = sm.add_constant(np.asarray(WIDTH, float))
+    res = sm.OLS(np.asarray(CANOPY, float), X).fit(method="qr")
+    low, high = res.conf_int(alpha=0.05)[1]
+    out["canopy on width"] = {
+        "reference": {"r2": float(res.rsquared), "f": float(res.fvalue), "p": float(res.f_pvalue),
+                      "slope": float(res.params[1]), "ci-low": float(low), "ci-high": float(high)},
+        "tokens": {"r2": N(res.rsquared), "statistic": N(res.fvalue), "p": P(res.f_pvalue),
+                   "estimate": N(res.params[1]), "ci-low": N(low), "ci-high": N(high)}}
+    X = sm.add_constant(np.column_stack([WIDTH, WILLOW]).astype(float))
+    res = sm.OLS(np.asarray(CANOPY, float), X).fit(method="qr")
+    out["canopy on width and willow"] = {
+        "reference": {"r2": float(res.rsquared), "f": float(res.fvalue), "p": float(res.f_pvalue)},
+        "tokens": {"r2": N(res.rsquared), "statistic": N(res.fvalue), "p": P(res.f_pvalue)}}
+    return out
+
+
+def advisor_cases():
+    # The advisor's two-group path on the oxygen data: Brown–Forsythe across the sites, then
+    # Shapiro–Wilk on the residuals from the site means (spreads similar, so not rescaled).
+    bf = st.levene(RIFFLE, POOL, center="median")
+    residuals = [v - np.mean(RIFFLE) for v in RIFFLE] + [v - np.mean(POOL) for v in POOL]
+    _, sw_p = royston_shapiro_wilk(residuals)
+    return {"oxygen": {"reference": {"brown-forsythe p": float(bf.pvalue), "shapiro-wilk p": sw_p},
+                       "tokens": {"spread p": P(bf.pvalue), "normality p": P(sw_p)}}}
+
+
+def main():
+    out = {"generator": "tests/reference/generate_reports.py", "scipy": scipy.__version__,
+           "statsmodels": statsmodels.__version__}
+    out["groups"] = {**two_group_cases(), **three_group_cases()}
+    out["paired"] = paired_cases()
+    out["normality"] = normality_cases()
+    out["variance"] = variance_cases()
+    out["counts"] = counts_cases()
+    out["correlation"] = correlation_cases()
+    out["linear"] = linear_cases()
+    out["advisor"] = advisor_cases()
+    path = os.path.join(HERE, "reports.json")
+    with open(path, "w") as fh:
+        json.dump(out, fh, indent=1, sort_keys=True, default=float)
+        fh.write("\n")
+    print("wrote", path)
+    for s, x in near_boundary:
+        print("near a rounding boundary:", s, repr(x))
+
+
+if __name__ == "__main__":
+    main()
