@@ -188,8 +188,9 @@ TestResult kendall_correlation(std::span<const double> x, std::span<const double
     const double tau = concordant_minus_discordant / std::sqrt((total - x_ties.pairs) * (total - y_ties.pairs));
 
     TestResult result;
-    result.test = "Kendall's tau-b";
     const bool exact = x_ties.pairs == 0 && y_ties.pairs == 0 && n < 50;
+    // The name says how p was found, as the rank-sum and signed-rank tests' names do.
+    result.test = exact ? "Kendall's tau-b (exact p)" : "Kendall's tau-b (normal approximation)";
     double p;
     if (exact) {
         // Two-sided: twice the smaller tail of the inversion count (the distribution is symmetric).
@@ -210,9 +211,8 @@ TestResult kendall_correlation(std::span<const double> x, std::span<const double
     }
     result.add("p", p);
     result.add("estimate", tau);
-    result.report = "Kendall's tau-b: τ = " + format_number(tau) +
-                    (exact ? std::string(", exact ") : ", z = " + format_number(result.number("statistic")) + ", ") +
-                    format_p(p);
+    result.report = result.test + ": τ = " + format_number(tau) +
+                    (exact ? std::string(", ") : ", z = " + format_number(result.number("statistic")) + ", ") + format_p(p);
     return result;
 }
 

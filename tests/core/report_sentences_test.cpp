@@ -382,9 +382,9 @@ TEST(ReportSentence, Correlation) {
                     "width pearson");
     expect_sentence(correlation_report(width, canopy, "spearman"),
                     "Spearman rank correlation: ρ = -0.56, t(10) = -2.13, p = 0.059, n = 12", "correlation", "width spearman");
-    expect_sentence(correlation_report(width, canopy, "kendall"), "Kendall's tau-b: τ = -0.39, exact p = 0.086, n = 12",
+    expect_sentence(correlation_report(width, canopy, "kendall"), "Kendall's tau-b (exact p): τ = -0.39, p = 0.086, n = 12",
                     "correlation", "width kendall");
-    expect_sentence(correlation_report(traps, crayfish, "kendall"), "Kendall's tau-b: τ = 0.82, z = 3.55, p < 0.001, n = 12",
+    expect_sentence(correlation_report(traps, crayfish, "kendall"), "Kendall's tau-b (normal approximation): τ = 0.82, z = 3.55, p < 0.001, n = 12",
                     "correlation", "crayfish kendall");
 }
 
@@ -417,6 +417,37 @@ TEST(ReportSentence, Advisor) {
                     "p = 0.941), so a test of means fits; spreads are similar (Brown–Forsythe p = 0.485), so Welch's t-test, "
                     "which does not assume equal spreads. A guide, not a verdict: check it against the study design.",
                     "advisor", "oxygen");
+}
+
+// Two categorical columns: the mayfly samples as rows of labels (18, 7, 5 and 14 of the four
+// kinds). Smallest expected count 19·21/44 = 9.068… (by hand), so "9.07"; none below 5.
+TEST(ReportSentence, AdvisorCounts) {
+    std::vector<std::string> found{"mayfly"}, habitat{"habitat"};
+    auto add = [&](int count, const char* f, const char* h) {
+        for (int i = 0; i < count; ++i) {
+            found.push_back(f);
+            habitat.push_back(h);
+        }
+    };
+    add(18, "found", "riffle");
+    add(7, "found", "pool");
+    add(5, "not found", "riffle");
+    add(14, "not found", "pool");
+    EXPECT_EQ(text_of(call("adviseTest", {Range::text_column(found), Range::text_column(habitat), text("report")})),
+              "Suggested: COMPARE.COUNTS, method 'chi-square'. Why: two categorical variables: 2×2 table of 44 observations, "
+              "so test of association; smallest expected count 9.07, 0 of 4 cells below 5, so Pearson's chi-square "
+              "(Cochran's rule holds). A guide, not a verdict: check it against the study design.");
+}
+
+// Three values a side: no 95% interval exists, and the sentence says so where the limits go.
+// By hand: every first value beats every second, U = 9, exact p = 2/C(6,3) = 0.100, r = 1;
+// the nine differences sorted are 0.3, 0.5, 0.6, 0.8, 0.9, 1.1, 1.2, 1.3, 1.7, median 0.9.
+// Today's wording of oneway.cpp (the lead's file).
+TEST(ReportSentence, TwoGroupsTooFewForAnInterval) {
+    const LongTable t = long_table("oxygen", {{"spring", {5.1, 5.4, 5.9}}, {"ditch", {4.2, 4.6, 4.8}}});
+    EXPECT_EQ(text_of(groups_report(t, "ranks", "none")),
+              "Wilcoxon–Mann–Whitney rank-sum test (exact p): U = 9, p = 0.100; Hodges–Lehmann shift 0.90 "
+              "(spring − ditch; too few values for a 95% interval), rank-biserial r = 1.00");
 }
 
 // ---------------------------------------------------------------- coverage and refusals
