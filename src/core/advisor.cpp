@@ -304,7 +304,7 @@ void advise_counts(const Range& a, const Range& b, Advice& advice) {
     advice.function = "COMPARE.COUNTS";
     advice.transform = "none";
     advice.steps.push_back({"variables",
-                            "two categorical variables: " + std::to_string(rows.size()) + " x " + std::to_string(cols.size()) +
+                            "two categorical variables: " + std::to_string(rows.size()) + "×" + std::to_string(cols.size()) +
                                 " table of " + std::to_string(f.n_used) + " observations",
                             "test of association"});
     const bool chi_ok = below_one == 0 && static_cast<double>(below_five) <= cochran_small_share * static_cast<double>(cells_total);
