@@ -140,9 +140,9 @@ const std::vector<FunctionInfo>& registry() {
          &describe_groups},
         {"ADVISE.TEST", "adviseTest",
          "Suggests which test fits these columns and why. A guide, not a verdict: check the design with a statistician before decisions that matter.",
-         {{"response", "The measured or counted variable.", true},
+         {{"response", "The measured or counted variable: one column of numbers or labels.", true},
           {"predictor", "Optional: group labels, a second measurement, or a second categorical variable.", false},
-          {"output", "report (default, a sentence), method, transform or function (keywords to pass to the suggested function), table (array: each step, what was found, what it decided).", false},
+          {"output", "report (default, a sentence), method or transform (keywords to pass to the suggested function), function (its name), table (array: each step, what was found, what it decided).", false},
           {"design", "auto (default), groups (the predictor holds labels, even numeric zone codes), paired (the same units, row by row), relationship (two measurements).", false}},
          &advise_test},
     };
