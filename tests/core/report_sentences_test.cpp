@@ -121,7 +121,8 @@ Table groups_report(const LongTable& t, const char* method, const char* transfor
 }
 
 // ---------------------------------------------------------------- COMPARE.GROUPS, two groups
-// Today's wording of oneway.cpp / two_groups.cpp (the lead's files); see the report for proposals.
+// Today's wording of oneway.cpp / two_groups.cpp (the lead's files). Proposed to the lead: n after
+// p, as every other sentence has it ("…, p = 0.012, n = 15; mean difference …").
 
 TEST(ReportSentence, TwoGroupsWelch) {
     expect_sentence(groups_report(oxygen(), "welch", "none"),
@@ -229,7 +230,8 @@ TEST(ReportSentence, ThreeGroups) {
 }
 
 // ---------------------------------------------------------------- COMPARE.PAIRED
-// Today's wording of paired.cpp (the lead's file).
+// Today's wording of paired.cpp (the lead's file). Proposed to the lead: n after p for t and
+// signed-rank ("…, p = 0.003, n = 10; mean difference …"); the sign test already shows it.
 
 Table paired_report(const Range& first, const Range& second, const char* method, const char* transform) {
     return call("comparePaired", {first, second, text(method), text("report"), text(transform)});
