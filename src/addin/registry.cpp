@@ -159,6 +159,13 @@ Table call_fenced(const FunctionInfo& function, const Arguments& arguments) noex
     try {
         try {
             if (!function.handler) return single(std::string(function.display_name) + " is not available in this version");
+            // Handlers index their arguments by position; a caller that hands over fewer than the
+            // registry lists (the office never does) gets the rest as omitted, not a read past the end.
+            if (arguments.size() < function.arguments.size()) {
+                Arguments padded = arguments;
+                padded.resize(function.arguments.size(), Range::omitted_argument());
+                return function.handler(padded);
+            }
             return function.handler(arguments);
         } catch (const Refusal& r) {
             return single(std::string(r.what()));

@@ -170,5 +170,21 @@ TEST(CompareCellsRandom, NeverAnInternalErrorNorANonFiniteNumber) {
     }
 }
 
+// A caller that hands over fewer arguments than the registry lists (the office never does; a
+// script or a test might) gets a refusal, never a read past the end (ASan watches this one).
+TEST(FenceGlue, EveryFunctionWithTooFewArgumentsRefuses) {
+    for (const FunctionInfo& f : registry()) {
+        for (std::size_t given = 0; given < f.arguments.size(); ++given) {
+            Arguments a;
+            for (std::size_t i = 0; i < given; ++i) a.push_back(i == 0 ? Range::column({1, 2, 3, 4}) : omitted);
+            const Table t = call_fenced(f, a);
+            ASSERT_FALSE(t.empty()) << f.display_name;
+            ASSERT_FALSE(t[0].empty()) << f.display_name;
+            if (const auto* s = std::get_if<std::string>(&t[0][0]))
+                EXPECT_EQ(s->rfind("internal error", 0), std::string::npos) << f.display_name << ": " << *s;
+        }
+    }
+}
+
 }  // namespace
 }  // namespace quadrat::addin
