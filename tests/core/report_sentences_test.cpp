@@ -121,8 +121,8 @@ Table groups_report(const LongTable& t, const char* method, const char* transfor
 }
 
 // ---------------------------------------------------------------- COMPARE.GROUPS, two groups
-// Today's wording of oneway.cpp / two_groups.cpp (the lead's files). Proposed to the lead: n after
-// p, as every other sentence has it ("…, p = 0.012, n = 15; mean difference …").
+// The form of the catalogue's own illustration ("Welch two-sample t-test: t(37.4) = 3.41, p = 0.002;
+// mean difference 0.12 (…), Hedges' g = 0.82"): no n after p, unlike the CHECK and counts sentences.
 
 TEST(ReportSentence, TwoGroupsWelch) {
     expect_sentence(groups_report(oxygen(), "welch", "none"),
@@ -230,8 +230,8 @@ TEST(ReportSentence, ThreeGroups) {
 }
 
 // ---------------------------------------------------------------- COMPARE.PAIRED
-// Today's wording of paired.cpp (the lead's file). Proposed to the lead: n after p for t and
-// signed-rank ("…, p = 0.003, n = 10; mean difference …"); the sign test already shows it.
+// In the form of the catalogue's illustration, as COMPARE.GROUPS; the sign test's count of positive
+// differences names n itself.
 
 Table paired_report(const Range& first, const Range& second, const char* method, const char* transform) {
     return call("comparePaired", {first, second, text(method), text("report"), text(transform)});
@@ -447,7 +447,6 @@ TEST(ReportSentence, AdvisorCounts) {
 // Three values a side: no 95% interval exists, and the sentence says so where the limits go.
 // By hand: every first value beats every second, U = 9, exact p = 2/C(6,3) = 0.100, r = 1;
 // the nine differences sorted are 0.3, 0.5, 0.6, 0.8, 0.9, 1.1, 1.2, 1.3, 1.7, median 0.9.
-// Today's wording of oneway.cpp (the lead's file).
 TEST(ReportSentence, TwoGroupsTooFewForAnInterval) {
     const LongTable t = long_table("oxygen", {{"spring", {5.1, 5.4, 5.9}}, {"ditch", {4.2, 4.6, 4.8}}});
     EXPECT_EQ(text_of(groups_report(t, "ranks", "none")),
