@@ -1,5 +1,6 @@
 #include "data.hpp"
 
+#include <algorithm>
 #include <cctype>
 #include <cmath>
 #include <cstdio>
@@ -243,6 +244,16 @@ Groups read_groups(const Range& values, const Range& groups) {
         g.values.push_back(std::move(column));
     }
     return g;
+}
+
+void refuse_beyond_model_scale(std::span<const double> values, const std::string& name) {
+    double largest = 0.0;
+    for (double x : values) largest = std::max(largest, std::fabs(x));
+    if (largest == 0.0 || (largest >= 1e-150 && largest <= 1e150)) return;
+    char shown[32];
+    std::snprintf(shown, sizeof shown, "%.3g", largest);
+    throw Refusal(name + " holds numbers too " + (largest > 1.0 ? "large" : "small") + " to fit (largest " + shown +
+                  "); rescale " + name + ", e.g. into other units");
 }
 
 Column read_column(const Range& values, const std::string& argument) {

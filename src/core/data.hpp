@@ -3,6 +3,7 @@
 #pragma once
 
 #include <cstddef>
+#include <span>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -69,6 +70,12 @@ struct Groups {
 // its header, else "values"); two or more columns are wide format (one group per column, named by a
 // text first row, else "column 1", "column 2", …).
 Groups read_groups(const Range& values, const Range& groups);
+
+// Models (least squares, likelihood, two-way ANOVA) sum squares of the data: a variable whose
+// largest magnitude is above 1e150 (its squares overflow) or below 1e-150 without being zero (they
+// underflow) would read as infinite or constant. A refusal that names the variable and says to
+// rescale it, instead of a false "is constant".
+void refuse_beyond_model_scale(std::span<const double> values, const std::string& name);
 
 // One numeric column (the `values` of a one-variable function).
 struct Column {

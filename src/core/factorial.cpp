@@ -121,6 +121,7 @@ FactorialData read_factorial_data(const Range& values, const Range& factor1, con
                                 {&factor2, ColumnKind::label, "factor2"}});
     FactorialData d;
     d.y = f.numbers[0];
+    refuse_beyond_model_scale(d.y, "values");
     d.first = level_indices(f.labels[1], d.first_levels);
     d.second = level_indices(f.labels[2], d.second_levels);
     d.first_name = f.names[1].empty() ? "factor1" : f.names[1];

@@ -119,6 +119,8 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
     for (std::size_t j = 0; j < k; ++j)
         for (double v : predictors[j])
             if (!std::isfinite(v)) throw Refusal(names[j] + " holds a value that is not a finite number");
+    refuse_beyond_model_scale(y, "y");
+    for (std::size_t j = 0; j < k; ++j) refuse_beyond_model_scale(predictors[j], names[j]);
 
     // Centre y and the predictors when there is an intercept: the intercept's column is then
     // orthogonal to the rest and the QR works on the spread, not on the level (Longley's x6 ≈ 1950).

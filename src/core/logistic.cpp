@@ -144,6 +144,7 @@ LogisticFit fit_logistic(const LogisticData& d) {
     MatrixXd Z(n, p);
     Z.col(0).setOnes();
     for (std::size_t j = 0; j < k; ++j) {
+        refuse_beyond_model_scale(d.xs[j], d.names[j]);
         centre[j] = mean(d.xs[j]);
         scale[j] = std::sqrt(sum_of_squares(d.xs[j], centre[j]) / double(n));
         if (!std::isfinite(centre[j]) || !std::isfinite(scale[j]))

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstddef>
+#include <limits>
 #include <span>
 
 #include <boost/math/distributions/chi_squared.hpp>
@@ -99,8 +100,14 @@ AnovaF deviation_anova(const std::vector<std::vector<double>>& groups, bool from
         within.add(sum_of_squares(zi, zbar));
     }
     // Edge case: every value as far from its group's centre as the others in its group (groups of
-    // two, for instance): the F ratio divides by zero.
-    if (!(within.sum() > 0))
+    // two, for instance): the F ratio divides by zero. Each deviation carries a rounding error of a
+    // few ulps of the largest value (|x − centre|), so a within-group sum of squares no larger than
+    // that noise is zero too (two values per group otherwise gave p ≈ 1e-28).
+    double largest = 0.0;
+    for (const auto& g : groups)
+        for (double x : g) largest = std::max(largest, std::fabs(x));
+    const double ulp_noise = 8.0 * std::numeric_limits<double>::epsilon() * largest;
+    if (!(within.sum() > static_cast<double>(all.size()) * ulp_noise * ulp_noise))
         throw Refusal("in every group the values lie equally far from the group " + std::string(from_median ? "median" : "mean") +
                       " (groups of 2?), so " + method + " is undefined; try bartlett or fligner");
     const double k = static_cast<double>(z.size());

@@ -81,5 +81,21 @@ TEST(Correlation, KendallIsLinearithmicOnLargeInput) {
     EXPECT_DOUBLE_EQ(k.number("estimate"), 1.0);
 }
 
+// Pearson's r is scale free: values near the largest double (their sums overflow) and denormals
+// (their squares underflow) give the r and p of the same numbers at ordinary scale (common practice,
+// no source). Tolerance 1e-9 relative: denormals keep about 13 significant digits.
+TEST(Correlation, PearsonAtTheEdgesOfTheDoubleRange) {
+    const std::vector<double> depth = {12.1, 14.3, 11.8, 13.5, 12.9, 15.0, 16.2, 17.8, 15.5, 18.1, 16.9, 17.0};
+    const std::vector<double> distance = {3, 5, 2, 4, 6, 7, 9, 11, 8, 12, 10, 10.5};
+    const TestResult plain = pearson_correlation(depth, distance);
+    for (double factor : {9e306, 1e-311}) {
+        std::vector<double> scaled = depth;
+        for (double& v : scaled) v *= factor;
+        const TestResult r = pearson_correlation(scaled, distance);
+        EXPECT_NEAR(r.number("estimate"), plain.number("estimate"), 1e-9) << factor;
+        EXPECT_NEAR(r.number("p"), plain.number("p"), 1e-9 * plain.number("p")) << factor;
+    }
+}
+
 }  // namespace
 }  // namespace quadrat

@@ -171,5 +171,31 @@ TEST(LinearModel, HundredThousandRowsStayLinearInN) {
     EXPECT_NEAR(m.sigma, 0.1 / std::sqrt(12.0), 1e-3);
 }
 
+// Numbers whose squares overflow or underflow a double are refused with what to do, not called
+// constant (FUNCTIONS.md refusal rule; the catalogue's refusal, exact).
+TEST(LinearModel, RefusesNumbersBeyondTheScaleOfSquares) {
+    const std::vector<double> x = {3, 5, 2, 4, 6, 7};
+    const std::vector<double> y = {12.1, 14.3, 11.8, 13.5, 12.9, 15.0};
+    auto text = [](auto&& call) {
+        try {
+            call();
+        } catch (const Refusal& r) {
+            return std::string(r.what());
+        }
+        return std::string("no refusal");
+    };
+    std::vector<double> huge = y, tiny = x;
+    for (double& v : huge) v *= 1e300;
+    for (double& v : tiny) v *= 1e-311;
+    EXPECT_EQ(text([&] { fit_least_squares(huge, {x}, {"x1"}, true); }),
+              "y holds numbers too large to fit (largest 1.5e+301); rescale y, e.g. into other units");
+    EXPECT_EQ(text([&] { fit_least_squares(y, {tiny}, {"x1"}, true); }),
+              "x1 holds numbers too small to fit (largest 7e-311); rescale x1, e.g. into other units");
+    // 1e100 is still fitted.
+    std::vector<double> large = y;
+    for (double& v : large) v *= 1e100;
+    EXPECT_NO_THROW(fit_least_squares(large, {x}, {"x1"}, true));
+}
+
 }  // namespace
 }  // namespace quadrat

@@ -116,6 +116,11 @@ TEST(CheckVariance, Refusals) {
     const Groups pairs = make_groups({"a", "b"}, {{1, 3}, {5, 9}});
     EXPECT_NE(refusal_text([&] { check_variance(pairs, "brown-forsythe"); }).find("groups of 2"), std::string::npos);
     EXPECT_TRUE(std::isfinite(check_variance(pairs, "f-ratio").number("p")));
+    // The same with decimals, where |x − median| differs in the last bits within a group: still a
+    // refusal, not p ≈ 1e-28 from a within-group sum of squares made of rounding errors.
+    const Groups decimal_pairs = make_groups({"a", "b"}, {{4.1, 4.6}, {5.3, 5.9}});
+    for (const std::string m : {"brown-forsythe", "levene"})
+        EXPECT_NE(refusal_text([&] { check_variance(decimal_pairs, m); }).find("groups of 2"), std::string::npos) << m;
 }
 
 // A 1e300 among ordinary readings: numbers, not NaN (common practice, no source). The outlier's
