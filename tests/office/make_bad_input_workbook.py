@@ -49,6 +49,14 @@ book = Workbook()
 
 # --- data: rows 2..13, one column per kind of input -----------------------------------------------
 ZONE, DEPTH, SECOND, DIST, BOOLS = D["zone"], D["depth"], D["second"], D["distance"], D["logicals"]
+
+
+def decimal(x):
+    """The double nearest the decimal product (at most 4 digits here): a saved .ods writes 15
+    significant digits, so only such a number reads back unchanged after save and reload."""
+    return float("%.4g" % x)
+
+
 COLUMNS = {
     "A": ("zone", ZONE),
     "B": ("depth", DEPTH),
@@ -57,9 +65,9 @@ COLUMNS = {
     "E": ("depth", DEPTH),          # E4 becomes =1/0
     "F": ("depth", DEPTH),          # F9 becomes =NA()
     "G": ("equal", [5.0] * 12),
-    "H": ("scaled up", [x * 9e306 for x in DEPTH]),          # each below 1.8e308 (the largest double), their sum overflows
+    "H": ("scaled up", [decimal(x * 9e306) for x in DEPTH]),          # each below 1.8e308 (the largest double), their sum overflows
     "I": ("plus-minus", D["plus_minus"]),                    # deviations overflow
-    "J": ("tiny", [x * 1e-311 for x in DEPTH]),             # denormal numbers
+    "J": ("tiny", [decimal(x * 1e-311) for x in DEPTH]),             # denormal numbers
     # K: logicals TRUE/FALSE (written below)
     "L": ("as text", ["%g" % x for x in DEPTH]),
     "M": ("zone", ["marsh"] * 12),
@@ -75,8 +83,8 @@ COLUMNS = {
     "Y": ("season", ["wet"] * 12),
     "Z": ("zone", ZONE),           # Z5 becomes =1/0 (an error in a label column)
     "AD": ("habitat", ["a", "b", "c"] * 4),
-    "AE": ("tiny distance", [x * 1e-311 for x in DIST]),
-    "AF": ("huge distance", [x * 9e306 for x in DIST]),
+    "AE": ("tiny distance", [decimal(x * 1e-311) for x in DIST]),
+    "AF": ("huge distance", [decimal(x * 9e306) for x in DIST]),
 }
 data = book.sheet("data")
 for col, (head, values) in COLUMNS.items():
@@ -221,12 +229,19 @@ MISMATCH = "%s and %s must have the same number of rows (12 and 9)"
 NUMBER_FOR_KEYWORD = '%s must be a keyword in quotes, such as "p"'
 
 
+GENERIC_DONE = set()
+
+
 def keyword_cases(name, args, argument, valid):
-    """An unknown keyword, a number, and a single error cell where a keyword belongs. `args`: the
-    arguments before it."""
+    """An unknown keyword where a keyword belongs (every keyword argument); a number and a single
+    error cell there too, for the first keyword argument of each function (they take the same
+    path, src/addin/arguments.cpp, for every keyword argument). `args`: the arguments before it."""
     call = name + "(" + ";".join(args) + ";%s)"
     refusal(name, "unknown keyword", argument, call % '"bogus"', "unknown %s 'bogus'; valid: %s" % (
         "adjust" if argument == "method" and name == "ADJUST.P" else argument, valid))
+    if name in GENERIC_DONE:
+        return
+    GENERIC_DONE.add(name)
     refusal(name, "number for a keyword", argument, call % "7", NUMBER_FOR_KEYWORD % argument)
     case(name, "error cell for a keyword", argument, call % "[$data.E4]", "#DIV/0!", None, ERR_OWN)
 
