@@ -26,7 +26,7 @@ const Cell& single_cell(const Range& argument, const std::string& name) {
 std::string keyword_argument(const Range& argument, const std::string& name) {
     if (is_blank(argument)) return {};
     const Cell& c = single_cell(argument, name);
-    if (c.kind != CellKind::text) throw Refusal(name + " must be a keyword in quotes, such as \"p\"");
+    if (c.kind != CellKind::text) throw Refusal(name + " must be a keyword in quotes (a text, not a number)");
     return c.text;
 }
 

@@ -21,11 +21,24 @@ Table adjust_p(const Arguments& a) {
     const Adjustment method = parse_adjustment(keyword_argument(a[1], "method"));
     std::vector<double> p;
     std::vector<std::size_t> where;  // index into cells of each p-value
+    // The catalogue's header rule: a text in the first row above a column of numbers (no text
+    // below) is that column's header, left blank in the result, so that AA:AA under a title works.
+    auto is_header = [&](std::size_t col) {
+        if (cells.rows < 2 || cells.at(0, col).kind != CellKind::text) return false;
+        bool numbers = false;
+        for (std::size_t row = 1; row < cells.rows; ++row) {
+            const Cell& c = cells.at(row, col);
+            if (c.kind == CellKind::text && !c.text.empty()) return false;
+            numbers = numbers || c.kind == CellKind::number;
+        }
+        return numbers;
+    };
     for (std::size_t row = 0; row < cells.rows; ++row)
         for (std::size_t col = 0; col < cells.columns; ++col) {
             const Cell& c = cells.at(row, col);
             if (c.kind == CellKind::error) throw Refusal(error_cell_message(cells, row, col, "pvalues"));
             if (c.kind == CellKind::empty || (c.kind == CellKind::text && c.text.empty())) continue;
+            if (row == 0 && is_header(col)) continue;
             const std::string place = cells.is_reference ? cell_address(cells, row, col)
                                                          : "pvalues cell " + std::to_string(row * cells.columns + col + 1);
             if (c.kind == CellKind::text)

@@ -186,5 +186,23 @@ TEST(FenceGlue, EveryFunctionWithTooFewArgumentsRefuses) {
     }
 }
 
+// ADJUST.P over a column under a title: the catalogue's header rule leaves the title's cell blank.
+// Holm (1979) by hand on (0.01, 0.04, 0.03): sorted 0.01, 0.03, 0.04 → 3·0.01, 2·0.03, max(1·0.04,
+// 0.06) = 0.03, 0.06, 0.06, in the cells' order 0.03, 0.06, 0.06. Tolerance 1e-15.
+TEST(AdjustGlue, HeaderRowIsSkipped) {
+    Range column = Range::column({0, 0.01, 0.04, 0.03});
+    column.cells[0] = Cell::make_text("p");
+    const Table t = call("adjustP", {column, omitted});
+    ASSERT_EQ(t.size(), 4u);
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(t[0][0]));
+    EXPECT_NEAR(std::get<double>(t[1][0]), 0.03, 1e-15);
+    EXPECT_NEAR(std::get<double>(t[2][0]), 0.06, 1e-15);
+    EXPECT_NEAR(std::get<double>(t[3][0]), 0.06, 1e-15);
+    // A text below the first row is no header: the refusal names it.
+    column.cells[2] = Cell::make_text("n.s.");
+    const Table refused = call("adjustP", {column, omitted});
+    ASSERT_TRUE(std::holds_alternative<std::string>(refused[0][0]));
+}
+
 }  // namespace
 }  // namespace quadrat::addin

@@ -191,9 +191,6 @@ CASES = []
 # listed on the `findings` sheet with the honest answer. Drop an entry when the core is fixed.
 FINDINGS = {
     ("COMPARE.LETTERS", "sum overflows", "values"): "the text 'not a finite number' in the mean cell",
-    ("ADJUST.P", "whole column with a header", "pvalues"): "refusal 'AA1 holds text ('p'); pvalues takes p-values "
-                                                          "from 0 to 1 or blank cells': the catalogue's header rule "
-                                                          "skips a text first row over numbers",
     ("DESCRIBE.GROUPS", "sum overflows", "values"): "the text 'not a finite number' in the mean cell",
 }
 seen_findings = set()
@@ -226,7 +223,7 @@ NO_NUMBERS = ("all cells blank", "all text", "numbers as text")
 E4, F9 = "E4 holds an error (#DIV/0!)", "F9 holds an error (#N/A)"
 Z5 = "Z5 holds an error (#DIV/0!)"
 MISMATCH = "%s and %s must have the same number of rows (12 and 9)"
-NUMBER_FOR_KEYWORD = '%s must be a keyword in quotes, such as "p"'
+NUMBER_FOR_KEYWORD = '%s must be a keyword in quotes (a text, not a number)'
 
 
 GENERIC_DONE = set()

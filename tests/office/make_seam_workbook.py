@@ -184,7 +184,7 @@ rows = [
     ["refusals.D4", "transform 'log' needs values > 0; 1 value is not", None, "a zero under log. " + SRC_TEXT],
     ["refusals.D5", "values and groups must have the same number of rows (14 and 10)", None,
      "ranges of different lengths. " + SRC_TEXT],
-    ["refusals.D6", "transform must be a keyword in quotes, such as \"p\"", None,
+    ["refusals.D6", "transform must be a keyword in quotes (a text, not a number)", None,
      "a number typed where a keyword belongs. " + SRC_TEXT],
     ["refusals.D7", "values and groups must each be one column (found 2 and 1)", None,
      "a two-column block with groups. " + SRC_TEXT],
