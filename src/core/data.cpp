@@ -185,6 +185,7 @@ Groups read_groups(const Range& values, const Range& groups) {
             throw Refusal("values and groups must each be one column (found " + std::to_string(values.columns) +
                           " and " + std::to_string(groups.columns) + ")");
         const Frame f = read_frame({{&values, ColumnKind::numeric, "values"}, {&groups, ColumnKind::label, "groups"}});
+        g.labelled = true;
         g.has_header = f.has_header;
         g.n_used = f.n_used;
         g.n_dropped = f.n_dropped;
@@ -244,6 +245,12 @@ Groups read_groups(const Range& values, const Range& groups) {
         g.values.push_back(std::move(column));
     }
     return g;
+}
+
+std::string no_usable_rows(const Groups& groups) {
+    if (!groups.labelled || groups.n_dropped == 0) return "values holds no numbers";
+    return "no row has both a number in values and a label in groups (" + std::to_string(groups.n_dropped) +
+           (groups.n_dropped == 1 ? " row" : " rows") + " dropped)";
 }
 
 void refuse_beyond_model_scale(std::span<const double> values, const std::string& name) {

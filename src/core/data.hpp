@@ -57,6 +57,7 @@ struct Groups {
     std::size_t n_used = 0;
     std::size_t n_dropped = 0;
     bool wide = false;
+    bool labelled = false;  // long format: a groups range gave the labels
     bool has_header = false;
     // Long format: for each row of the input range, the group of its used value (no_group when the
     // row is the header, dropped or empty) and the value. Lets row-aligned outputs sit beside the data.
@@ -70,6 +71,10 @@ struct Groups {
 // its header, else "values"); two or more columns are wide format (one group per column, named by a
 // text first row, else "column 1", "column 2", …).
 Groups read_groups(const Range& values, const Range& groups);
+
+// The refusal when a read left no usable row: in wide format (or without groups) the values hold
+// no numbers; in long format no row has both a number and a label, whichever of the two is missing.
+std::string no_usable_rows(const Groups& groups);
 
 // Models (least squares, likelihood, two-way ANOVA) sum squares of the data: a variable whose
 // largest magnitude is above 1e150 (its squares overflow) or below 1e-150 without being zero (they

@@ -415,7 +415,7 @@ std::vector<double> residuals_from_group_means(const Groups& groups) {
 
 TestResult check_normal(const Groups& groups, const std::string& method) {
     const std::string m = match_keyword(method, normality_methods(), "method");
-    if (groups.n_used == 0) throw Refusal("values holds no numbers");
+    if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     std::size_t filled = 0;
     for (const auto& g : groups.values) filled += g.empty() ? 0 : 1;
     TestResult r;
@@ -425,6 +425,8 @@ TestResult check_normal(const Groups& groups, const std::string& method) {
         r.add("n dropped", static_cast<double>(groups.n_dropped));
         return r;
     }
+    if (std::all_of(groups.values.begin(), groups.values.end(), [](const auto& g) { return g.size() <= 1; }))
+        throw Refusal("every group has a single value: residuals from group means need groups of 2 or more values");
     const std::vector<double> residuals = residuals_from_group_means(groups);
     // Edge case: constant within every group leaves residuals that are all zero.
     if (std::all_of(residuals.begin(), residuals.end(), [](double x) { return x == 0.0; }))

@@ -260,6 +260,7 @@ std::string interval_words(const TestResult& r, double level) {
 TestResult compare_groups(const Groups& g, const std::string& method_given, Transform transform, double level) {
     const std::string method = match_keyword(method_given, {"welch", "pooled", "ranks"}, "method");
     const std::size_t k = g.group_count();
+    if (g.n_used == 0) throw Refusal(no_usable_rows(g));
     if (k < 2)
         throw Refusal("needs at least 2 groups, found 1 (" + (k ? g.names[0] : std::string("none")) +
                       "); give group labels in groups, or two or more columns of values");

@@ -223,6 +223,7 @@ std::string method_name(PosthocMethod method) {
 PosthocResult compare_posthoc(const Groups& groups, PosthocMethod method, std::optional<Adjustment> adjust,
                               Transform transform, double level) {
     const std::size_t k = groups.group_count();
+    if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     if (k < 2)
         throw Refusal("pairwise comparisons need at least 2 groups, found " + std::to_string(k) +
                       "; give group labels beside the values");

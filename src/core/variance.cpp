@@ -137,7 +137,7 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
                                                : "groups has " + std::to_string(k) + (k == 1 ? " label (" : " labels (") +
                                                      join(groups.names) + ")";
     // Edge cases first, each with its reason.
-    if (groups.n_used == 0) throw Refusal("values holds no numbers");
+    if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     if (k < 2) throw Refusal(labels_are + "; comparing spreads needs 2 or more groups");
     if (m == "f-ratio" && k != 2) throw Refusal(labels_are + "; method 'f-ratio' compares exactly 2");
     for (std::size_t i = 0; i < k; ++i) {

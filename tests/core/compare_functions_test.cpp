@@ -204,5 +204,22 @@ TEST(AdjustGlue, HeaderRowIsSkipped) {
     ASSERT_TRUE(std::holds_alternative<std::string>(refused[0][0]));
 }
 
+// Long format where no row keeps both a number and a label: the refusal says so (not "found 1 group
+// (none)"), for the group tests and the pairs alike. FUNCTIONS.md refusal rule; text exact.
+TEST(FenceGlue, NoUsableRowIsNamedAsSuch) {
+    const Range values = Range::text_column({"n/a", "dry", "-"}), labels = Range::text_column({"a", "b", "a"});
+    const std::string expected = "no row has both a number in values and a label in groups (3 rows dropped)";
+    for (const char* f : {"compareGroups", "checkVariance", "comparePosthoc", "compareLetters", "checkNormal"}) {
+        const Table t = call(f, {values, labels});
+        ASSERT_TRUE(std::holds_alternative<std::string>(t[0][0])) << f;
+        EXPECT_EQ(std::get<std::string>(t[0][0]), expected) << f;
+    }
+    // Without groups the values themselves are what is empty.
+    EXPECT_EQ(std::get<std::string>(call("checkNormal", {values})[0][0]), "values holds no numbers");
+    // One value per group leaves no residual to test.
+    EXPECT_EQ(std::get<std::string>(call("checkNormal", {Range::column({1.5, 2.5}), Range::text_column({"a", "b"})})[0][0]),
+              "every group has a single value: residuals from group means need groups of 2 or more values");
+}
+
 }  // namespace
 }  // namespace quadrat::addin

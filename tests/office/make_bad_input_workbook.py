@@ -43,6 +43,8 @@ ERR504 = ("Calc refuses an error cell inside a range given to an optional (`any`
 ERR_OWN = ("Calc passes a single error cell in an optional (`any`) argument on as its own error and does "
            "not call the add-in")
 SRC_GEN = "tests/reference/generate_bad_input.py (%s); %s"
+# Long format with no row holding both a number and a label (the 12 data rows all dropped).
+NO_USABLE = "no row has both a number in values and a label in groups (12 rows dropped)"
 SCALE = "scale invariance: the values are the depths times a constant, so the depths' answer"
 
 book = Workbook()
@@ -303,7 +305,7 @@ case(N, "one group only", "groups", "%s(%s;%s)" % (N, V, col("M")), REF["shapiro
 refusal(N, "mismatched lengths", "groups", "%s(%s;[$data.A2:.A10])" % (N, V), MISMATCH % ("values", "groups"))
 case(N, "error cell in labels", "groups", "%s(%s;%s)" % (N, V, col("Z")), "Err:504", None, ERR504)
 refusal(N, "one value per group", "groups", "%s([$few.D1:.D2];[$few.C1:.C2])" % N,
-        "the values are equal within every group: no spread to test")
+        "every group has a single value: residuals from group means need groups of 2 or more values")
 keyword_cases(N, [V, ""], "method", "shapiro-wilk, shapiro-francia, anderson-darling, lilliefors, dagostino, jarque-bera")
 keyword_cases(N, [V, "", ""], "output", "p, statistic, df, n, table, report")
 
@@ -320,7 +322,7 @@ SRC_BF = ("Brown-Forsythe with two groups is the pooled t-test on absolute devia
           "medians (F = t^2): Calc's T.TEST, MEDIAN, ABS; 1e-9 relative")
 N = "CHECK.VARIANCE"
 for kind in NO_NUMBERS:
-    refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), "values holds no numbers")
+    refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), NO_USABLE)
 refusal(N, "error cell #DIV/0!", "values", "%s(%s;%s)" % (N, col("E"), G), E4)
 refusal(N, "error cell #N/A", "values", "%s(%s;%s)" % (N, col("F"), G), F9)
 refusal(N, "zero spread", "values", "%s(%s;%s)" % (N, col("G"), G),
@@ -340,7 +342,7 @@ refusal(N, "one group only", "groups", "%s(%s;%s)" % (N, V, col("M")),
 refusal(N, "mismatched lengths", "groups", "%s(%s;[$data.A2:.A10])" % (N, V), MISMATCH % ("values", "groups"))
 case(N, "empty labels", "groups", "%s(%s;%s)" % (N, V, col("N")), brown_forsythe(KEPT_MARSH, KEPT_REED), 1e-9,
      "rows 3 and 10 (blank and empty label) dropped; " + SRC_BF)
-refusal(N, "all labels blank", "groups", "%s(%s;%s)" % (N, V, col("C")), "values holds no numbers")
+refusal(N, "all labels blank", "groups", "%s(%s;%s)" % (N, V, col("C")), NO_USABLE)
 refusal(N, "error cell in labels", "groups", "%s(%s;%s)" % (N, V, col("Z")), Z5)
 case(N, "duplicate names (wide)", "values", "%s([$wide.A1:.B7];)" % N, brown_forsythe(MARSH, REED), 1e-9,
      "wide format, both columns named marsh: two groups all the same; " + SRC_BF)
@@ -417,7 +419,7 @@ keyword_cases(N, [V, P], "output",
 N = "COMPARE.GROUPS"
 NO_GROUPS = "needs at least 2 groups, found 1 (%s); give group labels in groups, or two or more columns of values"
 for kind in NO_NUMBERS:
-    refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), NO_GROUPS % "none")
+    refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), NO_USABLE)
 refusal(N, "error cell #DIV/0!", "values", "%s(%s;%s)" % (N, col("E"), G), E4)
 refusal(N, "error cell #N/A", "values", "%s(%s;%s)" % (N, col("F"), G), F9)
 refusal(N, "zero spread", "values", "%s(%s;%s)" % (N, col("G"), G),
@@ -436,7 +438,7 @@ refusal(N, "one group only", "groups", "%s(%s;%s)" % (N, V, col("M")), NO_GROUPS
 refusal(N, "mismatched lengths", "groups", "%s(%s;[$data.A2:.A10])" % (N, V), MISMATCH % ("values", "groups"))
 case(N, "empty labels", "groups", "%s(%s;%s)" % (N, V, col("N")), ttest(KEPT_MARSH, KEPT_REED, 3), 1e-9,
      "rows 3 and 10 (blank and empty label) dropped; " + SRC_TTEST)
-refusal(N, "all labels blank", "groups", "%s(%s;%s)" % (N, V, col("C")), NO_GROUPS % "none")
+refusal(N, "all labels blank", "groups", "%s(%s;%s)" % (N, V, col("C")), NO_USABLE)
 refusal(N, "error cell in labels", "groups", "%s(%s;%s)" % (N, V, col("Z")), Z5)
 case(N, "duplicate names (wide)", "values", "%s([$wide.A1:.B7];)" % N, ttest(MARSH, REED, 3), 1e-9,
      "wide format with an empty groups argument, both columns named marsh; " + SRC_TTEST)
@@ -498,7 +500,7 @@ def pairwise(N, pick, expect_pick, src_pick):
     """Both tables by nature: a refusal is one text; a number is read with INDEX."""
     none = "pairwise comparisons need at least 2 groups, found %d; give group labels beside the values"
     for kind in NO_NUMBERS:
-        refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), none % 0)
+        refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), NO_USABLE)
     refusal(N, "error cell #DIV/0!", "values", "%s(%s;%s)" % (N, col("E"), G), E4)
     refusal(N, "error cell #N/A", "values", "%s(%s;%s)" % (N, col("F"), G), F9)
     refusal(N, "zero spread", "values", "%s(%s;%s)" % (N, col("G"), G),
@@ -520,7 +522,7 @@ def pairwise(N, pick, expect_pick, src_pick):
     refusal(N, "mismatched lengths", "groups", "%s(%s;[$data.A2:.A10])" % (N, V), MISMATCH % ("values", "groups"))
     case(N, "empty labels", "groups", at % (V, col("N")), expect_pick(KEPT_MARSH, KEPT_REED, "", ""), 1e-6,
          "rows 3 and 10 (blank and empty label) dropped; " + src_pick)
-    refusal(N, "all labels blank", "groups", "%s(%s;%s)" % (N, V, col("C")), none % 0)
+    refusal(N, "all labels blank", "groups", "%s(%s;%s)" % (N, V, col("C")), NO_USABLE)
     refusal(N, "error cell in labels", "groups", "%s(%s;%s)" % (N, V, col("Z")), Z5)
     case(N, "duplicate names (wide)", "values", at % ("[$wide.A1:.B7]", ""), expect_pick(MARSH, REED, "", ""), 1e-6,
          "wide format with an empty groups argument, both columns named marsh; " + src_pick)
