@@ -427,6 +427,11 @@ TestResult compare_expected(const std::vector<double>& observed, const std::vect
         x2.add(d * (d / e));
     }
     const double statistic = x2.sum();
+    // Counts near the largest doubles make a total, a share or a square overflow: refuse rather than
+    // hand an infinite or undefined χ² on.
+    if (!std::isfinite(statistic))
+        throw Refusal("the counts are too large to test (a total or a square is beyond the range of numbers); "
+                      "give counts in their own units");
     const double df = double(k - 1);
     const double p = chi_square_upper_tail(statistic, df);
 

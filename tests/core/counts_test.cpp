@@ -198,6 +198,13 @@ TEST(CompareExpected, AgreesWithSciPy) {
     }
 }
 
+// Counts near the largest double: their total overflows, and the χ² with it. A refusal, never an
+// infinite statistic handed to the χ² distribution (found by the fuzzer; FUNCTIONS.md refusal rule).
+TEST(CompareExpected, OverflowingCountsAreRefused) {
+    EXPECT_THROW(compare_expected({1e308, 1e308, 5}, {}, 0), Refusal);
+    EXPECT_THROW(compare_expected({1e308, 3}, {1e-308, 1e308}, 0), Refusal);
+}
+
 TEST(CompareExpected, ReadsHeaderAndDropsMissingCategories) {
     Range observed = block(5, 1, {txt("voles"), num(58), num(42), Cell{}, Cell{}});
     Range ratio = Range::omitted_argument();
