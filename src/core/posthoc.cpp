@@ -224,6 +224,10 @@ PosthocResult compare_posthoc(const Groups& groups, PosthocMethod method, std::o
                               Transform transform, double level) {
     const std::size_t k = groups.group_count();
     if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
+    // A wide-format column of text only is a group without values: no pair with it has a statistic.
+    for (std::size_t i = 0; i < k; ++i)
+        if (groups.values[i].empty())
+            throw Refusal("group " + quoted(groups.names[i]) + " has no values; every group needs at least 1");
     if (k < 2)
         throw Refusal("pairwise comparisons need at least 2 groups, found " + std::to_string(k) +
                       "; give group labels beside the values");

@@ -214,6 +214,13 @@ TEST(FenceGlue, NoUsableRowIsNamedAsSuch) {
         ASSERT_TRUE(std::holds_alternative<std::string>(t[0][0])) << f;
         EXPECT_EQ(std::get<std::string>(t[0][0]), expected) << f;
     }
+    // Wide format with a column of text only (found by the fuzzer: Dunn's z was undefined).
+    Range wide = Range::column({10, -0.43});
+    wide.columns = 2;
+    wide.rows = 2;
+    wide.cells = {Cell::make_number(10), Cell::make_text("n/a"), Cell::make_number(-0.43), Cell::make_text("dry")};
+    EXPECT_EQ(std::get<std::string>(call("comparePosthoc", {wide, omitted, text("dunn")})[0][0]),
+              "group 'column 2' has no values; every group needs at least 1");
     // Without groups the values themselves are what is empty.
     EXPECT_EQ(std::get<std::string>(call("checkNormal", {values})[0][0]), "values holds no numbers");
     // One value per group leaves no residual to test.
