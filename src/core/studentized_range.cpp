@@ -369,6 +369,9 @@ StudentizedRangeTails integrate_over_spread(double q, const TabulatedRange& rang
         for (std::size_t i = 0; i < 12; ++i) {
             const double u = 0.5 * (a + b) + 0.5 * (b - a) * r.node[i];
             const double s2 = std::exp(2.0 * u);
+            // Far down (df = 1 marches to u ≈ −690) S² underflows: the density there, of order
+            // S^df, is below 1e-150, and Boost's γ' would overflow at 0.
+            if (s2 < std::numeric_limits<double>::min()) continue;
             const double density =
                 0.5 * (b - a) * r.weight[i] * df * s2 * boost::math::gamma_p_derivative(half_df, half_df * s2, Fast());
             if (density == 0.0) continue;
