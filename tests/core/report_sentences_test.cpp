@@ -478,36 +478,5 @@ TEST(ReportSentence, RefusalHasNoSentence) {
               "unknown output 'report'; valid: coefficients, model");
 }
 
-// ---------------------------------------------------------------- number formats at the edges
-// The catalogue's rules (FUNCTIONS.md, "Outputs"): common practice, no source.
-
-TEST(ReportFormatEdges, PValuesAroundTheThreshold) {
-    EXPECT_EQ(format_p(0.001), "p = 0.001");
-    EXPECT_EQ(format_p(0.0014999), "p = 0.001");
-    EXPECT_EQ(format_p(0.00099999), "p < 0.001");
-    EXPECT_EQ(format_p(0.0005), "p < 0.001");
-    EXPECT_EQ(format_p(0.0), "p < 0.001");
-    EXPECT_EQ(format_p(0.0344999), "p = 0.034");
-    EXPECT_EQ(format_p(0.0345001), "p = 0.035");
-    EXPECT_EQ(format_p(0.9996), "p = 1.000");
-}
-
-TEST(ReportFormatEdges, NumbersAroundTheSignificantDigitsRule) {
-    // Just below 0.1, three significant digits would show 0.100: the two-decimal form instead.
-    EXPECT_EQ(format_number(0.09999), "0.10");
-    EXPECT_EQ(format_number(-0.09999), "-0.10");
-    EXPECT_EQ(format_number(0.0999), "0.0999");
-    // Rounding up across a power of ten keeps three significant digits.
-    EXPECT_EQ(format_number(0.0099996), "0.0100");
-    EXPECT_EQ(format_number(0.00099996), "0.00100");
-    EXPECT_EQ(format_number(0.000099996), "1.00e-04");
-    // Negative numbers carry an ASCII hyphen-minus (report.cpp).
-    EXPECT_EQ(format_number(-13.8), "-13.80");
-    EXPECT_EQ(format_number(-0.0456), "-0.0456");
-    EXPECT_EQ(format_number(-0.0), "0.00");
-    EXPECT_EQ(format_df(10.7053), "10.7");
-    EXPECT_EQ(format_df(13.0), "13");
-}
-
 }  // namespace
 }  // namespace quadrat::addin
