@@ -22,14 +22,31 @@ double sum(std::span<const double> xs) {
     return acc.sum();
 }
 
+namespace {
+
+// The mean of the values times 2^−e (exact for e ≥ 0 unless a value falls below the normal range,
+// which cannot matter next to values whose sum overflows), refined by one pass: the mean of the
+// residuals from the first estimate.
+double mean_scaled_down(std::span<const double> xs, int e) {
+    const double n = static_cast<double>(xs.size());
+    Accumulator total;
+    for (double x : xs) total.add(e == 0 ? x : std::ldexp(x, -e));
+    const double first = total.sum() / n;
+    Accumulator residual;
+    for (double x : xs) residual.add((e == 0 ? x : std::ldexp(x, -e)) - first);
+    return first + residual.sum() / n;
+}
+
+}  // namespace
+
 double mean(std::span<const double> xs) {
     if (xs.empty()) return std::numeric_limits<double>::quiet_NaN();
-    const double n = static_cast<double>(xs.size());
-    const double first = sum(xs) / n;
-    // One refinement pass: the mean of the residuals from the first estimate.
-    Accumulator residual;
-    for (double x : xs) residual.add(x - first);
-    return first + residual.sum() / n;
+    const double m = mean_scaled_down(xs, 0);
+    if (std::isfinite(m) || !std::all_of(xs.begin(), xs.end(), [](double x) { return std::isfinite(x); })) return m;
+    // Finite values whose sum overflows (a column of readings near 1e308): the same mean of the
+    // values scaled down by a power of two at least n, so that no partial sum can overflow.
+    const int e = std::ilogb(static_cast<double>(xs.size())) + 2;
+    return std::ldexp(mean_scaled_down(xs, e), e);
 }
 
 double sum_of_squares(std::span<const double> xs, double centre) {

@@ -140,5 +140,15 @@ TEST(StrdUnivariate, MeanAndSdWithinThreeTenthsOfCeiling) {
     }
 }
 
+// Not StRD, worked by hand: three readings near the largest double (1.8e308) whose sum overflows
+// have the mean (1.5 + 1.6 + 1.7)/3 · 1e308 = 1.6e308; the scaled path must give it to a few
+// roundings (1e-15 relative), and a true infinity among the values still gives no finite mean.
+TEST(SummaryMean, SurvivesASumBeyondTheLargestDouble) {
+    const std::vector<double> huge = {1.5e308, 1.6e308, 1.7e308};
+    EXPECT_NEAR(mean(huge) / 1.6e308, 1.0, 1e-15);
+    EXPECT_NEAR(mean(std::vector<double>{-1.7e308, -1.7e308, 1.0}) / (-1.7e308 / 3 * 2), 1.0, 1e-15);
+    EXPECT_FALSE(std::isfinite(mean(std::vector<double>{1.7e308, HUGE_VAL})));
+}
+
 }  // namespace
 }  // namespace quadrat

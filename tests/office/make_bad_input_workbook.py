@@ -191,10 +191,7 @@ CASES = []
 
 # Wrong answers today (function, kind, argument) → what the cell shows now. Kept out of `checks`;
 # listed on the `findings` sheet with the honest answer. Drop an entry when the core is fixed.
-FINDINGS = {
-    ("COMPARE.LETTERS", "sum overflows", "values"): "the text 'not a finite number' in the mean cell",
-    ("DESCRIBE.GROUPS", "sum overflows", "values"): "the text 'not a finite number' in the mean cell",
-}
+FINDINGS = {}
 seen_findings = set()
 
 
