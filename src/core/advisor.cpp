@@ -137,10 +137,13 @@ std::string group_sizes(const Groups& g) {
 std::string quoted(const std::string& s) { return "'" + s + "'"; }
 
 // Continuous response across two or more groups.
-void advise_groups(const Range& values, const Range& labels, Advice& advice) {
-    Groups g = read_groups(values, labels);
+void advise_groups(const Range& values, const Range& labels, Advice& advice, const std::string& values_name,
+                   const std::string& labels_name) {
+    Groups g = read_groups(values, labels, values_name, labels_name);
     const std::size_t k = g.group_count();
-    if (k < 2) throw Refusal("the predictor has " + std::to_string(k) + " group; a comparison needs 2 or more");
+    if (k < 2)
+        throw Refusal("the " + labels_name + " has " + std::to_string(k) + (k == 1 ? " group" : " groups") +
+                      "; a comparison needs 2 or more");
     for (std::size_t i = 0; i < k; ++i)
         if (g.values[i].size() < 2)
             throw Refusal("group " + g.names[i] + " has " + std::to_string(g.values[i].size()) +
@@ -406,6 +409,11 @@ Advice advise_test(const Range& response, const Range& predictor, Design design)
         advise_paired(response, nullptr, advice);
     } else {
         const Profile x = profile_of(predictor);
+        // A response that never varies cannot be explained by a predictor (against a target value,
+        // above, a constant column can still be tested by signs).
+        if (y.distinct == 1)
+            throw Refusal(y.values == 1 ? "response holds 1 value; a test needs more rows"
+                                        : "all " + std::to_string(y.values) + " response values are the same: nothing varies to test");
         if (design == Design::paired) {
             if (!y.numeric || !x.numeric) throw Refusal("design 'paired' needs two columns of numbers");
             advise_paired(response, &predictor, advice);
@@ -413,14 +421,14 @@ Advice advise_test(const Range& response, const Range& predictor, Design design)
             if (!y.numeric || !x.numeric) throw Refusal("design 'relationship' needs two columns of numbers");
             advise_relationship(response, predictor, advice);
         } else if (y.numeric && y.distinct > 2 && (design == Design::groups || !x.numeric)) {
-            advise_groups(response, predictor, advice);
+            advise_groups(response, predictor, advice, "response", "predictor");
         } else if (y.numeric && y.distinct > 2 && x.numeric) {
             advise_relationship(response, predictor, advice);
         } else if ((y.zero_one || (!y.numeric && y.distinct == 2)) && x.numeric && x.distinct > 2 && design != Design::groups) {
             advise_logistic(response, predictor, y, advice);
         } else if (!y.numeric && x.numeric && x.distinct > 2 && design != Design::groups) {
             // Labels explained by a measurement: compare the measurement across the categories.
-            advise_groups(predictor, response, advice);
+            advise_groups(predictor, response, advice, "predictor", "response");
             advice.steps.insert(advice.steps.begin(),
                                 {"roles", "the response holds labels and the predictor numbers",
                                  "compare the predictor across the response's categories: COMPARE.GROUPS(predictor; response)"});

@@ -176,15 +176,15 @@ Frame read_frame(const std::vector<FrameBlock>& blocks) {
     return f;
 }
 
-Groups read_groups(const Range& values, const Range& groups) {
+Groups read_groups(const Range& values, const Range& groups, const std::string& values_name, const std::string& groups_name) {
     Groups g;
-    if (values.empty()) throw Refusal("values is empty");
+    if (values.empty()) throw Refusal(values_name + " is empty");
 
     if (!groups.empty()) {
         if (values.columns != 1 || groups.columns != 1)
-            throw Refusal("values and groups must each be one column (found " + std::to_string(values.columns) +
+            throw Refusal(values_name + " and " + groups_name + " must each be one column (found " + std::to_string(values.columns) +
                           " and " + std::to_string(groups.columns) + ")");
-        const Frame f = read_frame({{&values, ColumnKind::numeric, "values"}, {&groups, ColumnKind::label, "groups"}});
+        const Frame f = read_frame({{&values, ColumnKind::numeric, values_name}, {&groups, ColumnKind::label, groups_name}});
         g.labelled = true;
         g.has_header = f.has_header;
         g.n_used = f.n_used;

@@ -69,8 +69,10 @@ struct Groups {
 
 // `values` with `groups` (long format), or `values` alone: one column is a single group (named by
 // its header, else "values"); two or more columns are wide format (one group per column, named by a
-// text first row, else "column 1", "column 2", …).
-Groups read_groups(const Range& values, const Range& groups);
+// text first row, else "column 1", "column 2", …). Refusals name the arguments `values_name` and
+// `groups_name` (ADVISE.TEST calls them response and predictor).
+Groups read_groups(const Range& values, const Range& groups, const std::string& values_name = "values",
+                   const std::string& groups_name = "groups");
 
 // The refusal when a read left no usable row: in wide format (or without groups) the values hold
 // no numbers; in long format no row has both a number and a label, whichever of the two is missing.

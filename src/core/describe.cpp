@@ -26,7 +26,7 @@ std::string mean_header(Transform t) {
 }  // namespace
 
 Table describe_groups(const Groups& groups, Transform transform, double level) {
-    if (groups.n_used == 0) throw Refusal("values holds no numbers");
+    if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     Table table;
     table.push_back({std::string("group"), std::string("n"), mean_header(transform), std::string("SD"),
                      std::string("SE"), std::string("ci-low"), std::string("ci-high"), std::string("median"),

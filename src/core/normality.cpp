@@ -462,7 +462,7 @@ std::vector<QQPoint> normal_qq(std::span<const double> values) {
 Table check_qq(const Groups& groups, std::size_t rows) {
     if (groups.wide)
         throw Refusal("CHECK.QQ gives one row per row of values: put the groups in one column with a groups column beside it");
-    if (groups.n_used == 0) throw Refusal("values holds no numbers");
+    if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     std::vector<double> values;
     if (groups.group_count() > 1)
         values = residuals_from_group_means(groups);

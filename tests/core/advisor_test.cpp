@@ -230,6 +230,25 @@ TEST(Advisor, RefusesWhatItCannotAdvise) {
     EXPECT_THROW(advise_test(t.values, t.labels, Design::automatic), Refusal);
 }
 
+// The refusals name ADVISE.TEST's own arguments (common practice, no source: the wording is ours).
+TEST(Advisor, RefusalsNameResponseAndPredictor) {
+    const auto refusal_of = [](const Range& response, const Range& predictor) {
+        try {
+            advise_test(response, predictor, Design::automatic);
+        } catch (const Refusal& r) {
+            return std::string(r.what());
+        }
+        return std::string("no refusal");
+    };
+    const Range labels = Range::text_column({"a", "a", "b", "b"});
+    EXPECT_EQ(refusal_of(Range::column({5, 5, 5, 5}), labels), "all 4 response values are the same: nothing varies to test");
+    EXPECT_EQ(refusal_of(Range::column({5}), Range::text_column({"a"})), "response holds 1 value; a test needs more rows");
+    EXPECT_EQ(refusal_of(Range::column({1, 2, 3, 4}), Range::text_column({"a", "a", "b"})),
+              "response and predictor must have the same number of rows (4 and 3)");
+    EXPECT_EQ(refusal_of(Range::column({1, 2, 3}), Range::text_column({"a", "a", "a"})),
+              "the predictor has 1 group; a comparison needs 2 or more");
+}
+
 TEST(AdvisorCell, OutputsAndTableThroughTheRegistry) {
     const auto* f = addin::find_function("adviseTest");
     ASSERT_NE(f, nullptr);

@@ -86,6 +86,18 @@ TEST(DescribeGroups, LogOfZeroIsARefusalCountingTheCells) {
     }
 }
 
+// Labels beside text only: the refusal names the dropped rows, as the group tests do (common
+// practice, no source: the wording is ours).
+TEST(DescribeGroups, LabelsWithoutNumbersSayWhichRowsWereDropped) {
+    const Groups g = read_groups(Range::text_column({"n/a", "-", "dry"}), Range::text_column({"reed", "reed", "sedge"}));
+    try {
+        describe_groups(g, Transform::none, 0.95);
+        FAIL();
+    } catch (const Refusal& r) {
+        EXPECT_STREQ(r.what(), "no row has both a number in values and a label in groups (3 rows dropped)");
+    }
+}
+
 TEST(DescribeGroupsCell, ReadsLongFormatThroughTheRegistry) {
     const auto* f = addin::find_function("describeGroups");
     ASSERT_NE(f, nullptr);

@@ -827,7 +827,7 @@ N = "DESCRIBE.GROUPS"
 MEAN = "INDEX(%s(%%s;%%s);2;3)" % N  # the first group's mean
 SRC_AVG = "the first group's mean by Calc's AVERAGE; 1e-12 relative"
 for kind in NO_NUMBERS:
-    refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), "values holds no numbers")
+    refusal(N, kind, "values", "%s(%s;%s)" % (N, VALUE_KINDS[kind], G), NO_USABLE)
 refusal(N, "error cell #DIV/0!", "values", "%s(%s;%s)" % (N, col("E"), G), E4)
 refusal(N, "error cell #N/A", "values", "%s(%s;%s)" % (N, col("F"), G), F9)
 case(N, "zero spread", "values", MEAN % (col("G"), G), "=AVERAGE([$data.G2:.G7])", 1e-12, SRC_AVG)
@@ -861,7 +861,7 @@ case(N, "all text", "response", '%s(%s;%s;"function")' % (N, col("D"), G), "COMP
 refusal(N, "error cell #DIV/0!", "response", '%s(%s;%s;"function")' % (N, col("E"), G), E4)
 refusal(N, "error cell #N/A", "response", '%s(%s;%s;"function")' % (N, col("F"), G), F9)
 refusal(N, "zero spread", "response", '%s(%s;%s;"function")' % (N, col("G"), G),
-        "each variable needs at least 2 categories (found 1 and 2)")
+        "all 12 response values are the same: nothing varies to test")
 case(N, "sum overflows", "response", '%s(%s;%s;"function")' % (N, col("H"), G), "COMPARE.GROUPS", None,
      SRC_ADV % "a measurement in two groups; the same advice as for the depths")
 for kind in ("+-1e308", "denormal"):
@@ -874,10 +874,10 @@ case(N, "numbers as text", "response", '%s(%s;%s;"function")' % (N, col("L"), G)
 refusal(N, "one group only", "predictor", '%s(%s;%s;"function")' % (N, V, col("M")),
         "the predictor has 1 group; a comparison needs 2 or more")
 refusal(N, "mismatched lengths", "predictor", '%s(%s;[$data.A2:.A10];"function")' % (N, V),
-        MISMATCH % ("values", "groups"))
+        MISMATCH % ("response", "predictor"))
 case(N, "error cell in predictor", "predictor", '%s(%s;%s;"function")' % (N, V, col("Z")), "Err:504", None, ERR504)
 refusal(N, "1x1 range", "response", '%s([$data.B2];[$data.A2];"function")' % N,
-        "each variable needs at least 2 categories (found 1 and 1)")
+        "response holds 1 value; a test needs more rows")
 case(N, "whole columns", "response", '%s([$data.B:.B];[$data.A:.A];"function")' % N, "COMPARE.GROUPS", None,
      SRC_ADV % "a measurement in two groups")
 refusal(N, "paired with mismatched lengths", "design", '%s(%s;[$data.O2:.O10];"function";"paired")' % (N, V),
