@@ -413,7 +413,7 @@ Advice advise_test(const Range& response, const Range& predictor, Design design)
         // above, a constant column can still be tested by signs).
         if (y.distinct == 1)
             throw Refusal(y.values == 1 ? "response holds 1 value; a test needs more rows"
-                                        : "all " + std::to_string(y.values) + " response values are the same: nothing varies to test");
+                                        : "all " + std::to_string(y.values) + " response values are equal: there is nothing to test");
         if (design == Design::paired) {
             if (!y.numeric || !x.numeric) throw Refusal("design 'paired' needs two columns of numbers");
             advise_paired(response, &predictor, advice);

@@ -241,7 +241,7 @@ TEST(Advisor, RefusalsNameResponseAndPredictor) {
         return std::string("no refusal");
     };
     const Range labels = Range::text_column({"a", "a", "b", "b"});
-    EXPECT_EQ(refusal_of(Range::column({5, 5, 5, 5}), labels), "all 4 response values are the same: nothing varies to test");
+    EXPECT_EQ(refusal_of(Range::column({5, 5, 5, 5}), labels), "all 4 response values are equal: there is nothing to test");
     EXPECT_EQ(refusal_of(Range::column({5}), Range::text_column({"a"})), "response holds 1 value; a test needs more rows");
     EXPECT_EQ(refusal_of(Range::column({1, 2, 3, 4}), Range::text_column({"a", "a", "b"})),
               "response and predictor must have the same number of rows (4 and 3)");

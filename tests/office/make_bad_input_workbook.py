@@ -861,7 +861,7 @@ case(N, "all text", "response", '%s(%s;%s;"function")' % (N, col("D"), G), "COMP
 refusal(N, "error cell #DIV/0!", "response", '%s(%s;%s;"function")' % (N, col("E"), G), E4)
 refusal(N, "error cell #N/A", "response", '%s(%s;%s;"function")' % (N, col("F"), G), F9)
 refusal(N, "zero spread", "response", '%s(%s;%s;"function")' % (N, col("G"), G),
-        "all 12 response values are the same: nothing varies to test")
+        "all 12 response values are equal: there is nothing to test")
 case(N, "sum overflows", "response", '%s(%s;%s;"function")' % (N, col("H"), G), "COMPARE.GROUPS", None,
      SRC_ADV % "a measurement in two groups; the same advice as for the depths")
 for kind in ("+-1e308", "denormal"):
