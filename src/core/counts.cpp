@@ -57,7 +57,7 @@ double checked_count(const Range& r, std::size_t row, std::size_t column, const 
     if (x < 0) throw Refusal(at + " holds a negative count (" + count_text(x) + "); counts must be 0 or more");
     if (x != std::floor(x))
         throw Refusal(at + " holds " + count_text(x) + "; counts must be whole numbers (use the raw counts, not percentages)");
-    if (x > largest_exact_count) throw Refusal(at + " holds a count too large to count exactly (over 2^53)");
+    if (x > largest_exact_count) throw Refusal(at + " holds a count too large to count exactly (over 2^53); counts must be raw tallies of observations");
     return x;
 }
 

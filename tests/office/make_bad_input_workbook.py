@@ -381,6 +381,7 @@ case(N, "whole column", "values", "ROWS(%s([$data.B:.B]))" % N, "=ROWS([$data.B1
 # ================================== CHECK.MODEL(y; xs; [output]) =================================
 N = "CHECK.MODEL"
 NO_ROWS = "needs more complete rows than terms: found %d rows for 2 terms; add rows or remove predictors"
+NO_ROWS_ONE = "needs more complete rows than terms: found 1 row for 2 terms; add rows or remove predictors"
 SRC_DW = SRC_GEN % ("Durbin-Watson from numpy lstsq residuals", "1e-9 relative")
 DW = "INDEX(%s(%%s;%%s);4;2)" % N   # the independence row's statistic
 for kind in NO_NUMBERS:
@@ -570,7 +571,7 @@ case(N, "duplicate names in counts", "counts_or_labels", "%s(%s)" % (N, block("d
      REF["chi-square p, riffle/pool present/absent"], 1e-9,
      "names only label the rows and columns: the counts are those of the good block; " + SRC_CHI)
 refusal(N, "huge count", "counts_or_labels", "%s(%s)" % (N, block("huge")),
-        "B26 holds a count too large to count exactly (over 2^53)")
+        "B26 holds a count too large to count exactly (over 2^53); counts must be raw tallies of observations")
 refusal(N, "error cell in counts", "counts_or_labels", "%s(%s)" % (N, block("error cell")),
         "B30 holds an error (#DIV/0!)")
 refusal(N, "all cells blank", "counts_or_labels", "%s(%s)" % (N, col("C")),
@@ -689,7 +690,7 @@ refusal(N, "collinear predictors", "xs", '%s(%s;[$data.P2:.Q13];"r2")' % (N, V),
 refusal(N, "mismatched lengths", "xs", '%s(%s;[$data.P2:.P10];"r2")' % (N, V), MISMATCH % ("y", "xs"))
 case(N, "whole columns", "y", '%s([$data.B:.B];[$data.P:.P];"slope")' % N, "=SLOPE(%s;%s)" % (V, P), 1e-9,
      "Calc's SLOPE on the used rows; 1e-9 relative")
-refusal(N, "1x1 range", "y", '%s([$data.B2];[$data.P2];"r2")' % N, NO_ROWS % 1)
+refusal(N, "1x1 range", "y", '%s([$data.B2];[$data.P2];"r2")' % N, NO_ROWS_ONE)
 refusal(N, "n = 2 (no residual df)", "y", '%s([$few.A1:.A2];[$few.L1:.L2];"slope")' % N, NO_ROWS % 2)
 case(N, "n = 3", "y", '%s([$few.B1:.B3];[$few.F1:.F3];"slope")' % N, "=SLOPE([$few.B1:.B3];[$few.F1:.F3])", 1e-9,
      "Calc's SLOPE; 1e-9 relative")
