@@ -218,11 +218,12 @@ TEST(RankSum, TooFewForInterval) {
 }
 
 // Selection of order statistics of pairwise differences against listing them all (brute force,
-// common practice): random sizes with ties, every k. Exact equality: the same rounded values.
+// common practice): random sizes with ties, every k. Exact equality: the same rounded values. The
+// last trials are large enough (up to 400 × 400) for the pivot steps, not only the final listing.
 TEST(RankSum, SelectionMatchesBruteForce) {
     std::mt19937 rng(7);
-    for (int trial = 0; trial < 30; ++trial) {
-        std::uniform_int_distribution<int> size(1, 40), value(0, 30);
+    for (int trial = 0; trial < 36; ++trial) {
+        std::uniform_int_distribution<int> size(1, trial < 30 ? 40 : 400), value(0, trial < 33 ? 30 : 3000);
         std::vector<double> x(size(rng)), y(size(rng));
         for (double& v : x) v = value(rng) * 0.1;
         for (double& v : y) v = value(rng) * 0.1 + (trial % 3) * 1e-3;
