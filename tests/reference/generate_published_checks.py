@@ -61,6 +61,21 @@ def blom(n):
     return scipy.special.ndtri((i - 0.375) / (n + 0.25))
 
 
+def top_pushed_out(n, t):
+    """Blom's scores for n with the largest pushed out by t (a skewed, heavier upper tail)."""
+    x = blom(n)
+    x[-1] += t
+    return x
+
+
+def ends_pushed_out(n, t):
+    """Blom's scores for n with both extremes pushed out by t (symmetric, heavier tails)."""
+    x = blom(n)
+    x[0] -= t
+    x[-1] += t
+    return x
+
+
 def bisect(f, lo, hi, target):
     """t in [lo, hi] with f(t) = target, f increasing; to the last bit."""
     check(f(lo) < target < f(hi), "bisection bracket")
@@ -80,21 +95,15 @@ def anderson_darling_cases():
     # variance estimated): upper-tail points of A* = A²(1 + 0.75/n + 2.25/n²) (from memory).
     table = [("0.10", "0.631"), ("0.05", "0.752"), ("0.025", "0.873"), ("0.01", "1.035")]
     n = 20
-    base = blom(n)
     factor = 1 + 0.75 / n + 2.25 / n**2
 
-    def sample(t):
-        x = base.copy()
-        x[-1] += t
-        return x
-
     def a_star(t):
-        return normal_ad(sample(t))[0] * factor
+        return normal_ad(top_pushed_out(n, t))[0] * factor
 
     cases = []
     for level, point in table:
         t = bisect(a_star, 0.0, 20.0, float(point))
-        x = sample(t)
+        x = top_pushed_out(n, t)
         a2, p = normal_ad(x)
         check(rounds_to(p, level), "D'Agostino–Stephens p at A* = %s is %.5f, level %s" % (point, p, level))
         cases.append({"level": level, "a_star": point, "values": [float(v) for v in x],
@@ -107,16 +116,9 @@ def jarque_bera_case():
     # Statisticians I, Table 8; from memory).
     check(rounds_to(scipy.stats.chi2.isf(0.05, 2), "5.991"), "chi2(0.95; 2) = 5.991")
     n = 20
-    base = blom(n)
 
-    def sample(t):
-        x = base.copy()
-        x[0] -= t
-        x[-1] += t
-        return x
-
-    t = bisect(lambda t: scipy.stats.jarque_bera(sample(t)).statistic, 0.0, 50.0, 5.991)
-    x = sample(t)
+    t = bisect(lambda t: scipy.stats.jarque_bera(ends_pushed_out(n, t)).statistic, 0.0, 50.0, 5.991)
+    x = ends_pushed_out(n, t)
     jb = scipy.stats.jarque_bera(x)
     return {"values": [float(v) for v in x], "published_chi2_5pct": "5.991",
             "scipy_JB": float(jb.statistic), "scipy_p": float(jb.pvalue)}
@@ -160,19 +162,13 @@ def lilliefors_cases():
     for n in (20, 50, 100):
         factor = np.sqrt(n) - 0.01 + 0.85 / np.sqrt(n)
         simulated = normal_samples_statistic(lilliefors_d, n, 400000, seed=1974 + n) * factor
-        base = blom(n)
-
-        def sample(t):
-            x = base.copy()
-            x[-1] += t
-            return x
 
         for level, point in table:
-            t = bisect(lambda t: lilliefors_d(sample(t))[0] * factor, 0.0, 10.0, float(point))
+            t = bisect(lambda t: lilliefors_d(top_pushed_out(n, t))[0] * factor, 0.0, 10.0, float(point))
             tail = float(np.mean(simulated >= float(point)))
             # A misremembered point would put the simulated tail far from its level.
             check(abs(tail - float(level)) <= 0.2 * float(level), "Stephens' D* %s: simulated tail %.4f, level %s" % (point, tail, level))
-            cases.append({"n": n, "level": level, "d_star": point, "values": [float(v) for v in sample(t)],
+            cases.append({"n": n, "level": level, "d_star": point, "values": [float(v) for v in top_pushed_out(n, t)],
                           "monte_carlo_tail": tail, "monte_carlo_samples": 400000})
     return cases
 
@@ -219,16 +215,9 @@ def dagostino_cases():
     for n, level, point in kurt_points:
         mc = float(np.quantile(simulated[n][1], 1 - float(level)))
         check(abs(mc / float(point) - 1) <= 0.01, "b2 point %s at n = %d: Monte Carlo %.4f" % (point, n, mc))
-        base = blom(n)
 
-        def sample(t):
-            x = base.copy()
-            x[0] -= t
-            x[-1] += t
-            return x
-
-        t = bisect(lambda t: skewness_and_kurtosis(sample(t))[1][0], 0.0, 20.0, float(point))
-        x = sample(t)
+        t = bisect(lambda t: skewness_and_kurtosis(ends_pushed_out(n, t))[1][0], 0.0, 20.0, float(point))
+        x = ends_pushed_out(n, t)
         # scipy 1.10's skewtest replaces a √b1 of exactly 0 by 1 (a guard against dividing by zero)
         # and so gives z = 1.03 for a symmetric sample at n = 50; D'Agostino's transform of 0 is 0,
         # so K² is the kurtosis z squared there.
@@ -293,18 +282,12 @@ def shapiro_francia_cases():
     cases = []
     for n in (20, 50, 200):
         simulated = normal_samples_statistic(shapiro_francia_w, n, 400000, seed=1972 + n)
-        base = blom(n)
-
-        def sample(t):
-            x = base.copy()
-            x[-1] += t
-            return x
 
         for level in ("0.05", "0.01"):
             point = float(np.quantile(simulated, float(level)))
-            t = bisect(lambda t: -shapiro_francia_w(sample(t))[0], 0.0, 10.0, -point)
+            t = bisect(lambda t: -shapiro_francia_w(top_pushed_out(n, t))[0], 0.0, 10.0, -point)
             cases.append({"n": n, "level": level, "monte_carlo_point": point, "monte_carlo_samples": 400000,
-                          "values": [float(v) for v in sample(t)]})
+                          "values": [float(v) for v in top_pushed_out(n, t)]})
     return cases
 
 
