@@ -79,6 +79,17 @@ class Sheet:
         for i, values in enumerate(rows):
             self.row(_address(row + i, column), values)
 
+    def rows(self, ref, rows):
+        """A block like `block`, in which a text starting with '=' is written as a formula."""
+        row, column = cell_position(ref)
+        for i, values in enumerate(rows):
+            for j, v in enumerate(values):
+                address = _address(row + i, column + j)
+                if isinstance(v, str) and v.startswith("="):
+                    self.formula(address, v)
+                else:
+                    self.put(address, v)
+
     def xml(self):
         out = ["  <table:table table:name=%s>" % quoteattr(self.name)]
         if self.cells:
@@ -117,6 +128,21 @@ def _address(row, column):
         column, rest = divmod(column - 1, 26)
         letters = chr(65 + rest) + letters
     return "%s%d" % (letters, row + 1)
+
+
+class Checks:
+    """The `checks` sheet the harness reads (README.md): a header, then one row per check with the
+    result's address, the expected value (a text starting with '=' is a formula), the tolerance and
+    the source."""
+
+    def __init__(self, book):
+        self.sheet = book.sheet("checks")
+        self.sheet.row("A1", ["result", "expected", "tolerance", "source"])
+        self.next_row = 2
+
+    def add(self, result, expected, tolerance, source):
+        self.sheet.rows("A%d" % self.next_row, [[result, expected, tolerance, source]])
+        self.next_row += 1
 
 
 class Workbook:

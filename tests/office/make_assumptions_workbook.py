@@ -12,7 +12,7 @@ are checked against Calc's own NORMSINV and SMALL on the same cells.
 import json
 import os
 
-from fods import Workbook
+from fods import Checks, Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 NORMALITY = json.load(open(os.path.join(HERE, "..", "reference", "normality.json")))
@@ -32,14 +32,7 @@ SRC_COUNT = "the number of values of the group in the data above"
 SRC_TEXT = "the core's refusal text, exact"
 
 book = Workbook()
-checks = book.sheet("checks")
-checks.row("A1", ["result", "expected", "tolerance", "source"])
-row = [2]
-
-
-def check(result, expected, tolerance, source):
-    checks.row("A%d" % row[0], [result, expected, tolerance, source])
-    row[0] += 1
+check = Checks(book).add
 
 
 # --- CHECK.NORMAL and CHECK.QQ on one column with a header row ------------------------------

@@ -11,8 +11,12 @@ Freeman-Halton test), except where Calc's own CHITEST computes the same p-value 
 
 import json
 import os
+import sys
 
 from fods import Workbook
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "reference"))
+from report_numbers import fmt_number, fmt_p  # noqa: E402
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 with open(os.path.join(HERE, "..", "reference", "categorical.json")) as fh:
@@ -22,42 +26,13 @@ SRC_GEN = "tests/reference/generate_categorical.py (%s)"
 SRC_TEXT = "FUNCTIONS.md and the core's refusal text, exact"
 
 
-def fmt(x):
-    """The report's number format (src/core/report.cpp): two decimals, three significant digits below 0.1."""
-    a = abs(x)
-    if a == 0:
-        return "0.00"
-    if a >= 0.1:
-        return "%.2f" % x
-    if a >= 1e-4:
-        import math
-        return "%.*f" % (2 - int(math.floor(math.log10(a))), x)
-    return "%.2e" % x
-
-
-def fmt_p(p):
-    return "p < 0.001" if p < 0.001 else "p = %.3f" % p
-
-
-def put_rows(sheet, top_left, rows):
-    col0 = ord(top_left[0]) - ord("A")
-    row0 = int(top_left[1:])
-    for i, values in enumerate(rows):
-        for j, v in enumerate(values):
-            address = "%s%d" % (chr(ord("A") + col0 + j), row0 + i)
-            if isinstance(v, str) and v.startswith("="):
-                sheet.formula(address, v)
-            else:
-                sheet.put(address, v)
-
-
 book = Workbook()
 checks_rows = [["result", "expected", "tolerance", "source"]]
 
 # --- counts: a block of counts with names --------------------------------------------------------
 mayfly = REF["counts"]["mayfly_2x2"]
 counts = book.sheet("counts")
-put_rows(counts, "A1", [[None, "present", "absent"], ["riffle"] + mayfly["table"][0], ["pool"] + mayfly["table"][1]])
+counts.rows("A1", [[None, "present", "absent"], ["riffle"] + mayfly["table"][0], ["pool"] + mayfly["table"][1]])
 counts.formula("E1", "COMPARE.COUNTS([.A1:.C3])")
 counts.formula("E2", 'COMPARE.COUNTS([.A1:.C3];;"fisher")')
 counts.formula("E3", 'COMPARE.COUNTS([.A1:.C3];;"yates";"statistic")')
@@ -66,22 +41,22 @@ counts.formula("E5", 'COMPARE.COUNTS([.A1:.C3];;;"effect")')
 counts.formula("E6", 'COMPARE.COUNTS([.A1:.C3];;;"report")')
 counts.formula("E8", 'COMPARE.COUNTS([.A1:.C3];;;"table")', array=(10, 2))
 # Calc's CHITEST with the expected counts R_i C_j / N written as formulas: an independent p.
-put_rows(counts, "A20", [["expected"], ["=SUM($B2:$C2)*SUM(B$2:B$3)/SUM($B$2:$C$3)", "=SUM($B2:$C2)*SUM(C$2:C$3)/SUM($B$2:$C$3)"],
+counts.rows("A20", [["expected"], ["=SUM($B2:$C2)*SUM(B$2:B$3)/SUM($B$2:$C$3)", "=SUM($B2:$C2)*SUM(C$2:C$3)/SUM($B$2:$C$3)"],
                          ["=SUM($B3:$C3)*SUM(B$2:B$3)/SUM($B$2:$C$3)", "=SUM($B3:$C3)*SUM(C$2:C$3)/SUM($B$2:$C$3)"]])
 chi = mayfly["chi-square"]
 report = "Pearson's chi-square test of association: χ²(1) = %s, %s, n = %d; φ = %s" % (
-    fmt(chi["statistic"]), fmt_p(chi["p"]), mayfly["n"], fmt(mayfly["effect"]))
+    fmt_number(chi["statistic"]), fmt_p(chi["p"]), mayfly["n"], fmt_number(mayfly["effect"]))
 expected_table = [["quantity", "value"], ["test", "Pearson's chi-square test of association"],
                   ["statistic", chi["statistic"]], ["df", 1], ["p", chi["p"]], ["n", mayfly["n"]], ["n dropped", 0],
                   ["effect", mayfly["effect"]], ["smallest expected count", mayfly["smallest expected count"]],
                   ["cells expected below 5", mayfly["cells expected below 5"]]]
-put_rows(counts, "H8", expected_table)
+counts.rows("H8", expected_table)
 # A 3×3 for the Freeman-Halton exact test, without names.
 small = REF["counts"]["small_3x3"]
-put_rows(counts, "A12", small["table"])
+counts.rows("A12", small["table"])
 counts.formula("E19", 'COMPARE.COUNTS([.A12:.C14];;"fisher")')
 # Refusals.
-put_rows(counts, "A25", [[4, 5, 6], [3, -1, 2]])
+counts.rows("A25", [[4, 5, 6], [3, -1, 2]])
 counts.formula("E25", "COMPARE.COUNTS([.A25:.C25])")
 counts.formula("E26", "COMPARE.COUNTS([.A25:.C26])")
 counts.formula("E27", 'COMPARE.COUNTS([.A1:.C3];;"exact")')
@@ -159,12 +134,12 @@ import math  # noqa: E402
 for j, term in enumerate(["intercept", "depth"]):
     coef.append([term, mussel["estimate"][j], mussel["std_error"][j], mussel["z"][j], mussel["p"][j],
                  math.exp(mussel["estimate"][j]), mussel["or_low"][j], mussel["or_high"][j]])
-put_rows(lg, "D25", coef)
+lg.rows("D25", coef)
 model = [["quantity", "value"], ["model", "logistic regression (logit link, maximum likelihood)"], ["event", "1"],
          ["deviance", mussel["deviance"]], ["null deviance", mussel["null_deviance"]], ["statistic", mussel["statistic"]],
          ["df", mussel["df"]], ["p", mussel["lr_p"]], ["aic", mussel["aic"]], ["pseudo-r2", mussel["pseudo_r2"]],
          ["n", mussel["n"]], ["n dropped", 0], ["iterations", "=[$logistic.E18]"]]
-put_rows(lg, "D30", model)
+lg.rows("D30", model)
 checks_rows += [
     ["logistic.D1:K3", "block logistic.D25:K27", 1e-9,
      "coefficients with 90% odds-ratio intervals; " + SRC_GEN % "statsmodels Logit, Newton, tol 1e-14"],
@@ -190,7 +165,7 @@ for name, row in zip(["fertiliser", "watering", "fertiliser × watering"], bio["
     table.append([name, row["ss"], row["df"], row["ss"] / row["df"], row["f"], row["p"], row["partial_eta_squared"]])
 res = bio["type2"][3]
 table.append(["residual", res["ss"], res["df"], res["ss"] / res["df"], None, None, None])
-put_rows(fa, "E14", table)
+fa.rows("E14", table)
 checks_rows += [
     ["factorial.E1:K5", "block factorial.E14:K18", 1e-9,
      "Type II table with blank residual cells; " + SRC_GEN % "statsmodels ols + anova_lm(typ=2)"],
@@ -201,7 +176,7 @@ checks_rows += [
 ]
 
 checks = book.sheet("checks")
-put_rows(checks, "A1", checks_rows)
+checks.rows("A1", checks_rows)
 book.write(os.path.join(HERE, "categorical.fods"),
            comment="Generated by tests/office/make_categorical_workbook.py: edit that script, not this file.")
 print("wrote tests/office/categorical.fods")

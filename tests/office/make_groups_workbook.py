@@ -12,7 +12,7 @@ pairs. Refusal texts are the core's, exact.
 import json
 import os
 
-from fods import Workbook
+from fods import Checks, Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 REF = json.load(open(os.path.join(HERE, "..", "reference", "compare.json")))["cases"]
@@ -27,14 +27,7 @@ SRC_R = ("scipy.stats.mannwhitneyu(method='exact') 1.10 and the brute-force Hodg
 SRC_TEXT = "the core's refusal text, exact"
 
 book = Workbook()
-checks = book.sheet("checks")
-checks.row("A1", ["result", "expected", "tolerance", "source"])
-row = [2]
-
-
-def check(result, expected, tolerance, source):
-    checks.row("A%d" % row[0], [result, expected, tolerance, source])
-    row[0] += 1
+check = Checks(book).add
 
 
 # --- two groups, long format with a header row -----------------------------------------------

@@ -42,35 +42,13 @@ sys.path.insert(0, HERE)
 from generate_compare import k_reference, paired_reference, rank_sum_reference, t_reference  # noqa: E402
 from generate_normality import royston_shapiro_francia, royston_shapiro_wilk  # noqa: E402
 from generate_categorical import freeman_halton_p  # noqa: E402
+from report_numbers import fmt_df, fmt_number, fmt_p  # noqa: E402
 
 near_boundary = []
 
 
 # ---------------------------------------------------------------- the catalogue's number rules
-def fmt_p(p):
-    return "p < 0.001" if p < 0.001 else "p = %.3f" % p
-
-
-def fmt_number(x):
-    a = abs(x)
-    if a == 0:
-        return "0.00"
-    if a >= 0.1:
-        return "%.2f" % x
-    if a >= 1e-4:
-        # three significant digits; a value that rounds up to 0.1 takes the two-decimal form
-        rounded = float("%.3g" % x)
-        if abs(rounded) >= 0.1:
-            return "%.2f" % rounded
-        decimals = 2 - math.floor(math.log10(abs(rounded)))
-        return "%.*f" % (decimals, x)
-    return "%.2e" % x
-
-
-def fmt_df(d):
-    return "%d" % d if d == round(d) else "%.1f" % d
-
-
+# fmt_p, fmt_number, fmt_df: report_numbers.py
 def checked(formatter, x):
     """Format x, noting it when a relative change of 1e-9 would change its digits."""
     s = formatter(x)
