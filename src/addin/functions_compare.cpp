@@ -12,14 +12,6 @@
 
 namespace quadrat::addin {
 
-namespace {
-// The i-th argument, or an omitted one when the caller passed fewer.
-const Range& argument(const Arguments& a, std::size_t i) {
-    static const Range omitted = Range::omitted_argument();
-    return i < a.size() ? a[i] : omitted;
-}
-}  // namespace
-
 // COMPARE.GROUPS(values; groups; [method]; [output]; [transform])
 Table compare_groups(const Arguments& a) {
     const std::string output = keyword_argument(argument(a, 3), "output");

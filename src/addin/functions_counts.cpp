@@ -11,14 +11,6 @@
 
 namespace quadrat::addin {
 
-namespace {
-// An argument by position; one the caller left off reads as omitted.
-const Range& argument(const Arguments& a, std::size_t i) {
-    static const Range omitted = Range::omitted_argument();
-    return i < a.size() ? a[i] : omitted;
-}
-}  // namespace
-
 Table compare_counts(const Arguments& a) {
     // One argument: a block of counts; two: two label columns cross-tabulated.
     // Neighbouring cells asking other outputs of the same table are answered from the cache (an

@@ -11,11 +11,6 @@
 namespace quadrat::addin {
 
 namespace {
-// An argument by position; one the caller left off reads as omitted.
-const Range& argument(const Arguments& a, std::size_t i) {
-    static const Range omitted = Range::omitted_argument();
-    return i < a.size() ? a[i] : omitted;
-}
 
 struct FittedRegression {
     RegressionData data;

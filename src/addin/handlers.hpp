@@ -6,6 +6,13 @@
 
 namespace quadrat::addin {
 
+// The i-th argument; one the caller left off reads as omitted (call_fenced pads the list already; a
+// direct C++ caller may pass fewer).
+inline const Range& argument(const Arguments& a, std::size_t i) {
+    static const Range omitted = Range::omitted_argument();
+    return i < a.size() ? a[i] : omitted;
+}
+
 // functions_check.cpp
 Table check_normal(const Arguments& a);
 Table check_variance(const Arguments& a);

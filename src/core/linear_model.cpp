@@ -112,7 +112,7 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         throw Refusal("xs has " + std::to_string(k) + " columns; at most " + std::to_string(max_predictors) +
                       " predictors are fitted");
     if (n <= parameters)
-        throw Refusal("needs more complete rows than terms: found " + std::to_string(n) + (n == 1 ? " row for " : " rows for ") +
+        throw Refusal("needs more complete rows than terms: found " + count_of(n, "row") + " for " +
                       std::to_string(parameters) + " terms; add rows or remove predictors");
     for (double v : y)
         if (!std::isfinite(v)) throw Refusal("y holds a value that is not a finite number");

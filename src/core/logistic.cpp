@@ -130,7 +130,7 @@ LogisticFit fit_logistic(const LogisticData& d) {
     const std::size_t n = d.y.size(), k = d.xs.size(), p = k + 1;
     if (k == 0) throw Refusal("xs has no predictor columns");
     if (n < p + 1)
-        throw Refusal("needs more rows than coefficients: " + std::to_string(n) + (n == 1 ? " row for " : " rows for ") + std::to_string(p) +
+        throw Refusal("needs more rows than coefficients: " + count_of(n, "row") + " for " + std::to_string(p) +
                       " coefficients");
     double events = 0;
     for (double v : d.y) events += v;

@@ -1,6 +1,7 @@
 // A refusal: the honest answer when no number can be given. It carries the text the cell shows.
 #pragma once
 
+#include <cstddef>
 #include <stdexcept>
 #include <string>
 
@@ -13,5 +14,10 @@ class Refusal : public std::runtime_error {
 public:
     explicit Refusal(const std::string& message) : std::runtime_error(message) {}
 };
+
+// "1 row", "3 rows": a count with its noun for a refusal text.
+inline std::string count_of(std::size_t n, const std::string& noun) {
+    return std::to_string(n) + " " + noun + (n == 1 ? "" : "s");
+}
 
 }  // namespace quadrat
