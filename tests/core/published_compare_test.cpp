@@ -301,7 +301,8 @@ TEST(PublishedCompare, WelchAnovaAtTheFTablePoint) {
 // (2s²/n)²/(2(s²/n)²/(n − 1)) = 2(n − 1) = 8 and q = |Δ|/√((s²/n + s²/n)/2) = |Δ|/√(s²/n). On 1–5,
 // 3–7, 5–9 (s²/n = 1/2): q = 2√2 for the neighbours and 4√2 for the outer pair, to 1e-14 relative.
 // p against the formula evaluated in the generator with SciPy 1.10's studentized range (no library at
-// hand has Games–Howell): 1e-10 relative (SciPy integrates numerically; measured 3e-13).
+// hand has Games–Howell): 1e-10 relative (SciPy integrates numerically; measured 3e-13). Our df is
+// not shown in the table; it enters p, so p also checks the df of 8.
 TEST(PublishedCompare, GamesHowellByHand) {
     const auto& c = built()["games_howell_by_hand"];
     const PosthocResult r = compare_posthoc(sheet_groups_of(c), PosthocMethod::games_howell, std::nullopt, Transform::none, 0.95);
