@@ -1,5 +1,5 @@
 // Published worked examples for the group comparisons: COMPARE.GROUPS (classic one-way ANOVA,
-// Kruskal–Wallis), COMPARE.PAIRED (t, signed-rank, sign), COMPARE.POSTHOC (Tukey) and ADJUST.P.
+// Kruskal–Wallis), COMPARE.PAIRED (t, signed-rank, sign), COMPARE.POSTHOC (Tukey), COMPARE.LETTERS (from the Tukey conclusions) and ADJUST.P.
 // The data are classic public data sets, stored with their sources by
 // tests/reference/generate_published_examples.py, which also writes what SciPy/statsmodels give on them.
 // Each printed figure is held to its printed digits (half a unit in the last digit) by our value
@@ -24,6 +24,7 @@
 
 #include "core/adjust.hpp"
 #include "core/data.hpp"
+#include "core/letters.hpp"
 #include "core/oneway.hpp"
 #include "core/paired.hpp"
 #include "core/posthoc.hpp"
@@ -151,6 +152,20 @@ TEST(PublishedCompare, MontgomeryRungerTukey) {
         const bool ten_and_fifteen = pair.first == 1 && pair.second == 2;
         EXPECT_EQ(pair.significant, !ten_and_fifteen) << pair.first << " vs " << pair.second;
     }
+}
+
+// COMPARE.LETTERS on the same data: the letters that follow from the published conclusions (every
+// pair differs except 10% and 15%), by Piepho's (2004) rule that two groups share a letter exactly
+// when they do not differ, and `a` for the largest mean (FUNCTIONS.md): 20% (mean 21.17) a, 15% (17.00)
+// and 10% (15.67) b, 5% (10.00) c. On the etch-rate data every pair differs (Montgomery 2001, below):
+// one letter each, a for 220 W down to d for 160 W.
+TEST(PublishedCompare, LettersFromTheTukeyConclusions) {
+    const LettersResult tensile = compare_letters(sheet_groups_of(published()["oneway"]["tensile"]), PosthocMethod::tukey, 0.95,
+                                                  Transform::none);
+    EXPECT_EQ(tensile.letters, (std::vector<std::string>{"c", "b", "b", "a"}));
+    const LettersResult etch = compare_letters(sheet_groups_of(published()["oneway"]["etch"]), PosthocMethod::tukey, 0.95,
+                                               Transform::none);
+    EXPECT_EQ(etch.letters, (std::vector<std::string>{"d", "c", "b", "a"}));
 }
 
 // Montgomery (2001), Design and Analysis of Experiments, 5th ed., ch. 3, Tukey's test on the
