@@ -1,5 +1,6 @@
 // Published worked examples for the group comparisons: COMPARE.GROUPS (classic one-way ANOVA,
-// Kruskal–Wallis), COMPARE.PAIRED (t, signed-rank, sign), COMPARE.POSTHOC (Tukey), COMPARE.LETTERS (from the Tukey conclusions) and ADJUST.P.
+// Kruskal–Wallis), COMPARE.PAIRED (t, signed-rank, sign), COMPARE.POSTHOC (Tukey), COMPARE.LETTERS
+// (from the Tukey conclusions) and ADJUST.P.
 // The data are classic public data sets, stored with their sources by
 // tests/reference/generate_published_examples.py, which also writes what SciPy/statsmodels give on them.
 // Each printed figure is held to its printed digits (half a unit in the last digit) by our value
