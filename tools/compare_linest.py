@@ -32,7 +32,7 @@ import sys
 HERE = os.path.dirname(os.path.abspath(__file__))
 sys.path.insert(0, HERE)
 
-from office_session import Office  # noqa: E402
+from office_session import Office, column_name  # noqa: E402
 
 STRD = os.environ.get("QUADRAT_STRD_DIR", "/work/shared/reference/nist-strd")
 SETS = ["Norris", "Pontius", "NoInt1", "NoInt2", "Filip", "Longley",
@@ -113,15 +113,6 @@ def lre(computed, certified):
 
 
 # --- the cells ------------------------------------------------------------------------------
-def column_name(index):
-    name = ""
-    index += 1
-    while index:
-        index, rest = divmod(index - 1, 26)
-        name = chr(ord("A") + rest) + name
-    return name
-
-
 def cell_content(cell):
     """A number, a text, or ('error', code) for what a formula cell shows."""
     if cell.getError():

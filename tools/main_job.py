@@ -20,7 +20,7 @@ import uno
 from com.sun.star.beans import PropertyValue
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from office_session import Office, file_url, props  # noqa: E402
+from office_session import Office, column_name, file_url, props  # noqa: E402
 
 STORED_PREFIX = "ORG.QUADRAT.FUNCTIONS."
 FORMULA = 16  # com.sun.star.sheet.CellFlags.FORMULA
@@ -57,15 +57,6 @@ def shown(cell):
     if kind == "VALUE" or (kind == "FORMULA" and cell.getPropertyValue("FormulaResultType2") == 1):
         return "%.6g" % cell.getValue()
     return cell.getString()
-
-
-def column_name(c):
-    letters = ""
-    c += 1
-    while c:
-        c, rest = divmod(c - 1, 26)
-        letters = chr(65 + rest) + letters
-    return letters
 
 
 def address_text(a):

@@ -27,7 +27,7 @@ from com.sun.star.awt import Rectangle, Size
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(HERE)
 sys.path.insert(0, HERE)
-from office_session import Office, file_url, props  # noqa: E402
+from office_session import Office, column_name, file_url, props  # noqa: E402
 
 NOT_AVAILABLE = 32767  # the office's #N/A: a cell of an array block beyond the result
 
@@ -40,15 +40,6 @@ def available_functions():
         if m.group(3) != "nullptr":
             names.add(m.group(1))
     return names
-
-
-def column_name(c):
-    letters = ""
-    c += 1
-    while c:
-        c, rest = divmod(c - 1, 26)
-        letters = chr(65 + rest) + letters
-    return letters
 
 
 def position(ref):
