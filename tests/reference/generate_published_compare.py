@@ -35,6 +35,9 @@ import statsmodels
 from statsmodels.stats.multitest import multipletests
 from statsmodels.stats.oneway import anova_oneway
 
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from generate_compare import signed_rank_counts  # noqa: E402  (T⁺ counts over the 2ⁿ sign patterns, Wilcoxon 1945)
+
 mpmath.mp.dps = 40
 OUT = {"generator": "tests/reference/generate_published_compare.py",
        "scipy": scipy.__version__, "statsmodels": statsmodels.__version__}
@@ -79,17 +82,6 @@ def rank_sum_counts(m, n):
     counts = [0] * (m * n + 1)
     for first in combinations(range(m + n), m):
         counts[sum(first) - m * (m - 1) // 2] += 1  # ranks 0-based: U = Σ ranks − m(m−1)/2
-    return counts
-
-
-def signed_rank_counts(n):
-    """Number of the 2ⁿ sign patterns with each value of T⁺ (Wilcoxon 1945)."""
-    counts = [1]
-    for r in range(1, n + 1):
-        new = counts + [0] * r
-        for t, c in enumerate(counts):
-            new[t + r] += c
-        counts = new
     return counts
 
 
