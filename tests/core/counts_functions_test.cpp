@@ -5,22 +5,16 @@
 #include <variant>
 
 #include "addin/registry.hpp"
+#include "sheet_cells.hpp"
 
 namespace quadrat::addin {
 namespace {
 
-Cell num(double x) { return Cell::make_number(x); }
-Cell txt(const char* s) { return Cell::make_text(s); }
+using namespace quadrat::test_support;
 
-Range block(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
-    Range r;
-    r.rows = rows;
-    r.columns = columns;
-    r.cells = std::move(cells);
-    r.is_reference = true;
-    r.first_row = 1;
-    r.first_column = 1;
-    return r;
+// The blocks of these tests start at B2, so refusals name cells from there.
+Range block_from_b2(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
+    return block(rows, columns, std::move(cells), 1, 1);
 }
 
 Range keyword(const char* s) { return Range::scalar(txt(s)); }
@@ -47,7 +41,7 @@ const Range omitted = Range::omitted_argument();
 // Agresti (2002), Categorical Data Analysis, §3.5.1, tea tasting (from memory): Fisher p = 0.486
 // = 34/70 exactly; tolerance 1e-12.
 TEST(CompareCountsFunction, BlockWithNamesAndMethod) {
-    Range tea = block(3, 3, {txt("guess"), txt("milk first"), txt("tea first"),
+    Range tea = block_from_b2(3, 3, {txt("guess"), txt("milk first"), txt("tea first"),
                              txt("milk first"), num(3), num(1),
                              txt("tea first"), num(1), num(3)});
     EXPECT_NEAR(number_of(call("compareCounts", {tea, omitted, keyword("Fisher"), omitted})), 34.0 / 70.0, 1e-12);
@@ -77,24 +71,24 @@ TEST(CompareCountsFunction, TwoLabelColumns) {
 }
 
 TEST(CompareExpectedFunction, SexRatioAndRefusals) {
-    Range voles = block(3, 1, {txt("voles"), num(58), num(42)});
+    Range voles = block_from_b2(3, 1, {txt("voles"), num(58), num(42)});
     // scipy.stats.chisquare([58, 42]) 1.10 via tests/reference/generate_categorical.py: χ² = 2.56
     // exactly ((8² + 8²)/50); tolerance 1e-12.
     EXPECT_NEAR(number_of(call("compareExpected", {voles, omitted, keyword("statistic")})), 2.56, 1e-12);
-    Range ratio = block(1, 2, {num(1), num(1)});
+    Range ratio = block_from_b2(1, 2, {num(1), num(1)});
     ratio.is_reference = false;  // an inline array {1, 1}
     EXPECT_NEAR(number_of(call("compareExpected", {voles, ratio, keyword("statistic")})), 2.56, 1e-12);
     EXPECT_EQ(text_of(call("compareExpected", {voles, omitted, keyword("effect")})),
               "unknown output 'effect'; valid: p, statistic, df, n, table, report");
-    Range bad = block(2, 1, {num(5), num(2.5)});
+    Range bad = block_from_b2(2, 1, {num(5), num(2.5)});
     EXPECT_EQ(text_of(call("compareExpected", {bad, omitted, omitted})),
               "B3 holds 2.5; counts must be whole numbers (use the raw counts, not percentages)");
 }
 
 TEST(FitLogisticFunction, CoefficientsModelAndRefusals) {
     // Invented: mussel present (1) at 12 sites against depth (m), outcomes overlapping.
-    Range y = block(13, 1, {txt("mussel"), num(0), num(0), num(1), num(0), num(0), num(1), num(0), num(1), num(1), num(0), num(1), num(1)});
-    Range depth = block(13, 1, {txt("depth"), num(0.3), num(0.5), num(0.6), num(0.9), num(1.1), num(1.2), num(1.6), num(1.8),
+    Range y = block_from_b2(13, 1, {txt("mussel"), num(0), num(0), num(1), num(0), num(0), num(1), num(0), num(1), num(1), num(0), num(1), num(1)});
+    Range depth = block_from_b2(13, 1, {txt("depth"), num(0.3), num(0.5), num(0.6), num(0.9), num(1.1), num(1.2), num(1.6), num(1.8),
                                 num(2.0), num(2.3), num(2.6), num(2.9)});
     const Table coefficients = call("fitLogistic", {y, depth, omitted, omitted});
     ASSERT_EQ(coefficients.size(), 3u);
@@ -116,11 +110,11 @@ TEST(FitLogisticFunction, CoefficientsModelAndRefusals) {
 TEST(FitFactorialFunction, OutputsAndSstype) {
     // Invented: shoot length (cm) by shade (open, shaded) and soil (clay, sand), 3 plants each,
     // with one more in one cell so that the design is unbalanced.
-    Range length = block(14, 1, {txt("length"), num(12), num(14), num(13), num(9), num(10), num(8), num(15), num(17),
+    Range length = block_from_b2(14, 1, {txt("length"), num(12), num(14), num(13), num(9), num(10), num(8), num(15), num(17),
                                  num(16), num(18), num(9), num(11), num(10)});
-    Range shade = block(14, 1, {txt("shade"), txt("open"), txt("open"), txt("open"), txt("shaded"), txt("shaded"), txt("shaded"),
+    Range shade = block_from_b2(14, 1, {txt("shade"), txt("open"), txt("open"), txt("open"), txt("shaded"), txt("shaded"), txt("shaded"),
                                 txt("open"), txt("open"), txt("open"), txt("open"), txt("shaded"), txt("shaded"), txt("shaded")});
-    Range soil = block(14, 1, {txt("soil"), txt("clay"), txt("clay"), txt("clay"), txt("clay"), txt("clay"), txt("clay"),
+    Range soil = block_from_b2(14, 1, {txt("soil"), txt("clay"), txt("clay"), txt("clay"), txt("clay"), txt("clay"), txt("clay"),
                                txt("sand"), txt("sand"), txt("sand"), txt("sand"), txt("sand"), txt("sand"), txt("sand")});
     const Table t = call("fitFactorial", {length, shade, soil, omitted, omitted});
     ASSERT_EQ(t.size(), 5u);

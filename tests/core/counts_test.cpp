@@ -8,6 +8,7 @@
 #include "core/counts.hpp"
 #include "core/refusal.hpp"
 #include "reference.hpp"
+#include "sheet_cells.hpp"
 
 using namespace quadrat::test_support;
 
@@ -28,18 +29,9 @@ ContingencyTable table_of(const nlohmann::json& rows) {
     return t;
 }
 
-Cell num(double x) { return Cell::make_number(x); }
-Cell txt(const char* s) { return Cell::make_text(s); }
-
-Range block(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
-    Range r;
-    r.rows = rows;
-    r.columns = columns;
-    r.cells = std::move(cells);
-    r.is_reference = true;
-    r.first_row = 1;  // the block starts at B2
-    r.first_column = 1;
-    return r;
+// The blocks of these tests start at B2, so refusals name cells from there.
+Range block_from_b2(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
+    return block(rows, columns, std::move(cells), 1, 1);
 }
 
 // scipy.stats.chi2_contingency 1.10 (correction=False; correction=True; lambda_="log-likelihood",
@@ -119,7 +111,7 @@ TEST(CompareCounts, HugeCountsDoNotOverflow) {
 
 TEST(CompareCounts, ReadsABlockWithNamesAndRefusesBadCounts) {
     // Header row and first column of names; a trailing blank row (whole-column reference).
-    Range b = block(4, 3, {txt(""), txt("present"), txt("absent"),
+    Range b = block_from_b2(4, 3, {txt(""), txt("present"), txt("absent"),
                            txt("riffle"), num(23), num(9),
                            txt("pool"), num(12), num(21),
                            Cell{}, Cell{}, Cell{}});
@@ -136,12 +128,12 @@ TEST(CompareCounts, ReadsABlockWithNamesAndRefusesBadCounts) {
         }
         return std::string("no refusal");
     };
-    EXPECT_EQ(refusal_of(block(2, 2, {num(3), num(-1), num(2), num(4)})),
+    EXPECT_EQ(refusal_of(block_from_b2(2, 2, {num(3), num(-1), num(2), num(4)})),
               "C2 holds a negative count (-1); counts must be 0 or more");
-    EXPECT_EQ(refusal_of(block(2, 2, {num(3), num(1.5), num(2), num(4)})),
+    EXPECT_EQ(refusal_of(block_from_b2(2, 2, {num(3), num(1.5), num(2), num(4)})),
               "C2 holds 1.5; counts must be whole numbers (use the raw counts, not percentages)");
-    EXPECT_EQ(refusal_of(block(2, 2, {num(3), num(1), Cell{}, num(4)})), "B3 is empty; a count of none is entered as 0");
-    EXPECT_EQ(refusal_of(block(2, 2, {num(3), num(1), Cell::make_error("#DIV/0!"), num(4)})), "B3 holds an error (#DIV/0!)");
+    EXPECT_EQ(refusal_of(block_from_b2(2, 2, {num(3), num(1), Cell{}, num(4)})), "B3 is empty; a count of none is entered as 0");
+    EXPECT_EQ(refusal_of(block_from_b2(2, 2, {num(3), num(1), Cell::make_error("#DIV/0!"), num(4)})), "B3 holds an error (#DIV/0!)");
 }
 
 TEST(CompareCounts, RefusesTablesWithoutTwoCategoriesEachWay) {
@@ -206,22 +198,22 @@ TEST(CompareExpected, OverflowingCountsAreRefused) {
 }
 
 TEST(CompareExpected, ReadsHeaderAndDropsMissingCategories) {
-    Range observed = block(5, 1, {txt("voles"), num(58), num(42), Cell{}, Cell{}});
+    Range observed = block_from_b2(5, 1, {txt("voles"), num(58), num(42), Cell{}, Cell{}});
     Range ratio = Range::omitted_argument();
     const ExpectedInput in = read_expected_input(observed, ratio);
     EXPECT_EQ(in.observed, (std::vector<double>{58, 42}));
     EXPECT_TRUE(in.expected.empty());
 
-    Range obs2 = block(3, 1, {num(10), txt("n/a"), num(12)});
-    Range exp2 = block(1, 3, {num(1), num(1), num(2)});
+    Range obs2 = block_from_b2(3, 1, {num(10), txt("n/a"), num(12)});
+    Range exp2 = block_from_b2(1, 3, {num(1), num(1), num(2)});
     const ExpectedInput in2 = read_expected_input(obs2, exp2);
     EXPECT_EQ(in2.observed, (std::vector<double>{10, 12}));
     EXPECT_EQ(in2.expected, (std::vector<double>{1, 2}));
     EXPECT_EQ(in2.n_dropped, 1u);
 
-    EXPECT_THROW(read_expected_input(block(2, 1, {num(3), num(-2)}), ratio), Refusal);
-    EXPECT_THROW(read_expected_input(obs2, block(1, 2, {num(1), num(1)})), Refusal);
-    EXPECT_THROW(read_expected_input(block(2, 1, {num(3), num(2)}), block(2, 1, {num(1), num(0)})), Refusal);
+    EXPECT_THROW(read_expected_input(block_from_b2(2, 1, {num(3), num(-2)}), ratio), Refusal);
+    EXPECT_THROW(read_expected_input(obs2, block_from_b2(1, 2, {num(1), num(1)})), Refusal);
+    EXPECT_THROW(read_expected_input(block_from_b2(2, 1, {num(3), num(2)}), block_from_b2(2, 1, {num(1), num(0)})), Refusal);
     EXPECT_THROW(compare_expected({7}, {}, 0), Refusal);
     EXPECT_THROW(compare_expected({0, 0}, {}, 0), Refusal);
 }

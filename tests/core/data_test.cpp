@@ -4,9 +4,13 @@
 
 #include "core/data.hpp"
 #include "core/refusal.hpp"
+#include "sheet_cells.hpp"
 
 namespace quadrat {
 namespace {
+
+using test_support::num;
+using test_support::txt;
 
 Range mixed_column(const std::vector<Cell>& cells, std::size_t first_row = 1, std::size_t first_column = 1) {
     Range r;
@@ -18,9 +22,6 @@ Range mixed_column(const std::vector<Cell>& cells, std::size_t first_row = 1, st
     r.first_column = first_column;
     return r;
 }
-
-Cell num(double x) { return Cell::make_number(x); }
-Cell txt(const char* s) { return Cell::make_text(s); }
 
 TEST(MissingMarkers, AreRecognisedInAnyCaseAndWithSpaces) {
     for (const char* m : {"", "n/a", "N/A", "na", "NA", "-", "\xE2\x80\x94", "?", "missing", "Missing", " n/a "})

@@ -10,6 +10,7 @@
 
 #include "addin/registry.hpp"
 #include "reference.hpp"
+#include "sheet_cells.hpp"
 
 using namespace quadrat::test_support;
 
@@ -32,9 +33,6 @@ Range block(const std::vector<std::vector<Cell>>& rows) {
 }
 
 Range keyword(const char* k) { return Range::scalar(Cell::make_text(k)); }
-Cell num(double x) { return Cell::make_number(x); }
-Cell txt(const char* s) { return Cell::make_text(s); }
-
 Table call(const char* method, const addin::Arguments& args) {
     const auto* f = addin::find_function(method);
     EXPECT_NE(f, nullptr) << method;

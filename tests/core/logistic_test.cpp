@@ -8,6 +8,7 @@
 #include "core/logistic.hpp"
 #include "core/refusal.hpp"
 #include "reference.hpp"
+#include "sheet_cells.hpp"
 
 using namespace quadrat::test_support;
 
@@ -16,9 +17,6 @@ namespace {
 
 const nlohmann::json& reference() { return reference_file("categorical.json"); }
 
-
-Cell num(double x) { return Cell::make_number(x); }
-Cell txt(const std::string& s) { return Cell::make_text(s); }
 
 // A referenced block starting at A2 from columns of cells.
 Range block(const std::vector<std::vector<Cell>>& columns) {

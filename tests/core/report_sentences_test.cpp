@@ -15,11 +15,15 @@
 #include "core/cells.hpp"
 #include "core/report.hpp"
 #include "reference.hpp"
+#include "sheet_cells.hpp"
 
 namespace quadrat::addin {
 namespace {
 
+using quadrat::test_support::block;
+using quadrat::test_support::num;
 using quadrat::test_support::reference_file;
+using quadrat::test_support::txt;
 
 const Range omitted = Range::omitted_argument();
 Range text(const std::string& s) { return Range::scalar(Cell::make_text(s)); }
@@ -47,15 +51,6 @@ LongTable long_table(const std::string& value_header, const std::vector<std::pai
             labels.push_back(label);
         }
     return {numbers_with_header(value_header, values), Range::text_column(labels)};
-}
-
-Range block(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
-    Range r;
-    r.rows = rows;
-    r.columns = columns;
-    r.cells = std::move(cells);
-    r.is_reference = true;
-    return r;
 }
 
 Table call(const char* method, const Arguments& a) {
@@ -330,9 +325,6 @@ TEST(ReportSentence, Variance) {
 }
 
 // ---------------------------------------------------------------- COMPARE.COUNTS, COMPARE.EXPECTED
-
-Cell num(double x) { return Cell::make_number(x); }
-Cell txt(const char* s) { return Cell::make_text(s); }
 
 // Mayfly found / not found in kick samples, riffle and pool.
 Range mayfly_block() {
