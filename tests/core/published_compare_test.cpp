@@ -14,6 +14,7 @@
 #include <cmath>
 #include <iomanip>
 #include <iostream>
+#include <limits>
 #include <nlohmann/json.hpp>
 #include <optional>
 #include <tuple>
@@ -61,22 +62,42 @@ Groups sheet_groups_of(const nlohmann::json& c) {
 // ---------------------------------------------------------------------------------------------
 // COMPARE.GROUPS, pooled: the classic one-way ANOVA
 
+// A one-way ANOVA table as a source prints it: each figure held to half a unit in its last digit,
+// by ours and by the library's value (generator) alike. SS total only where it is printed.
+struct PrintedAnova {
+    double ss_between, ss_within, ss_total = std::numeric_limits<double>::quiet_NaN();
+    double ms_between, ms_within, f;
+    double half_unit;                 // of the sums and means of squares
+    double f_half_unit = half_unit;   // of F, where it is printed to fewer decimals
+    double df_between, df_within;
+};
+
+AnovaTable expect_printed_anova(const nlohmann::json& c, const PrintedAnova& printed) {
+    const AnovaTable t = one_way_anova_table(groups_of(c));
+    const double lib_between = c["ss_between"].get<double>(), lib_within = c["ss_within"].get<double>();
+    expect_printed(t.ss_between, lib_between, printed.ss_between, printed.half_unit, "SS treatments");
+    expect_printed(t.ss_within, lib_within, printed.ss_within, printed.half_unit, "SS error");
+    if (!std::isnan(printed.ss_total))
+        expect_printed(t.ss_between + t.ss_within, lib_between + lib_within, printed.ss_total, printed.half_unit, "SS total");
+    expect_printed(t.ms_between, lib_between / printed.df_between, printed.ms_between, printed.half_unit, "MS treatments");
+    expect_printed(t.ms_within, c["ms_within"].get<double>(), printed.ms_within, printed.half_unit, "MS error");
+    expect_printed(t.f, c["f"].get<double>(), printed.f, printed.f_half_unit, "F");
+    EXPECT_EQ(t.df_between, printed.df_between);
+    EXPECT_EQ(t.df_within, printed.df_within);
+    return t;
+}
+
+
 // Montgomery (2001), Design and Analysis of Experiments, 5th ed., Wiley, Example 3.1, etch rate at
 // four RF power settings, worked ANOVA table (Table 3.4; from memory): SS treatments 66,870.55,
 // SS error 5,339.20, MS 22,290.18 and 333.70, F₀ = 66.80 on (3, 16) df. Tolerance: half a unit in
 // the last printed digit (0.005).
 TEST(PublishedCompare, MontgomeryEtchRateAnova) {
     const auto& c = published()["oneway"]["etch"];
-    const auto g = groups_of(c);
-    const AnovaTable t = one_way_anova_table(g);
-    expect_printed(t.ss_between, c["ss_between"].get<double>(), 66870.55, 0.005, "SS treatments");
-    expect_printed(t.ss_within, c["ss_within"].get<double>(), 5339.20, 0.005, "SS error");
-    expect_printed(t.ms_between, c["ss_between"].get<double>() / 3, 22290.18, 0.005, "MS treatments");
-    expect_printed(t.ms_within, c["ms_within"].get<double>(), 333.70, 0.005, "MS error");
-    expect_printed(t.f, c["f"].get<double>(), 66.80, 0.005, "F");
-    EXPECT_EQ(t.df_between, 3);
-    EXPECT_EQ(t.df_within, 16);
-    const TestResult r = classic_one_way_anova(g);
+    const AnovaTable t = expect_printed_anova(c, {.ss_between = 66870.55, .ss_within = 5339.20, .ms_between = 22290.18,
+                                                  .ms_within = 333.70, .f = 66.80, .half_unit = 0.005, .df_between = 3,
+                                                  .df_within = 16});
+    const TestResult r = classic_one_way_anova(groups_of(c));
     EXPECT_DOUBLE_EQ(r.number("statistic"), t.f);
     // The same through COMPARE.GROUPS as a sheet hands it over (long format, method pooled).
     const TestResult sheet = compare_groups(sheet_groups_of(c), "pooled", Transform::none);
@@ -87,17 +108,10 @@ TEST(PublishedCompare, MontgomeryEtchRateAnova) {
 // levels, five observations each; from memory): SS treatments 27.897, SS error 17.452, SS total
 // 45.349, MS 13.949 and 1.454, F = 9.59 on (2, 12) df. Tolerance: half a unit in the last digit.
 TEST(PublishedCompare, NistHandbookOneWayAnova) {
-    const auto& c = published()["oneway"]["nist"];
-    const AnovaTable t = one_way_anova_table(groups_of(c));
-    const double lib_between = c["ss_between"].get<double>(), lib_within = c["ss_within"].get<double>();
-    expect_printed(t.ss_between, lib_between, 27.897, 0.0005, "SS treatments");
-    expect_printed(t.ss_within, lib_within, 17.452, 0.0005, "SS error");
-    expect_printed(t.ss_between + t.ss_within, lib_between + lib_within, 45.349, 0.0005, "SS total");
-    expect_printed(t.ms_between, lib_between / 2, 13.949, 0.0005, "MS treatments");
-    expect_printed(t.ms_within, c["ms_within"].get<double>(), 1.454, 0.0005, "MS error");
-    expect_printed(t.f, c["f"].get<double>(), 9.59, 0.005, "F");
-    EXPECT_EQ(t.df_between, 2);
-    EXPECT_EQ(t.df_within, 12);
+    expect_printed_anova(published()["oneway"]["nist"],
+                         {.ss_between = 27.897, .ss_within = 17.452, .ss_total = 45.349, .ms_between = 13.949,
+                          .ms_within = 1.454, .f = 9.59, .half_unit = 0.0005, .f_half_unit = 0.005, .df_between = 2,
+                          .df_within = 12});
 }
 
 // Montgomery & Runger (2003), Applied Statistics and Probability for Engineers, 3rd ed., Wiley,
@@ -105,15 +119,9 @@ TEST(PublishedCompare, NistHandbookOneWayAnova) {
 // memory): SS treatments 382.79, SS error 130.17, SS total 512.96, MS 127.60 and 6.51, f₀ = 19.61
 // on (3, 20) df. Tolerance: half a unit in the last digit (0.005).
 TEST(PublishedCompare, MontgomeryRungerTensileAnova) {
-    const auto& c = published()["oneway"]["tensile"];
-    const AnovaTable t = one_way_anova_table(groups_of(c));
-    const double lib_between = c["ss_between"].get<double>(), lib_within = c["ss_within"].get<double>();
-    expect_printed(t.ss_between, lib_between, 382.79, 0.005, "SS treatments");
-    expect_printed(t.ss_within, lib_within, 130.17, 0.005, "SS error");
-    expect_printed(t.ss_between + t.ss_within, lib_between + lib_within, 512.96, 0.005, "SS total");
-    expect_printed(t.ms_between, lib_between / 3, 127.60, 0.005, "MS treatments");
-    expect_printed(t.ms_within, c["ms_within"].get<double>(), 6.51, 0.005, "MS error");
-    expect_printed(t.f, c["f"].get<double>(), 19.61, 0.005, "F");
+    expect_printed_anova(published()["oneway"]["tensile"],
+                         {.ss_between = 382.79, .ss_within = 130.17, .ss_total = 512.96, .ms_between = 127.60,
+                          .ms_within = 6.51, .f = 19.61, .half_unit = 0.005, .df_between = 3, .df_within = 20});
 }
 
 // ---------------------------------------------------------------------------------------------
