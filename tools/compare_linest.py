@@ -4,7 +4,7 @@ Run with /usr/bin/python3 (Debian's python3-uno provides the `uno` module):
 
     /usr/bin/python3 tools/compare_linest.py --oxt build/quadrat.oxt --markdown docs/accuracy-linest.md
 
-For each set in shared/reference/nist-strd/linreg/ a sheet of one new hidden Calc document gets y and
+For each set in tests/data/nist-strd/linreg/ a sheet of one new hidden Calc document gets y and
 the predictor columns: Longley its six columns; the polynomial sets (Pontius degree 2, Filip degree
 10, Wampler1–5 degree 5) x, x², …, x^k computed here by repeated binary64 multiplication, the same
 numbers tests/core/strd_linreg_test.cpp hands to the core; Norris and NoInt1/2 the single x. Then
@@ -34,7 +34,7 @@ sys.path.insert(0, HERE)
 
 from office_session import Office, column_name  # noqa: E402
 
-STRD = os.environ.get("QUADRAT_STRD_DIR", "/work/shared/reference/nist-strd")
+STRD = os.path.join(HERE, "..", "tests", "data", "nist-strd")
 SETS = ["Norris", "Pontius", "NoInt1", "NoInt2", "Filip", "Longley",
         "Wampler1", "Wampler2", "Wampler3", "Wampler4", "Wampler5"]
 CAP = 15.0
@@ -249,7 +249,7 @@ def main():
             f.write("# FIT.LINEAR and Calc's LINEST on the NIST StRD linear-regression sets\n\n")
             f.write("Smallest log relative error (digits, capped at 15) over the coefficients and over their "
                     "standard errors, measured in headless Calc cells against the certified values; "
-                    "ceiling = what binary64 inputs allow (shared/reference/nist-strd/README.md).\n\n")
+                    "ceiling = what binary64 inputs allow (tests/data/nist-strd/README.md).\n\n")
             f.write("Produced by tools/compare_linest.py with the built extension: "
                     "`/usr/bin/python3 tools/compare_linest.py --oxt build/quadrat.oxt "
                     "--markdown docs/accuracy-linest.md`\n\n")

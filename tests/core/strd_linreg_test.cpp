@@ -1,22 +1,23 @@
 // NIST StRD linear regression: all 11 sets, every coefficient and standard deviation, the residual
 // SD and R², as log relative errors (LRE) against the certified values in each file's header.
 // Tolerance: LRE ≥ 9 on every set, ≥ 7 on Filip (its binary64 ceiling is 7.6: no double-precision
-// program can reliably do better; ceilings in shared/reference/nist-strd/README.md). Where the
+// program can reliably do better; ceilings in tests/data/nist-strd/README.md). Where the
 // certified value is 0 (Wampler1/2 SDs) the log absolute error is used, as NIST advises.
 #include <gtest/gtest.h>
 
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
-#include <fstream>
-#include <sstream>
 #include <string>
 #include <vector>
 
 #include "core/linear_model.hpp"
+#include "reference.hpp"
 
 namespace quadrat {
 namespace {
+
+using namespace test_support;
 
 struct StrdSet {
     std::vector<double> estimate, sd;  // certified B0.. and their standard deviations
@@ -24,43 +25,21 @@ struct StrdSet {
     std::vector<std::vector<double>> rows;  // data: y then x columns
 };
 
-double parse(const std::string& s) { return std::stod(s); }
-
-StrdSet read_strd(const std::string& name) {
-    std::ifstream in(std::string(QUADRAT_STRD_DIR) + "/linreg/" + name + ".dat");
-    EXPECT_TRUE(in.good()) << name;
+StrdSet read_linreg(const std::string& name) {
+    StrdFile file = read_strd("linreg/" + name);
     StrdSet s;
-    std::string line;
-    int number = 0;
-    while (std::getline(in, line)) {
-        ++number;
-        std::istringstream words(line);
-        std::vector<std::string> w;
-        for (std::string t; words >> t;) w.push_back(t);
-        if (w.empty()) continue;
-        if (number < 60) {
-            if (w.size() == 3 && w[0].size() >= 2 && w[0][0] == 'B' && std::isdigit(static_cast<unsigned char>(w[0][1]))) {
-                s.estimate.push_back(parse(w[1]));
-                s.sd.push_back(parse(w[2]));
-            } else if (w.size() == 3 && w[0] == "Standard" && w[1] == "Deviation") {
-                s.residual_sd = parse(w[2]);
-            } else if (w.size() == 2 && w[0] == "R-Squared") {
-                s.r2 = parse(w[1]);
-            }
-        } else if (number > 60) {
-            std::vector<double> row;
-            for (const auto& t : w) row.push_back(parse(t));
-            s.rows.push_back(row);
-        }
+    for (int j = 0; j <= 10; ++j) {  // B0 (absent without intercept) to B10 (Filip)
+        const auto parameter = file.certified("B" + std::to_string(j));  // estimate, its SD
+        if (parameter.size() != 2) continue;
+        s.estimate.push_back(parameter[0]);
+        s.sd.push_back(parameter[1]);
     }
+    const auto residual_sd = file.certified("Standard Deviation"), r2 = file.certified("R-Squared");
+    EXPECT_TRUE(residual_sd.size() == 1 && r2.size() == 1) << name << ": certified values not found";
+    if (!residual_sd.empty()) s.residual_sd = residual_sd[0];
+    if (!r2.empty()) s.r2 = r2[0];
+    s.rows = std::move(file.rows);
     return s;
-}
-
-// Certified 0 → log absolute error; capped at 15 digits (what NIST prints).
-double lre(double computed, double certified) {
-    const double error = certified == 0 ? std::fabs(computed) : std::fabs(computed - certified) / std::fabs(certified);
-    if (error == 0) return 15.0;
-    return std::min(15.0, -std::log10(error));
 }
 
 struct Ceiling {
@@ -69,7 +48,7 @@ struct Ceiling {
 };
 
 TEST(StrdLinearRegression, AllElevenSetsReachTheirDigits) {
-    // NIST StRD certified values; ceilings from shared/reference/nist-strd/README.md.
+    // NIST StRD certified values; ceilings from tests/data/nist-strd/README.md.
     const std::vector<Ceiling> sets = {
         {"Norris", 14.1, 13.9, 14.0, 15.0},   {"Pontius", 13.5, 13.8, 13.8, 15.0},  {"NoInt1", 14.7, 15.0, 15.0, 15.0},
         {"NoInt2", 15.0, 14.9, 15.0, 15.0},   {"Filip", 7.6, 7.6, 9.6, 11.8},       {"Longley", 14.6, 14.9, 15.0, 15.0},
@@ -78,7 +57,7 @@ TEST(StrdLinearRegression, AllElevenSetsReachTheirDigits) {
     std::printf("\n%-9s  %-14s  %-14s  %-14s  %-14s\n", "set", "coef (ceil)", "SD (ceil)", "resid SD (ceil)", "R2 (ceil)");
     for (const auto& c : sets) {
         const std::string name = c.name;
-        const StrdSet s = read_strd(name);
+        const StrdSet s = read_linreg(name);
         ASSERT_FALSE(s.rows.empty()) << name;
         const bool no_intercept = name.rfind("NoInt", 0) == 0;
         const std::size_t terms = s.estimate.size();

@@ -1,72 +1,44 @@
 // NIST Statistical Reference Datasets: one-way ANOVA (11 sets) and univariate summary statistics
 // (9 sets). Accuracy is the log relative error LRE = −log10(|computed − certified|/|certified|),
-// capped at 15 (NIST StRD; /work/shared/reference/nist-strd/README.md).
+// capped at 15 (NIST StRD; tests/data/nist-strd/README.md).
 #include <gtest/gtest.h>
 
 #include <cmath>
 #include <cstdio>
-#include <fstream>
 #include <map>
-#include <nlohmann/json.hpp>
-#include <sstream>
 #include <string>
 #include <vector>
 
 #include "core/oneway.hpp"
 #include "core/summary.hpp"
+#include "reference.hpp"
 
 namespace quadrat {
 namespace {
 
-std::vector<std::string> read_lines(const std::string& path) {
-    std::ifstream in(path);
-    std::vector<std::string> lines;
-    for (std::string line; std::getline(in, line);) lines.push_back(line);
-    return lines;
-}
-
-std::vector<std::string> tokens(const std::string& line) {
-    std::istringstream in(line);
-    std::vector<std::string> out;
-    for (std::string t; in >> t;) out.push_back(t);
-    return out;
-}
-
-double lre(double computed, double certified) {
-    if (computed == certified) return 15.0;
-    if (!std::isfinite(computed)) return 0.0;
-    const double relative = std::fabs(computed - certified) / std::fabs(certified);
-    return std::min(15.0, std::max(0.0, -std::log10(relative)));
-}
+using namespace test_support;
 
 struct AnovaSet {
     std::vector<std::vector<double>> groups;
     double ss_between = 0, ss_within = 0, f = 0;
 };
 
-// Certified values found by keyword (AtmWtAg's sit one line lower than its header says); data
-// after the last "Data:" caption, as treatment/response pairs.
-AnovaSet read_anova(const std::string& path) {
-    const auto lines = read_lines(path);
+// Certified values from the "Between" (df, SS, MS, F) and "Within" (df, SS, MS) rows; the data as
+// treatment/response pairs.
+AnovaSet read_anova(const std::string& name) {
+    const StrdFile file = read_strd("anova/" + name);
     AnovaSet s;
-    std::size_t data_start = 0;
-    std::map<int, std::size_t> group_of;
-    for (std::size_t i = 0; i < lines.size(); ++i) {
-        const auto t = tokens(lines[i]);
-        if (!t.empty() && t[0] == "Between" && t.size() >= 6) {
-            s.ss_between = std::stod(t[t.size() - 3]);
-            s.f = std::stod(t[t.size() - 1]);
-        }
-        if (!t.empty() && t[0] == "Within" && t.size() >= 5) s.ss_within = std::stod(t[t.size() - 2]);
-        if (lines[i].rfind("Data:", 0) == 0) data_start = i + 1;
+    if (const auto between = file.certified("Between"); between.size() == 4) {
+        s.ss_between = between[1];
+        s.f = between[3];
     }
-    for (std::size_t i = data_start; i < lines.size(); ++i) {
-        const auto t = tokens(lines[i]);
-        if (t.size() != 2) continue;
-        const int treatment = std::stoi(t[0]);
-        auto [it, inserted] = group_of.try_emplace(treatment, s.groups.size());
+    if (const auto within = file.certified("Within"); within.size() == 3) s.ss_within = within[1];
+    std::map<double, std::size_t> group_of;
+    for (const auto& row : file.rows) {
+        if (row.size() != 2) continue;
+        auto [it, inserted] = group_of.try_emplace(row[0], s.groups.size());
         if (inserted) s.groups.emplace_back();
-        s.groups[it->second].push_back(std::stod(t[1]));
+        s.groups[it->second].push_back(row[1]);
     }
     return s;
 }
@@ -92,8 +64,9 @@ TEST(StrdAnova, WithinThreeTenthsOfCeiling) {
     std::printf("\n  NIST StRD one-way ANOVA: LRE (ceiling)\n");
     std::printf("  %-8s %-14s %-14s %-14s\n", "set", "F", "SS between", "SS within");
     for (const auto& [name, ceiling] : anova_ceilings()) {
-        const AnovaSet s = read_anova(std::string(QUADRAT_STRD_DIR) + "/anova/" + name + ".dat");
+        const AnovaSet s = read_anova(name);
         ASSERT_GE(s.groups.size(), 2u) << name;
+        ASSERT_TRUE(s.f != 0 && s.ss_between != 0 && s.ss_within != 0) << name << ": certified values not found";
         const AnovaTable t = one_way_anova_table(s.groups);
         const double f = lre(t.f, s.f), between = lre(t.ss_between, s.ss_between), within = lre(t.ss_within, s.ss_within);
         std::printf("  %-8s %5.2f (%4.1f)   %5.2f (%4.1f)   %5.2f (%4.1f)\n", name.c_str(), f, ceiling.f, between,
@@ -111,25 +84,17 @@ TEST(StrdAnova, WithinThreeTenthsOfCeiling) {
 // of the exact mean and SD of the binary64 inputs) is computed with exact rational arithmetic by
 // tests/reference/generate_compare.py; the target is within 0.3 of it.
 TEST(StrdUnivariate, MeanAndSdWithinThreeTenthsOfCeiling) {
-    std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/compare.json");
-    const auto ceilings = nlohmann::json::parse(in)["strd_univariate_ceiling"];
+    const auto& ceilings = reference_file("compare.json")["strd_univariate_ceiling"];
     std::printf("\n  NIST StRD univariate: LRE (ceiling)\n  %-9s %-14s %-14s\n", "set", "mean", "SD");
     for (const auto& [name, ceiling] : ceilings.items()) {
-        const auto lines = read_lines(std::string(QUADRAT_STRD_DIR) + "/univariate/" + name + ".dat");
-        double certified_mean = 0, certified_sd = 0;
-        std::size_t start = 0;
-        for (std::size_t i = 0; i < lines.size(); ++i) {
-            const auto& l = lines[i];
-            if (l.find("ybar:") != std::string::npos) certified_mean = std::stod(l.substr(l.find("ybar:") + 5));
-            if (l.find("Deviation") != std::string::npos && l.find(" s:") != std::string::npos)
-                certified_sd = std::stod(l.substr(l.find(" s:") + 3));
-            if (l.rfind("Data: Y", 0) == 0) start = i + 2;
-        }
+        const StrdFile file = read_strd("univariate/" + name);
+        const auto certified_mean = file.certified("Sample Mean"), certified_sd = file.certified("Sample Standard Deviation");
+        ASSERT_EQ(certified_mean.size(), 1u) << name;
+        ASSERT_EQ(certified_sd.size(), 1u) << name;
         std::vector<double> xs;
-        for (std::size_t i = start; i < lines.size(); ++i)
-            if (!tokens(lines[i]).empty()) xs.push_back(std::stod(tokens(lines[i])[0]));
+        for (const auto& row : file.rows) xs.push_back(row.at(0));
         ASSERT_EQ(xs.size(), ceiling["n"].get<std::size_t>()) << name;
-        const double m = lre(mean(xs), certified_mean), sd = lre(standard_deviation(xs), certified_sd);
+        const double m = lre(mean(xs), certified_mean[0]), sd = lre(standard_deviation(xs), certified_sd[0]);
         std::printf("  %-9s %5.2f (%4.1f)   %5.2f (%4.1f)\n", name.c_str(), m, ceiling["mean"].get<double>(), sd,
                     ceiling["sd"].get<double>());
         char property[64];

@@ -276,8 +276,7 @@ def strd_univariate_ceilings():
     regression only). Exact rational arithmetic (fractions), square root in 50-digit decimal."""
     from decimal import Decimal, getcontext
     getcontext().prec = 50
-    folder = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..", "..", "shared",
-                          "reference", "nist-strd", "univariate")
+    folder = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "data", "nist-strd", "univariate")
     out = {}
     for name in sorted(os.listdir(folder)):
         if not name.endswith(".dat"):
