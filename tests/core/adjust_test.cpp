@@ -2,20 +2,17 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
-#include <fstream>
 #include <nlohmann/json.hpp>
 
 #include "addin/registry.hpp"
 #include "core/adjust.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
 
 namespace quadrat {
 namespace {
 
-nlohmann::json reference() {
-    std::ifstream in(QUADRAT_REFERENCE_DIR "/posthoc.json");
-    return nlohmann::json::parse(in);
-}
+const nlohmann::json& reference() { return test_support::reference_file("posthoc.json"); }
 
 // statsmodels 0.13 multipletests (tests/reference/generate_posthoc.py) on invented and seeded
 // families, including ties, p = 0 and p = 1. Every method is a closed form of sorted p-values, so

@@ -4,29 +4,22 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
-#include <fstream>
 #include <nlohmann/json.hpp>
 
 #include "addin/registry.hpp"
 #include "core/describe.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
 
 namespace quadrat {
 namespace {
 
-nlohmann::json load_reference(const char* name) {
-    std::ifstream in(std::string(QUADRAT_REFERENCE_DIR) + "/" + name);
-    return nlohmann::json::parse(in);
-}
+using namespace test_support;
 
 double number_at(const Table& t, std::size_t row, std::size_t column) { return std::get<double>(t.at(row).at(column)); }
 
-void expect_close(double actual, double expected, double relative, const std::string& what) {
-    EXPECT_LE(std::fabs(actual - expected), relative * std::fabs(expected)) << what << ": " << actual << " vs " << expected;
-}
-
 TEST(DescribeGroups, MatchesNumPyAndMpmath) {
-    const auto reference = load_reference("describe.json");
+    const auto& reference = reference_file("describe.json");
     for (const auto& c : reference["cases"]) {
         Groups g;
         for (const auto& group : c["groups"]) {
@@ -42,16 +35,16 @@ TEST(DescribeGroups, MatchesNumPyAndMpmath) {
             const std::string what = std::string(c["data"]) + "/" + std::string(c["transform"]) + "/" + g.names[i];
             // Closed forms on a few values: agreement to 1e-12 relative (rounding only).
             EXPECT_EQ(number_at(table, i + 1, 1), r["n"].get<double>());
-            expect_close(number_at(table, i + 1, 2), r["centre"], 1e-12, what + " centre");
-            expect_close(number_at(table, i + 1, 7), r["median"], 1e-12, what + " median");
-            expect_close(number_at(table, i + 1, 8), r["minimum"], 0, what + " minimum");
-            expect_close(number_at(table, i + 1, 9), r["maximum"], 0, what + " maximum");
+            expect_relative(number_at(table, i + 1, 2), r["centre"], 1e-12, what + " centre");
+            expect_relative(number_at(table, i + 1, 7), r["median"], 1e-12, what + " median");
+            expect_relative(number_at(table, i + 1, 8), r["minimum"], 0, what + " minimum");
+            expect_relative(number_at(table, i + 1, 9), r["maximum"], 0, what + " maximum");
             if (r.contains("sd")) {
-                expect_close(number_at(table, i + 1, 3), r["sd"], 1e-12, what + " SD");
-                expect_close(number_at(table, i + 1, 4), r["se"], 1e-12, what + " SE");
+                expect_relative(number_at(table, i + 1, 3), r["sd"], 1e-12, what + " SD");
+                expect_relative(number_at(table, i + 1, 4), r["se"], 1e-12, what + " SE");
                 // Student t quantile from Boost.Math against mpmath at 40 digits: rounding only, 1e-12.
-                expect_close(number_at(table, i + 1, 5), r["ci_low"], 1e-12, what + " ci-low");
-                expect_close(number_at(table, i + 1, 6), r["ci_high"], 1e-12, what + " ci-high");
+                expect_relative(number_at(table, i + 1, 5), r["ci_low"], 1e-12, what + " ci-low");
+                expect_relative(number_at(table, i + 1, 6), r["ci_high"], 1e-12, what + " ci-high");
             } else {
                 // A single value has no SD: the cells are blank, not 0 and not an error.
                 EXPECT_TRUE(std::holds_alternative<std::monostate>(table[i + 1][3])) << what;

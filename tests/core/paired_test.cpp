@@ -19,10 +19,7 @@ const nlohmann::json& reference() { return reference_file("compare.json"); }
 
 void expect_matches(const TestResult& r, const nlohmann::json& ref, double tolerance) {
     for (const char* key : {"statistic", "df", "p", "n", "estimate", "ci-low", "ci-high", "effect"})
-        if (ref.contains(key)) {
-            const double expected = ref[key].get<double>();
-            EXPECT_NEAR(r.number(key), expected, tolerance * std::max(1.0, std::fabs(expected))) << key;
-        }
+        if (ref.contains(key)) expect_relative(r.number(key), ref[key].get<double>(), tolerance, key, 1.0);
 }
 
 PairedReadings readings_of(const nlohmann::json& c) {

@@ -3,21 +3,18 @@
 
 #include <chrono>
 #include <cmath>
-#include <fstream>
 #include <nlohmann/json.hpp>
 
 #include "addin/registry.hpp"
 #include "core/data.hpp"
 #include "core/posthoc.hpp"
 #include "core/refusal.hpp"
+#include "reference.hpp"
 
 namespace quadrat {
 namespace {
 
-nlohmann::json cases() {
-    std::ifstream in(QUADRAT_REFERENCE_DIR "/posthoc.json");
-    return nlohmann::json::parse(in)["posthoc"];
-}
+const nlohmann::json& cases() { return test_support::reference_file("posthoc.json")["posthoc"]; }
 
 // Long format: one value column and one label column, in group order.
 Groups groups_of(const nlohmann::json& c) {

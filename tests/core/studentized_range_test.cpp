@@ -4,7 +4,6 @@
 
 #include <cmath>
 #include <cstdio>
-#include <fstream>
 #include <limits>
 #include <nlohmann/json.hpp>
 
@@ -12,15 +11,15 @@
 
 #include "core/refusal.hpp"
 #include "core/studentized_range.hpp"
+#include "reference.hpp"
 
 namespace quadrat {
 namespace {
 
 constexpr double infinity = std::numeric_limits<double>::infinity();
 
-nlohmann::json studentized_range_reference() {
-    std::ifstream in(QUADRAT_REFERENCE_DIR "/posthoc.json");
-    return nlohmann::json::parse(in)["studentized_range"];
+const nlohmann::json& studentized_range_reference() {
+    return test_support::reference_file("posthoc.json")["studentized_range"];
 }
 
 double df_of(const nlohmann::json& df) { return df.is_string() ? infinity : df.get<double>(); }
@@ -65,8 +64,7 @@ TEST(StudentizedRange, AgreesWithScipyOnTheGrid) {
 // small upper tails where SciPy has few digits, down to 1.4e-22 (k = 100, q = 15). Tolerance 1e-9
 // relative (the 20-digit difference form keeps about 12 digits of a 1e-8 tail).
 TEST(StudentizedRange, SmallTailsAgreeWithMpmath) {
-    std::ifstream in(QUADRAT_REFERENCE_DIR "/posthoc.json");
-    const auto ref = nlohmann::json::parse(in)["studentized_range_mpmath"];
+    const auto& ref = test_support::reference_file("posthoc.json")["studentized_range_mpmath"];
     ASSERT_FALSE(ref.empty());
     double worst = 0.0;
     for (const auto& point : ref) {

@@ -22,14 +22,9 @@ const nlohmann::json& reference() { return reference_file("compare.json"); }
 
 std::vector<double> numbers(const nlohmann::json& j) { return j.get<std::vector<double>>(); }
 
-// Relative agreement (absolute near zero).
-void expect_close(double computed, double expected, double tolerance, const std::string& what) {
-    EXPECT_NEAR(computed, expected, tolerance * std::max(1.0, std::fabs(expected))) << what;
-}
-
 void expect_matches(const TestResult& r, const nlohmann::json& ref, double tolerance) {
     for (const char* key : {"statistic", "df", "p", "estimate", "ci-low", "ci-high", "effect"})
-        if (ref.contains(key)) expect_close(r.number(key), ref[key].get<double>(), tolerance, key);
+        if (ref.contains(key)) expect_relative(r.number(key), ref[key].get<double>(), tolerance, key, 1.0);
 }
 
 Groups two_groups(const std::vector<double>& a, const std::vector<double>& b, std::size_t dropped = 0) {
@@ -78,17 +73,17 @@ TEST(TwoGroups, TransformsBackToRatioOrStayOnScale) {
     const Groups g = two_groups(numbers(c["first"]), numbers(c["second"]));
     const TestResult log = compare_groups(g, "welch", Transform::log);
     const auto& ref = c["welch_log"];
-    expect_close(log.number("statistic"), ref["statistic"].get<double>(), 1e-10, "t");
-    expect_close(log.number("estimate"), std::exp(ref["estimate"].get<double>()), 1e-10, "ratio");
-    expect_close(log.number("ci-low"), std::exp(ref["ci-low"].get<double>()), 1e-10, "ratio low");
-    expect_close(log.number("ci-high"), std::exp(ref["ci-high"].get<double>()), 1e-10, "ratio high");
+    expect_relative(log.number("statistic"), ref["statistic"].get<double>(), 1e-10, "t", 1.0);
+    expect_relative(log.number("estimate"), std::exp(ref["estimate"].get<double>()), 1e-10, "ratio", 1.0);
+    expect_relative(log.number("ci-low"), std::exp(ref["ci-low"].get<double>()), 1e-10, "ratio low", 1.0);
+    expect_relative(log.number("ci-high"), std::exp(ref["ci-high"].get<double>()), 1e-10, "ratio high", 1.0);
     // The ratio of geometric means is the same whichever log base the test ran on
     // (common practice, no source: log10 differences are natural-log differences over ln 10).
     const TestResult log10 = compare_groups(g, "welch", Transform::log10);
-    expect_close(log10.number("estimate"), log.number("estimate"), 1e-12, "log10 ratio");
-    expect_close(log10.number("p"), c["welch_log10"]["p"].get<double>(), 1e-10, "log10 p");
+    expect_relative(log10.number("estimate"), log.number("estimate"), 1e-12, "log10 ratio", 1.0);
+    expect_relative(log10.number("p"), c["welch_log10"]["p"].get<double>(), 1e-10, "log10 p", 1.0);
     const TestResult sq = compare_groups(g, "welch", Transform::sqrt);
-    expect_close(sq.number("estimate"), c["welch_sqrt"]["estimate"].get<double>(), 1e-10, "sqrt estimate");
+    expect_relative(sq.number("estimate"), c["welch_sqrt"]["estimate"].get<double>(), 1e-10, "sqrt estimate", 1.0);
     ASSERT_NE(sq.find("transform"), nullptr);
     EXPECT_NE(std::get<std::string>(*sq.find("transform")).find("sqrt scale"), std::string::npos);
     EXPECT_NE(log.report.find("ratio of geometric means"), std::string::npos) << log.report;
@@ -189,13 +184,13 @@ TEST(RankSum, AgreesWithScipyAndBruteForce) {
         const auto& c = reference()["cases"][name];
         const TestResult r = rank_sum_test(numbers(c["first"]), numbers(c["second"]), 0.95);
         const auto& ref = c["ranks"];
-        expect_close(r.number("statistic"), ref["statistic"].get<double>(), 1e-12, "U1");
-        expect_close(r.number("p"), ref["p"].get<double>(), 1e-10, "p");
-        expect_close(r.number("estimate"), ref["estimate"].get<double>(), 1e-12, "HL");
-        expect_close(r.number("effect"), ref["effect"].get<double>(), 1e-12, "r");
+        expect_relative(r.number("statistic"), ref["statistic"].get<double>(), 1e-12, "U1", 1.0);
+        expect_relative(r.number("p"), ref["p"].get<double>(), 1e-10, "p", 1.0);
+        expect_relative(r.number("estimate"), ref["estimate"].get<double>(), 1e-12, "HL", 1.0);
+        expect_relative(r.number("effect"), ref["effect"].get<double>(), 1e-12, "r", 1.0);
         ASSERT_TRUE(ref.contains("ci-low"));
-        expect_close(r.number("ci-low"), ref["ci-low"].get<double>(), 1e-12, "ci-low");
-        expect_close(r.number("ci-high"), ref["ci-high"].get<double>(), 1e-12, "ci-high");
+        expect_relative(r.number("ci-low"), ref["ci-low"].get<double>(), 1e-12, "ci-low", 1.0);
+        expect_relative(r.number("ci-high"), ref["ci-high"].get<double>(), 1e-12, "ci-high", 1.0);
     }
 }
 

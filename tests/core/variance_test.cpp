@@ -40,8 +40,6 @@ Groups make_groups(std::vector<std::string> names, std::vector<std::vector<doubl
     return g;
 }
 
-double relative_error(double got, double want) { return std::fabs(got - want) / std::fabs(want); }
-
 std::string refusal_text(auto&& call) {
     try {
         call();
