@@ -120,18 +120,27 @@ std::vector<double> BlockLayout::column(std::size_t group) const {
     return out;
 }
 
+LabelledReadings index_readings(std::span<const double> values, std::span<const std::string> groups,
+                                std::span<const std::string> structure, const std::string& structure_name) {
+    const std::size_t n = values.size();
+    if (groups.size() != n || structure.size() != n)
+        throw Refusal("values, groups and " + structure_name + "s must have the same number of rows");
+    if (n == 0)
+        throw Refusal("no row has a value with both a group and a " + structure_name + " label; values needs numbers, groups and " +
+                      structure_name + "s labels in the same rows");
+    require_finite(values);
+    LabelledReadings out{LabelIndex(groups), LabelIndex(structure)};
+    if (out.groups.names.size() < 2)
+        throw Refusal("needs at least 2 groups, found 1 (" + out.groups.names[0] +
+                      "); groups holds the label of each reading's group");
+    return out;
+}
+
 BlockLayout lay_out_blocks(const BlockReadings& in) {
     const std::size_t n = in.values.size();
-    if (in.groups.size() != n || in.blocks.size() != n)
-        throw Refusal("values, groups and blocks must have the same number of rows");
-    if (n == 0)
-        throw Refusal("no row has a value with both a group and a block label; values needs numbers, groups and "
-                      "blocks labels in the same rows");
-    require_finite(in.values);
-    const LabelIndex group(in.groups), block(in.blocks);
+    const LabelledReadings labels = index_readings(in.values, in.groups, in.blocks, "block");
+    const LabelIndex &group = labels.groups, &block = labels.structure;
     const std::size_t k = group.names.size(), blocks = block.names.size();
-    if (k < 2)
-        throw Refusal("needs at least 2 groups, found 1 (" + group.names[0] + "); groups holds the label of each reading's group");
     if (blocks < 2)
         throw Refusal("all readings are in one block (" + block.names[0] +
                       "); a block design compares groups within at least 2 blocks — with independent groups use COMPARE.GROUPS");

@@ -23,6 +23,15 @@ struct LabelIndex {
     explicit LabelIndex(std::span<const std::string> labels);
 };
 
+// The three columns of a labelled layout — values, groups, and blocks or units — checked and indexed:
+// the same number of rows, at least one row, finite values, at least 2 groups (else a refusal that
+// names `structure_name`: "block" or "unit").
+struct LabelledReadings {
+    LabelIndex groups, structure;
+};
+LabelledReadings index_readings(std::span<const double> values, std::span<const std::string> groups,
+                                std::span<const std::string> structure, const std::string& structure_name);
+
 // The readings as read from the sheet: three columns of the same length (rows with a missing cell
 // already left out and counted in n_dropped).
 struct BlockReadings {

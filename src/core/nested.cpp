@@ -37,16 +37,9 @@ std::string nested_report(const TestResult& r, std::size_t units, bool unequal) 
 
 TestResult compare_nested(const NestedReadings& in) {
     const std::size_t n = in.values.size();
-    if (in.groups.size() != n || in.units.size() != n)
-        throw Refusal("values, groups and units must have the same number of rows");
-    if (n == 0)
-        throw Refusal("no row has a value with both a group and a unit label; values needs numbers, groups and units "
-                      "labels in the same rows");
-    require_finite(in.values);
-    const LabelIndex group(in.groups), unit(in.units);
+    const LabelledReadings labels = index_readings(in.values, in.groups, in.units, "unit");
+    const LabelIndex &group = labels.groups, &unit = labels.structure;
     const std::size_t a = group.names.size(), u_count = unit.names.size();
-    if (a < 2)
-        throw Refusal("needs at least 2 groups, found 1 (" + group.names[0] + "); groups holds the label of each reading's group");
 
     // Each unit belongs to one group; readings summed per unit (scaled by a power of two, exact).
     constexpr std::size_t unseen = static_cast<std::size_t>(-1);
