@@ -423,13 +423,16 @@ std::string censored_report(const TestResult& r, const CensoredGroups& groups, s
 // 1970, Biometrika 57, 579–594); `peto-prentice`, w = Ŝ(v−), the pooled Kaplan–Meier estimate just
 // before v in flipped order (Peto & Peto 1972, JRSS A 135, 185–207; Prentice 1978, Biometrika 65,
 // 167–179; in this weighted form the G^ρ test with ρ = 1 of Harrington & Fleming 1982, Biometrika
-// 69, 553–566). O(n log n + T·k²) for T distinct detected values.
+// 69, 553–566). O(n log n + n·k + k³).
 TestResult compare_censored(const CensoredGroups& groups, const std::string& method_given) {
     const std::string method = match_keyword(method_given, {"peto-prentice", "gehan"}, "method");
     require_some_values(groups);
     const std::size_t k = groups.names.size();
     if (k < 2)
         throw Refusal("groups has " + count_of(k, "label") + "; COMPARE.CENSORED compares two or more groups");
+    // The score test's variance is a (k − 1)² matrix built over every observation: beyond 100 groups
+    // it would take seconds in a cell, and a χ² over so many groups says little anyway.
+    if (k > 100) throw Refusal("groups has " + count_of(k, "label") + "; COMPARE.CENSORED compares up to 100 groups");
     for (std::size_t g = 0; g < k; ++g)
         if (groups.values[g].empty()) throw Refusal(groups.names[g] + " has no values to compare");
     refuse_beyond_scale(groups);
@@ -451,60 +454,87 @@ TestResult compare_censored(const CensoredGroups& groups, const std::string& met
         throw Refusal("every value is below a detection limit; the groups can only be compared on detected values");
     std::sort(all.begin(), all.end(), [](const Observation& a, const Observation& b) { return a.value > b.value; });
 
+    // A group whose values are all limits above every detect is never at risk at a detected value.
+    double top_detect = -HUGE_VAL;
+    for (const auto& o : all)
+        if (!o.censored) top_detect = std::max(top_detect, o.value);
+    for (std::size_t g = 0; g < k; ++g) {
+        const auto& v = groups.values[g];
+        const auto lowest = std::min_element(v.begin(), v.end(), [](const CensoredValue& x, const CensoredValue& y) { return x.value < y.value; });
+        if (lowest->value > top_detect)
+            throw Refusal(groups.names[g] + " holds only values below limits above every detected value (" +
+                          limit_text(lowest->value) + " and up): they cannot be ranked against any detect; leave " +
+                          groups.names[g] + " out or ask the lab for lower limits");
+    }
+
+    // The sums run lazily so that the sweep costs O(n·k), not O(T·k²): b_g changes only when one
+    // of g's observations leaves, so Σ_j w·m·b_g/b, Σ_j c_j·b_g/b and Σ_j c_j·b_g·b_h/b²
+    // (c_j = w² m(b − m)/(b − 1)) are taken as b_g (or b_g·b_h) times a stretch of the running
+    // sums Σ w·m/b, Σ c/b and Σ c/b², settled whenever b_g is about to change.
     const bool gehan = method == "gehan";
     const std::size_t d = k - 1;
-    std::vector<double> at_risk(k, 0.0), detects(k, 0.0);
+    std::vector<double> at_risk(k, 0.0);
     for (const auto& o : all) at_risk[o.group] += 1;
     double total_at_risk = static_cast<double>(all.size());
     double survival_before = 1.0;  // pooled Kaplan–Meier just before the current value (flipped order)
-    std::vector<Accumulator> score(d);
-    Eigen::MatrixXd variance = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(d), static_cast<Eigen::Index>(d));
-    std::vector<bool> informative(k, false);  // at risk at some detected value
+    Accumulator expected_sum, diagonal_sum, product_sum;  // Σ w·m/b, Σ c/b, Σ c/b²
+    std::vector<Accumulator> observed(k), expected(k), diagonal(k);
+    std::vector<double> expected_mark(k, 0.0), diagonal_mark(k, 0.0);
+    std::vector<double> product_mark(k * k, 0.0);
+    Eigen::MatrixXd products = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(k), static_cast<Eigen::Index>(k));
+    auto settle = [&](std::size_t g) {
+        const double now_expected = expected_sum.sum(), now_diagonal = diagonal_sum.sum(), now_product = product_sum.sum();
+        expected[g].add(at_risk[g] * (now_expected - expected_mark[g]));
+        diagonal[g].add(at_risk[g] * (now_diagonal - diagonal_mark[g]));
+        expected_mark[g] = now_expected;
+        diagonal_mark[g] = now_diagonal;
+        for (std::size_t h = 0; h < k; ++h) {
+            const std::size_t lo = std::min(g, h), hi = std::max(g, h);
+            double& mark = product_mark[lo * k + hi];
+            products(static_cast<Eigen::Index>(lo), static_cast<Eigen::Index>(hi)) += at_risk[g] * at_risk[h] * (now_product - mark);
+            mark = now_product;
+        }
+    };
 
     std::size_t i = 0;
     while (i < all.size()) {
         const double v = all[i].value;
-        std::fill(detects.begin(), detects.end(), 0.0);
-        double m = 0, leaving = 0;
-        std::size_t start = i;
-        for (; i < all.size() && all[i].value == v; ++i)
-            if (!all[i].censored) {
-                detects[all[i].group] += 1;
-                m += 1;
-            }
+        const std::size_t start = i;
+        double m = 0;
+        for (; i < all.size() && all[i].value == v; ++i) m += all[i].censored ? 0 : 1;
         const double b = total_at_risk;
         if (m > 0 && b > 1) {
             const double w = gehan ? b : survival_before;
-            const double spread = w * w * m * (b - m) / (b - 1);
-            for (std::size_t g = 0; g < k; ++g)
-                if (at_risk[g] > 0) informative[g] = true;
-            for (std::size_t g = 0; g < d; ++g) {
-                score[g].add(w * (detects[g] - at_risk[g] * m / b));
-                const double share_g = at_risk[g] / b;
-                if (share_g == 0) continue;
-                for (std::size_t h = 0; h < d; ++h)
-                    variance(static_cast<Eigen::Index>(g), static_cast<Eigen::Index>(h)) +=
-                        spread * share_g * ((g == h ? 1.0 : 0.0) - at_risk[h] / b);
-            }
+            const double c = w * w * m * (b - m) / (b - 1);
+            expected_sum.add(w * m / b);
+            diagonal_sum.add(c / b);
+            product_sum.add(c / b / b);
+            for (std::size_t j = start; j < i; ++j)
+                if (!all[j].censored) observed[all[j].group].add(w);
         }
         if (m > 0) survival_before *= 1.0 - m / b;
         for (std::size_t j = start; j < i; ++j) {
+            settle(all[j].group);
             at_risk[all[j].group] -= 1;
-            leaving += 1;
         }
-        total_at_risk -= leaving;
+        total_at_risk -= static_cast<double>(i - start);
     }
-    for (std::size_t g = 0; g < k; ++g)
-        if (!informative[g])
-            throw Refusal(groups.names[g] + " holds only values below limits above every detected value (" +
-                          limit_text(limit_range(groups.values[g]).first) +
-                          " and up): they cannot be ranked against any detect; leave " + groups.names[g] +
-                          " out or ask the lab for lower limits");
+
+    // U_g = Σ w·m_g − Σ w·b_g·m/b; V_gh = δ_gh Σ c·b_g/b − Σ c·b_g·b_h/b², over the first k − 1 groups.
+    Eigen::MatrixXd variance(static_cast<Eigen::Index>(d), static_cast<Eigen::Index>(d));
+    Eigen::VectorXd u(static_cast<Eigen::Index>(d));
+    for (std::size_t g = 0; g < d; ++g) {
+        const auto row = static_cast<Eigen::Index>(g);
+        u(row) = observed[g].sum() - expected[g].sum();
+        for (std::size_t h = 0; h < d; ++h) {
+            const auto column = static_cast<Eigen::Index>(h);
+            const double product = products(std::min(row, column), std::max(row, column));
+            variance(row, column) = (g == h ? diagonal[g].sum() : 0.0) - product;
+        }
+    }
 
     // χ² = U'V⁻¹U through the eigen-decomposition of the symmetric V; a direction with no variance
     // is a refusal rather than a huge statistic.
-    Eigen::VectorXd u(static_cast<Eigen::Index>(d));
-    for (std::size_t g = 0; g < d; ++g) u(static_cast<Eigen::Index>(g)) = score[g].sum();
     const Eigen::SelfAdjointEigenSolver<Eigen::MatrixXd> eigen(variance);
     const Eigen::VectorXd lambda = eigen.eigenvalues();
     if (!(lambda.minCoeff() > 1e-12 * lambda.maxCoeff()) || !(lambda.maxCoeff() > 0))

@@ -383,6 +383,12 @@ TEST(CensoredBadInput, Refusals) {
     EXPECT_EQ(refusal_of([&] { compare_censored(CensoredGroups{{"a"}, {{at(1), at(2)}}, 0}, ""); }),
               "groups has 1 label; COMPARE.CENSORED compares two or more groups");
 
+    CensoredGroups many;
+    for (int g = 0; g < 101; ++g) {
+        many.names.push_back("well " + std::to_string(g));
+        many.values.push_back({at(g + 1.0), lt(0.5)});
+    }
+    EXPECT_EQ(refusal_of([&] { compare_censored(many, ""); }), "groups has 101 labels; COMPARE.CENSORED compares up to 100 groups");
     // One detect among censored values in one group, detects elsewhere: the test still runs.
     const CensoredGroups one_detect{{"a", "b"}, {{lt(1), lt(1), at(1.5)}, {at(0.8), at(2), at(3)}}, 0};
     EXPECT_TRUE(std::isfinite(compare_censored(one_detect, "").number("p")));
