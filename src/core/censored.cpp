@@ -58,7 +58,11 @@ void refuse_beyond_scale(const CensoredGroups& groups) {
     std::vector<double> all;
     all.reserve(groups.n_used());
     for (const auto& g : groups.values)
-        for (const auto& v : g) all.push_back(v.value);
+        for (const auto& v : g) {
+            // The cell reader never gives NaN; a caller that did would break every sort below.
+            if (std::isnan(v.value)) throw Refusal("values holds a number that is not a number (NaN)");
+            all.push_back(v.value);
+        }
     refuse_beyond_model_scale(all, "values");
 }
 

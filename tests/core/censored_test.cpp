@@ -408,6 +408,8 @@ TEST(CensoredBadInput, Refusals) {
     EXPECT_NE(refusal_of([&] { describe_censored(huge, "", 0.95); }).find("too large"), std::string::npos);
     EXPECT_NE(refusal_of([&] { compare_censored(huge, ""); }).find("too large"), std::string::npos);
     EXPECT_NE(refusal_of([&] { describe_censored(one_detect, "", 1.5); }).find("level"), std::string::npos);
+    const CensoredGroups not_a_number{{"a", "b"}, {{at(std::nan("")), at(1)}, {at(2), lt(1)}}, 0};
+    EXPECT_NE(refusal_of([&] { compare_censored(not_a_number, ""); }).find("NaN"), std::string::npos);
 }
 
 // Several limits mixed within and across groups, and tiny values: numbers stay finite.
