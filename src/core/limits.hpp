@@ -1,0 +1,64 @@
+// The limits a compliance report asks for (LIMIT.*): the upper confidence limit of a mean, a
+// percentile with its distribution-free upper limit, the share of readings above a standard, and
+// tolerance and prediction limits, normal and distribution-free.
+#pragma once
+
+#include <cstdint>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "result.hpp"
+
+namespace quadrat {
+
+// What every LIMIT.* function returns: the named numbers (`n`, `limit` or `limit-low`/`limit-high`,
+// `k-factor` for the normal methods, …), and which row `estimate` shows (the mean, the percentile,
+// the share), so the table keeps readable row names.
+struct LimitResult {
+    TestResult result;
+    std::string estimate_label;  // the row `estimate` selects; empty when the method has none
+    bool two_sided = false;      // then `limit` is a refusal pointing to limit-low and limit-high
+};
+
+// The outputs of every LIMIT.* function, in the order a refusal lists them.
+const std::vector<std::string>& limit_outputs();
+// What a cell shows for `output`.
+Table select_limit_output(const LimitResult& limit, const std::string& output);
+
+// One-sided upper confidence limit of the mean at `level`. `method`: `t` (mean + t(level, n − 1)·s/√n),
+// `bootstrap` (BCa, Efron 1987, with bootstrap_draws resamples from a fixed seed), `chebyshev`
+// (Cantelli's one-sided inequality: mean + √(1/α − 1)·s/√n). The k-factor is the multiplier of s.
+LimitResult limit_mean(std::span<const double> values, const std::string& method, double level);
+inline constexpr std::size_t bootstrap_draws = 2000;
+
+// The percentile at `fraction` as PERCENTILE.INC computes it (linear interpolation between order
+// statistics) and its distribution-free upper confidence limit: the smallest order statistic
+// x(r) with P(Bin(n, fraction) ≤ r − 1) ≥ level.
+LimitResult limit_percentile(std::span<const double> values, double fraction, double level);
+
+// The share of values above `standard` and its one-sided exact upper confidence limit at `level`
+// (Clopper & Pearson 1934, Biometrika 26, 404–413).
+LimitResult limit_exceedance(std::span<const double> values, double standard, double level);
+
+// The limit that `proportion` of the population stays below (`side` upper), above (lower) or within
+// (two-sided) with confidence `level`; `method` normal or distribution-free.
+LimitResult limit_tolerance(std::span<const double> values, double proportion, double level, const std::string& side,
+                            const std::string& method);
+
+// The limit the next `readings` new readings all stay within with confidence `level`; `method`
+// normal or distribution-free.
+LimitResult limit_prediction(std::span<const double> values, double readings, double level, const std::string& side,
+                             const std::string& method);
+
+// The building blocks, exposed for their tests.
+// Exact one-sided normal tolerance factor: k = t′⁻¹(γ; n − 1, z_p·√n)/√n (noncentral t).
+double tolerance_factor_one_sided(double n, double proportion, double confidence);
+// Howe's (1969) two-sided normal tolerance factor: z_{(1+p)/2}·√((n − 1)(1 + 1/n)/χ²_{1−γ, n−1}).
+double tolerance_factor_two_sided(double n, double proportion, double confidence);
+// One-sided exact (Clopper–Pearson) upper limit for k successes in n trials.
+double clopper_pearson_upper(double successes, double trials, double confidence);
+// Smallest r (1-based) with P(Bin(n, p) ≤ r − 1) ≥ confidence; 0 when even r = n falls short.
+std::size_t order_statistic_rank(std::size_t n, double p, double confidence);
+
+}  // namespace quadrat

@@ -1,0 +1,49 @@
+// CHECK.OUTLIERS: which single values stand out, for a technician to look at again before anything
+// is set aside. Nothing is ever removed: the result names values to check, not values to delete.
+#pragma once
+
+#include <cstddef>
+#include <span>
+#include <string>
+#include <vector>
+
+#include "cells.hpp"
+
+namespace quadrat {
+
+// One value a method looked at, in the order the method takes them.
+struct Suspect {
+    std::size_t index = 0;  // position in the values handed to check_outliers
+    double value = 0;
+    double statistic = 0;   // R_i, G, or how many IQRs beyond the quartile
+    double critical = 0;    // λ_i, the critical G, or 1.5
+    bool outlier = false;
+};
+
+struct OutlierCheck {
+    std::string test;               // the method's full name
+    std::size_t n = 0;
+    std::vector<Suspect> suspects;  // in the order the method takes them
+    std::size_t count = 0;          // values that stand out
+    std::string note;               // what the method assumes, and that a flag is not a deletion
+    std::string report;
+};
+
+// `method`: generalized-esd (default; Rosner 1983, n ≥ 25, up to `most` values, default 10% of n
+// rounded down, at least 1 and at most 10), grubbs (Grubbs 1969, n ≥ 3, two-sided), fences
+// (Tukey 1977, beyond 1.5 × IQR outside the quartiles, quartiles as QUARTILE.INC). α = 1 − level.
+// `most` ≤ 0 means omitted; it is refused with the other methods.
+OutlierCheck check_outliers(std::span<const double> values, const std::string& method, double most, double level);
+
+// The outputs of CHECK.OUTLIERS, in the order a refusal lists them.
+const std::vector<std::string>& outlier_outputs();
+
+// `flags`: one cell per row of the raw range (`rows` of them), `outlier` beside each value that
+// stands out and blank elsewhere; row_of[i] is the raw row of values[i].
+Table outlier_flags(const OutlierCheck& check, std::span<const std::size_t> row_of, std::size_t rows);
+
+// `table`: header `cell | value | statistic | critical value | verdict`, one row per value the method
+// took, then a `note` row; cell_of[i] names values[i] (B7).
+Table outlier_table(const OutlierCheck& check, const std::vector<std::string>& cell_of);
+
+}  // namespace quadrat
