@@ -5,7 +5,6 @@
 #include <cmath>
 #include <cstdio>
 #include <limits>
-#include <random>
 
 #include <boost/math/distributions/binomial.hpp>
 #include <boost/math/distributions/chi_squared.hpp>
@@ -14,6 +13,7 @@
 #include <boost/math/distributions/students_t.hpp>
 #include <boost/math/special_functions/beta.hpp>
 
+#include "data.hpp"
 #include "keywords.hpp"
 #include "plan.hpp"
 #include "refusal.hpp"
@@ -101,6 +101,19 @@ std::string percentile_name(double fraction) {
     return buffer;
 }
 
+// "the largest value", "the 2nd largest value", "the 3rd smallest value" for order statistic k of n.
+std::string order_words(std::size_t k, std::size_t n) {
+    if (k == n) return "the largest value";
+    if (k == 1) return "the smallest value";
+    return 2 * k > n ? "the " + ordinal(n + 1 - k) + " largest value" : "the " + ordinal(k) + " smallest value";
+}
+
+// "the smallest and largest values", "the 3rd smallest and 3rd largest values".
+std::string outer_words(std::size_t j) {
+    return j == 1 ? std::string("the smallest and largest values")
+                  : "the " + ordinal(j) + " smallest and " + ordinal(j) + " largest values";
+}
+
 std::string capitalized(std::string text) {
     if (!text.empty()) text[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(text[0])));
     return text;
@@ -126,6 +139,19 @@ void add_limits(LimitResult& r, Side side, double low, double high) {
     }
 }
 
+// SplitMix64 (Steele, Lea & Flood 2014, OOPSLA, "Fast splittable pseudorandom number generators"):
+// a fully specified 64-bit generator, so the same seed gives the same resamples on every platform,
+// and several times faster than std::mt19937_64 here (measured: 2000 resamples of 10⁵ values).
+struct SplitMix64 {
+    std::uint64_t state;
+    std::uint64_t operator()() {
+        std::uint64_t z = (state += 0x9e3779b97f4a7c15u);
+        z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9u;
+        z = (z ^ (z >> 27)) * 0x94d049bb133111ebu;
+        return z ^ (z >> 31);
+    }
+};
+
 // Efron's bias-corrected and accelerated bootstrap upper limit of the mean (Efron 1987, JASA 82,
 // 171–185; Efron & Tibshirani 1993, An Introduction to the Bootstrap, §14.3). bootstrap_draws
 // resamples from a fixed seed, so a cell gives the same number on every recalculation; each
@@ -144,15 +170,27 @@ Bootstrap bca_upper_limit(const Scaled& s, double level) {
         d2 += d[i] * d[i];
         d3 += d[i] * d[i] * d[i];
     }
-    std::mt19937_64 generator(19870301);  // fixed seed: the cell is stable (any constant would do)
+    SplitMix64 generator{19870301};  // fixed seed: the cell is stable (any constant would do)
     std::vector<double> shifts(bootstrap_draws);
     std::size_t below = 0;
+    // An index in 0..n−1 by multiply-shift (Lemire 2019, ACM TOMACS 29, 3): from each 32-bit half of
+    // a draw while n ≤ 2²⁰ (a sheet's rows; each index's chance off by at most n/2³², 2.4e-4
+    // relative), from the whole 64 bits beyond.
+    const bool halves = n <= (std::size_t{1} << 20);
+    const std::uint64_t n64 = n;
     for (double& shift : shifts) {
         double total = 0;
-        for (std::size_t i = 0; i < n; ++i) {
-            // Lemire's multiply-shift maps a 64-bit draw onto 0..n−1 (bias below n/2⁶⁴).
+        if (halves) {
+            std::size_t i = 0;
+            for (; i + 1 < n; i += 2) {
+                const std::uint64_t r = generator();
+                total += d[((r & 0xffffffffu) * n64) >> 32];
+                total += d[((r >> 32) * n64) >> 32];
+            }
+            if (i < n) total += d[((generator() & 0xffffffffu) * n64) >> 32];
+        } else {
             __extension__ using wide = unsigned __int128;
-            total += d[static_cast<std::size_t>((static_cast<wide>(generator()) * n) >> 64)];
+            for (std::size_t i = 0; i < n; ++i) total += d[static_cast<std::size_t>((static_cast<wide>(generator()) * n64) >> 64)];
         }
         shift = total / static_cast<double>(n);
         if (shift < 0) ++below;
@@ -320,7 +358,7 @@ LimitResult limit_percentile(std::span<const double> values, double fraction, do
         .add("limit", sorted[rank - 1]);
     t.report = limit_report("Upper " + format_level(level) + " confidence limit of the " + name, r,
                             {name + " " + format_number(t.number("percentile")),
-                             "the " + ordinal(rank) + " smallest of the values, distribution-free"});
+                             order_words(rank, n) + ", distribution-free"});
     return r;
 }
 
@@ -341,7 +379,7 @@ LimitResult limit_exceedance(std::span<const double> values, double standard, do
         .add("count", count)
         .add("share above standard", count / n)
         .add("limit", clopper_pearson_upper(count, n, level));
-    t.report = limit_report("Upper " + format_level(level) + " confidence limit of the share above " + format_number(standard) +
+    t.report = limit_report("Upper " + format_level(level) + " confidence limit of the share above " + number_label(standard) +
                                 " (Clopper–Pearson)",
                             r, {format_df(count) + " of " + format_df(n) + " values above, share " + format_number(count / n)});
     return r;
@@ -401,7 +439,7 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
             t.add("values set aside at each end", static_cast<double>(good))
                 .add("confidence", cdf(dist, static_cast<double>(n - 2 * good - 2)));
             add_limits(r, side, sorted[good], sorted[n - 1 - good]);
-            details = {"the " + ordinal(good + 1) + " smallest and largest values, distribution-free"};
+            details = {outer_words(good + 1) + ", distribution-free"};
         } else {
             const std::size_t rank = order_statistic_rank(n, proportion, level);
             if (rank == 0) {
@@ -418,8 +456,7 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
                 .add("order statistic", static_cast<double>(side == Side::upper ? rank : n + 1 - rank))
                 .add("confidence", cdf(dist, static_cast<double>(rank - 1)));
             add_limits(r, side, sorted[n - rank], sorted[rank - 1]);
-            details = {"the " + ordinal(rank) + (side == Side::upper ? " smallest" : " largest") +
-                       " of the values, distribution-free"};
+            details = {order_words(side == Side::upper ? rank : n + 1 - rank, n) + ", distribution-free"};
         }
     }
     t.report = limit_report(capitalized(head), r, details);
@@ -478,7 +515,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
             t.add("order statistic", static_cast<double>(good))
                 .add("confidence", share_of_orderings(nd - 2.0 * good + 1, nd, readings));
             add_limits(r, side, sorted[good - 1], sorted[n - good]);
-            details = {"the " + ordinal(good) + " smallest and largest values, distribution-free"};
+            details = {outer_words(good) + ", distribution-free"};
         } else {
             auto covers = [&](std::size_t rank) { return share_of_orderings(static_cast<double>(rank), nd, readings) >= level; };
             if (!covers(n)) {
@@ -497,8 +534,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
             t.add("order statistic", static_cast<double>(side == Side::upper ? good : n + 1 - good))
                 .add("confidence", share_of_orderings(static_cast<double>(good), nd, readings));
             add_limits(r, side, sorted[n - good], sorted[good - 1]);
-            details = {"the " + ordinal(good) + (side == Side::upper ? " smallest" : " largest") +
-                       " of the values, distribution-free"};
+            details = {order_words(side == Side::upper ? good : n + 1 - good, n) + ", distribution-free"};
         }
     }
     t.report = limit_report(capitalized(head), r, details);

@@ -43,34 +43,46 @@ double target_power(double power, double alpha) {
     return power;
 }
 
-// Power at standardized difference d = D/σ (see plan.hpp for each design's distribution).
-double power_at(double n, double d, const Design& g, double alpha) {
-    try {
-        if (g.kind == DesignKind::several_groups) {
-            // One-way ANOVA F (Tang 1938, Stat. Res. Mem. 2, 126–149, for the noncentral F's power):
-            // λ = n·Σ(μ_i − μ̄)²/σ² = n·D²/(2σ²) with two means at ±D/2 and the rest at the midpoint.
-            const double df1 = g.groups - 1, df2 = g.groups * (n - 1);
-            const boost::math::fisher_f central(df1, df2);
-            const double critical = quantile(complement(central, alpha));
-            const double lambda = n * d * d / 2;
-            // Below 1e-14 the power differs from the central F's by less than λ/2 (the Poisson-mixture
-            // weights move that little), and Boost.Math's noncentral F misbehaves at λ = 0 (measured:
-            // −0.95 at df (9999, 10000)).
-            if (lambda < 1e-14) return cdf(complement(central, critical));
-            const boost::math::non_central_f_distribution<double> f(df1, df2, lambda);
-            return std::min(1.0, cdf(complement(f, critical)));
-        }
-        const bool two = g.kind == DesignKind::two_groups;
-        const double df = two ? 2 * n - 2 : n - 1;
-        const double delta = two ? d * std::sqrt(n / 2) : d * std::sqrt(n);
-        const double critical = quantile(complement(boost::math::students_t(df), alpha / 2));
-        const boost::math::non_central_t_distribution<double> t(df, delta);
-        // Both tails of the two-sided test: P(T′ > t_c) + P(T′ < −t_c).
-        return std::min(1.0, cdf(complement(t, critical)) + cdf(t, -critical));
-    } catch (const std::exception&) {
-        throw Refusal("the power cannot be evaluated this far out (standardized difference " + format_number(d) + ", n = " +
-                      format_number(n) + "); it is 1 to every digit a cell shows");
+// Power at standardized difference d (see plan.hpp for each design's distribution); may throw
+// where Boost.Math's noncentral series give up (noncentrality in the millions).
+double power_evaluated(double n, double d, const Design& g, double alpha) {
+    if (g.kind == DesignKind::several_groups) {
+        // One-way ANOVA F (Tang 1938, Stat. Res. Mem. 2, 126–149, for the noncentral F's power):
+        // λ = n·Σ(μ_i − μ̄)²/σ² = n·D²/(2σ²) with two means at ±D/2 and the rest at the midpoint.
+        const double df1 = g.groups - 1, df2 = g.groups * (n - 1);
+        const boost::math::fisher_f central(df1, df2);
+        const double critical = quantile(complement(central, alpha));
+        const double lambda = n * d * d / 2;
+        // Below 1e-14 the power differs from the central F's by less than λ/2 (the Poisson-mixture
+        // weights move that little), and Boost.Math's noncentral F misbehaves at λ = 0 (measured:
+        // −0.95 at df (9999, 10000)).
+        if (lambda < 1e-14) return cdf(complement(central, critical));
+        const boost::math::non_central_f_distribution<double> f(df1, df2, lambda);
+        return std::min(1.0, cdf(complement(f, critical)));
     }
+    const bool two = g.kind == DesignKind::two_groups;
+    const double df = two ? 2 * n - 2 : n - 1;
+    const double delta = two ? d * std::sqrt(n / 2) : d * std::sqrt(n);
+    const double critical = quantile(complement(boost::math::students_t(df), alpha / 2));
+    const boost::math::non_central_t_distribution<double> t(df, delta);
+    // Both tails of the two-sided test: P(T′ > t_c) + P(T′ < −t_c).
+    return std::min(1.0, cdf(complement(t, critical)) + cdf(t, -critical));
+}
+
+// The power, or where the series give up, 1 when a smaller difference (power rises with the
+// difference) already has power 1 to double precision; a refusal otherwise.
+double power_at(double n, double d, const Design& g, double alpha) {
+    for (double smaller = d; smaller > 0; smaller /= 2) {
+        try {
+            const double p = power_evaluated(n, smaller, g, alpha);
+            if (smaller == d) return p;
+            if (p >= 1 - 0x1p-53) return 1.0;
+            break;
+        } catch (const std::exception&) {
+        }
+    }
+    throw Refusal("the power cannot be evaluated this far out (standardized difference " + number_label(d) + ", n = " +
+                  number_label(n) + ")");
 }
 
 }  // namespace

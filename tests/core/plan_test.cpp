@@ -12,16 +12,6 @@ using namespace quadrat::test_support;
 namespace quadrat {
 namespace {
 
-template <class F>
-std::string refusal_of(F f) {
-    try {
-        f();
-    } catch (const Refusal& r) {
-        return r.what();
-    }
-    return "";
-}
-
 Design design_of(const nlohmann::json& c) {
     const std::string name = c["design"];
     return plan_design(name, c["count"], name == "several-groups");
@@ -68,22 +58,22 @@ TEST(Plan, SmallestN) {
 // Bad input (common practice, no source).
 TEST(Plan, Refusals) {
     const Design g = plan_design("", 0, false);
-    EXPECT_NE(refusal_of([&] { plan_samples(1, 1, g, 1, 0.95); }).find("power must be a fraction"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_samples(1, 1, g, 0, 0.95); }).find("power must be a fraction"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_samples(1, 1, g, 0.04, 0.95); }).find("power must be above 0.05"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_samples(0, 1, g, 0.8, 0.95); }).find("difference must be a positive number"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_samples(1, -1, g, 0.8, 0.95); }).find("sd must be a positive number"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_samples(1, 1, g, 0.8, 1.2); }).find("level must be"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_power(1, 1, 1, g, 0.95); }).find("n must be a whole number"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_power(2.5, 1, 1, g, 0.95); }).find("n must be a whole number"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_detectable(1, 1, g, 0.8, 0.95); }).find("n must be a whole number"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_design("several-groups", 0, false); }).find("needs count"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_design("several-groups", 2.5, true); }).find("count must be a whole number"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_design("paired", 3, true); }).find("leave it empty"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { plan_design("blocks", 0, false); }).find("valid: two-groups, paired, one-sample, several-groups"),
+    EXPECT_NE(refusal_text([&] { plan_samples(1, 1, g, 1, 0.95); }).find("power must be a fraction"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_samples(1, 1, g, 0, 0.95); }).find("power must be a fraction"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_samples(1, 1, g, 0.04, 0.95); }).find("power must be above 0.05"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_samples(0, 1, g, 0.8, 0.95); }).find("difference must be a positive number"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_samples(1, -1, g, 0.8, 0.95); }).find("sd must be a positive number"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_samples(1, 1, g, 0.8, 1.2); }).find("level must be"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_power(1, 1, 1, g, 0.95); }).find("n must be a whole number"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_power(2.5, 1, 1, g, 0.95); }).find("n must be a whole number"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_detectable(1, 1, g, 0.8, 0.95); }).find("n must be a whole number"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_design("several-groups", 0, false); }).find("needs count"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_design("several-groups", 2.5, true); }).find("count must be a whole number"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_design("paired", 3, true); }).find("leave it empty"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { plan_design("blocks", 0, false); }).find("valid: two-groups, paired, one-sample, several-groups"),
               std::string::npos);
     // A difference no season can detect: the refusal names the n searched up to.
-    EXPECT_NE(refusal_of([&] { plan_samples(1e-4, 1, g, 0.8, 0.95); }).find("no n up to 10000000 per group reaches power 0.8"),
+    EXPECT_NE(refusal_text([&] { plan_samples(1e-4, 1, g, 0.8, 0.95); }).find("no n up to 10000000 per group reaches power 0.8"),
               std::string::npos);
 }
 

@@ -17,6 +17,8 @@
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
+#include "core/refusal.hpp"
+
 namespace quadrat::test_support {
 
 // tests/reference/<name>, parsed once per test run.
@@ -102,6 +104,16 @@ inline StrdFile read_strd(const std::string& kind_and_set) {
         if (!row.empty()) file.rows.push_back(std::move(row));  // skips blank lines and the rule under "Data: Y"
     }
     return file;
+}
+
+// The text of the refusal `call` throws, or "(no refusal)".
+inline std::string refusal_text(auto&& call) {
+    try {
+        call();
+    } catch (const Refusal& r) {
+        return r.what();
+    }
+    return "(no refusal)";
 }
 
 }  // namespace quadrat::test_support
