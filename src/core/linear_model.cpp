@@ -100,6 +100,39 @@ double LinearModel::ci_high(std::size_t j, double level) const {
     return estimate[j] + q * std_error[j];
 }
 
+namespace {
+// The row of B for predictor values x: the constant column, then (x_j − centre_j)/scale_j.
+std::vector<double> design_row(const LinearModel& m, std::span<const double> x) {
+    if (x.size() != m.centre.size())
+        throw Refusal("a prediction row needs " + std::to_string(m.centre.size()) + " predictor values, found " +
+                      std::to_string(x.size()));
+    std::vector<double> b;
+    if (m.intercept) b.push_back(m.constant_column);
+    for (std::size_t j = 0; j < x.size(); ++j) b.push_back((x[j] - m.centre[j]) / m.scale[j]);
+    return b;
+}
+}  // namespace
+
+double LinearModel::predicted_at(std::span<const double> x) const {
+    const std::vector<double> b = design_row(*this, x);
+    Accumulator sum;
+    sum.add(y_centre);
+    for (std::size_t j = 0; j < b.size(); ++j) sum.add(b[j] * solution[j]);
+    return sum.sum();
+}
+
+double LinearModel::leverage_at(std::span<const double> x) const {
+    const std::vector<double> b = design_row(*this, x);
+    const std::size_t p = b.size();
+    double h = 0;
+    for (std::size_t j = 0; j < p; ++j) {
+        Accumulator entry;  // (b G)_j
+        for (std::size_t i = 0; i < p; ++i) entry.add(b[i] * inverse_factor[i * p + j]);
+        h += entry.sum() * entry.sum();
+    }
+    return h;
+}
+
 LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::vector<double>>& predictors,
                               const std::vector<std::string>& names, bool intercept) {
     const std::size_t n = y.size();
@@ -283,6 +316,14 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         m.aic = -2.0 * m.log_likelihood + 2.0 * counted;
         m.bic = -2.0 * m.log_likelihood + std::log(nn) * counted;
     }
+
+    m.y_centre = y_centre;
+    m.constant_column = ones;
+    m.centre = centre;
+    m.scale = scale;
+    for (Eigen::Index j = 0; j < columns; ++j) m.solution.push_back(static_cast<double>(u(j)));
+    for (Eigen::Index i = 0; i < columns; ++i)
+        for (Eigen::Index j = 0; j < columns; ++j) m.inverse_factor.push_back(static_cast<double>(g(i, j)));
 
     // Per row: residuals, fitted values, leverage h_i = ‖B_i G‖². O(n p²), no n×n hat matrix.
     m.residuals.resize(n);

@@ -48,6 +48,20 @@ struct LinearModel {
     std::vector<double> residuals;
     std::vector<double> leverage;        // diagonal of the hat matrix
 
+    // The fitted design B (centred predictors scaled by powers of two, and a constant column) and
+    // G = P R⁻¹ with (BᵀB)⁻¹ = G Gᵀ, so that a new row's leverage ‖b G‖² keeps the digits that
+    // xᵀ(XᵀX)⁻¹x in raw units would lose (FIT.PREDICT).
+    double y_centre = 0;
+    double constant_column = 0;          // the constant column's value (0 without intercept)
+    std::vector<double> centre, scale;   // per predictor
+    std::vector<double> solution;        // u: the coefficients of B, parameters values
+    std::vector<double> inverse_factor;  // G, parameters × parameters, row-major
+
+    // The fitted value ŷ(x) and the leverage h(x) = ‖b(x) G‖² of a new row x (one value per
+    // predictor): Var(ŷ) = σ² h, Var(new reading − ŷ) = σ² (1 + h).
+    double predicted_at(std::span<const double> x) const;
+    double leverage_at(std::span<const double> x) const;
+
     // Confidence limits of term j at `level` (t with df_residual degrees of freedom).
     double ci_low(std::size_t j, double level) const;
     double ci_high(std::size_t j, double level) const;
