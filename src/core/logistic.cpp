@@ -42,11 +42,36 @@ std::string lower(std::string s) {
 // log(1 + e^t) without overflow or loss of digits.
 double softplus(double t) { return std::max(t, 0.0) + std::log1p(std::exp(-std::fabs(t))); }
 
-// −2 log-likelihood of 0/1 data at linear predictor η: −log μ = softplus(−η), −log(1 − μ) = softplus(η).
-double deviance_at(const VectorXd& y, const VectorXd& eta) {
+// Deviance of binomial data (y successes of m trials; m = 1 for a 0/1 response) at linear
+// predictor η: 2Σ[y softplus(−η) + (m − y) softplus(η)] less twice the saturated model's
+// −log-likelihood, 2Σ[−y log(y/m) − (m − y) log(1 − y/m)] (0 for 0/1 data), since −log μ =
+// softplus(−η) and −log(1 − μ) = softplus(η) (McCullagh & Nelder 1989, §4.4.3).
+double deviance_at(const VectorXd& y, const VectorXd& m, const VectorXd& eta) {
     Accumulator d;
-    for (Eigen::Index i = 0; i < y.size(); ++i) d.add(y[i] > 0.5 ? softplus(-eta[i]) : softplus(eta[i]));
+    for (Eigen::Index i = 0; i < y.size(); ++i) {
+        const double yi = y[i], fail = m[i] - y[i];
+        d.add((yi > 0 ? yi * (softplus(-eta[i]) + std::log(yi / m[i])) : 0.0) +
+              (fail > 0 ? fail * (softplus(eta[i]) + std::log(fail / m[i])) : 0.0));
+    }
     return 2 * d.sum();
+}
+
+// Σ log C(m, y): the binomial coefficients of the log-likelihood (0 for 0/1 data).
+double log_binomial_coefficients(const VectorXd& y, const VectorXd& m) {
+    Accumulator a;
+    for (Eigen::Index i = 0; i < y.size(); ++i)
+        if (m[i] > 1) a.add(std::lgamma(m[i] + 1) - std::lgamma(y[i] + 1) - std::lgamma(m[i] - y[i] + 1));
+    return a.sum();
+}
+
+// The saturated model's log-likelihood less the binomial coefficients (0 for 0/1 data).
+double saturated_log_likelihood(const VectorXd& y, const VectorXd& m) {
+    Accumulator a;
+    for (Eigen::Index i = 0; i < y.size(); ++i) {
+        if (y[i] > 0) a.add(y[i] * std::log(y[i] / m[i]));
+        if (m[i] - y[i] > 0) a.add((m[i] - y[i]) * std::log((m[i] - y[i]) / m[i]));
+    }
+    return a.sum();
 }
 
 [[noreturn]] void refuse_separation(const std::string& name, bool complete, bool combination) {
@@ -60,11 +85,16 @@ double deviance_at(const VectorXd& y, const VectorXd& eta) {
 // on the other (touching at the threshold for quasi-complete separation). Albert & Anderson
 // (1984), Biometrika 71, 1–10: the maximum-likelihood estimate then does not exist.
 void refuse_single_predictor_separation(const LogisticData& d) {
+    // With trials, a row with some successes and some failures overlaps every threshold; rows of
+    // all successes or all failures are events and non-events.
+    for (std::size_t i = 0; i < d.trials.size(); ++i)
+        if (d.y[i] > 0 && d.y[i] < d.trials[i]) return;
+    const auto is_event = [&](std::size_t i) { return d.trials.empty() ? d.y[i] > 0.5 : d.y[i] > 0; };
     for (std::size_t j = 0; j < d.xs.size(); ++j) {
         double min1 = INFINITY, max1 = -INFINITY, min0 = INFINITY, max0 = -INFINITY;
         for (std::size_t i = 0; i < d.y.size(); ++i) {
             const double x = d.xs[j][i];
-            if (d.y[i] > 0.5) {
+            if (is_event(i)) {
                 min1 = std::min(min1, x);
                 max1 = std::max(max1, x);
             } else {
@@ -126,17 +156,58 @@ LogisticData read_logistic_data(const Range& y, const Range& xs) {
     return d;
 }
 
+LogisticData read_logistic_data(const Range& y, const Range& xs, const Range& trials) {
+    if (trials.empty()) return read_logistic_data(y, xs);
+    if (y.empty()) throw Refusal("y is empty");
+    if (xs.empty()) throw Refusal("xs is empty");
+    if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
+    if (trials.columns != 1) throw Refusal("trials must be one column (found " + std::to_string(trials.columns) + ")");
+    const Frame f = read_frame(
+        {{&y, ColumnKind::numeric, "y"}, {&xs, ColumnKind::numeric, "xs"}, {&trials, ColumnKind::numeric, "trials"}});
+    if (f.n_used == 0) throw Refusal("no row has a number of successes, of trials and in every predictor column");
+    LogisticData d;
+    d.n_dropped = f.n_dropped;
+    const std::size_t last = f.numbers.size() - 1;
+    for (std::size_t j = 1; j < last; ++j) {
+        d.names.push_back(f.names[j].empty() ? "x" + std::to_string(j) : f.names[j]);
+        d.xs.push_back(f.numbers[j]);
+    }
+    const auto where = [&](const Range& r, std::size_t k) {
+        return r.is_reference ? " in " + cell_address(r, f.used_rows[k], 0) : std::string();
+    };
+    for (std::size_t k = 0; k < f.n_used; ++k) {
+        const double successes = f.numbers[0][k], m = f.numbers[last][k];
+        if (!(m >= 1) || m != std::floor(m) || m > 9007199254740992.0)
+            throw Refusal("trials holds " + number_label(m) + where(trials, k) + "; trials must be whole numbers from 1 up");
+        if (!(successes >= 0) || successes != std::floor(successes))
+            throw Refusal("y holds " + number_label(successes) + where(y, k) +
+                          "; with trials, y holds the number of successes: a whole number from 0 up");
+        if (successes > m)
+            throw Refusal("y holds " + number_label(successes) + where(y, k) + " but trials only " + number_label(m) +
+                          where(trials, k) + "; successes cannot exceed trials");
+    }
+    d.y = f.numbers[0];
+    d.trials = f.numbers[last];
+    d.event = "success";
+    return d;
+}
+
 LogisticFit fit_logistic(const LogisticData& d) {
     const std::size_t n = d.y.size(), k = d.xs.size(), p = k + 1;
     if (k == 0) throw Refusal("xs has no predictor columns");
     if (n < p + 1)
         throw Refusal("needs more rows than coefficients: " + count_of(n, "row") + " for " + std::to_string(p) +
                       " coefficients");
-    double events = 0;
-    for (double v : d.y) events += v;
-    if (events == 0 || events == double(n))
-        throw Refusal("every used row has the same outcome (" + std::string(events == 0 ? "none is " : "all are ") +
-                      d.event + "); logistic regression needs both outcomes");
+    double events = 0, total = 0;
+    for (std::size_t i = 0; i < n; ++i) {
+        events += d.y[i];
+        total += d.trials.empty() ? 1.0 : d.trials[i];
+    }
+    if (events == 0 || events == total)
+        throw Refusal(d.trials.empty() ? "every used row has the same outcome (" + std::string(events == 0 ? "none is " : "all are ") +
+                                             d.event + "); logistic regression needs both outcomes"
+                                       : std::string(events == 0 ? "no trial succeeded" : "every trial succeeded") +
+                                             "; logistic regression needs both outcomes");
 
     // Predictors are centred and scaled before the fit, so that a column in the thousands (an
     // elevation) and one in thousandths keep their digits; the coefficients are transformed back.
@@ -161,13 +232,16 @@ LogisticFit fit_logistic(const LogisticData& d) {
     }
     refuse_single_predictor_separation(d);
 
-    VectorXd y(n);
-    for (std::size_t i = 0; i < n; ++i) y[i] = d.y[i];
-    const double ybar = events / double(n);
+    VectorXd y(n), trials(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        y[i] = d.y[i];
+        trials[i] = d.trials.empty() ? 1.0 : d.trials[i];
+    }
+    const double ybar = events / total;
 
     // Null model: the intercept alone, at the log-odds of the observed proportion.
     LogisticFit fit;
-    fit.null_deviance = deviance_at(y, VectorXd::Constant(n, std::log(ybar / (1 - ybar))));
+    fit.null_deviance = deviance_at(y, trials, VectorXd::Constant(n, std::log(ybar / (1 - ybar))));
 
     // Newton–Raphson on the log-likelihood, each step a weighted least-squares problem
     // (iteratively reweighted least squares; McCullagh & Nelder 1989, Generalized Linear Models,
@@ -176,7 +250,7 @@ LogisticFit fit_logistic(const LogisticData& d) {
     VectorXd gamma = VectorXd::Zero(p);
     gamma[0] = std::log(ybar / (1 - ybar));
     VectorXd eta = Z * gamma;
-    double dev = deviance_at(y, eta);
+    double dev = deviance_at(y, trials, eta);
     VectorXd last_step = VectorXd::Zero(p);
     double last_eta_step = INFINITY;
     bool converged = false;
@@ -190,8 +264,9 @@ LogisticFit fit_logistic(const LogisticData& d) {
             const double e = std::exp(-std::fabs(eta_now[i]));
             const double mu = eta_now[i] >= 0 ? 1 / (1 + e) : e / (1 + e);
             const double one_minus_mu = eta_now[i] >= 0 ? e / (1 + e) : 1 / (1 + e);
-            const double root_w = std::sqrt(e) / (1 + e);
-            const double residual = y[i] > 0.5 ? one_minus_mu : -mu;
+            // Weight m μ(1 − μ); residual y − mμ, from whichever of μ, 1 − μ is not rounded.
+            const double root_w = std::sqrt(trials[i] * e) / (1 + e);
+            const double residual = eta_now[i] >= 0 ? trials[i] * one_minus_mu - (trials[i] - y[i]) : y[i] - trials[i] * mu;
             A.row(i) = root_w * Z.row(i);
             b[i] = residual / root_w;
         }
@@ -210,7 +285,7 @@ LogisticFit fit_logistic(const LogisticData& d) {
         int halvings = 0;
         for (;; ++halvings) {
             eta_new = Z * (gamma + step);
-            dev_new = deviance_at(y, eta_new);
+            dev_new = deviance_at(y, trials, eta_new);
             if (dev_new <= dev * (1 + 1e-14) + 1e-300 || halvings == halving_cap) break;
             step *= 0.5;
         }
@@ -270,10 +345,13 @@ LogisticFit fit_logistic(const LogisticData& d) {
     fit.lr_statistic = std::max(0.0, fit.null_deviance - dev);
     fit.df = double(k);
     fit.lr_p = boost::math::cdf(boost::math::complement(boost::math::chi_squared_distribution<double>(fit.df), fit.lr_statistic));
-    fit.aic = dev + 2.0 * double(p);
-    // McFadden's pseudo-R² = 1 − log L / log L₀; for 0/1 data the saturated log-likelihood is 0,
-    // so it is 1 − deviance / null deviance (McFadden 1974, in Frontiers in Econometrics, 105–142).
-    fit.pseudo_r2 = 1 - dev / fit.null_deviance;
+    // The full log-likelihood, binomial coefficients included (for 0/1 data it is −deviance/2).
+    const double constants = log_binomial_coefficients(y, trials) + saturated_log_likelihood(y, trials);
+    const double log_l = constants - dev / 2, log_l0 = constants - fit.null_deviance / 2;
+    fit.aic = -2 * log_l + 2.0 * double(p);
+    // McFadden's pseudo-R² = 1 − log L / log L₀ (McFadden 1974, in Frontiers in Econometrics,
+    // 105–142); for 0/1 data, 1 − deviance / null deviance.
+    fit.pseudo_r2 = 1 - log_l / log_l0;
     fit.n = double(n);
     fit.n_dropped = double(d.n_dropped);
     fit.iterations = iterations;

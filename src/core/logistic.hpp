@@ -18,12 +18,19 @@ struct LogisticData {
     std::vector<std::string> names;       // per predictor: header text, else x1, x2, …
     std::string event;                    // the label modelled: "1" for a 0/1 response
     std::size_t n_dropped = 0;
+    // With `trials`: y holds successes out of that many trials per row (seeds germinated out of
+    // sown); empty for a 0/1 response (one trial per row).
+    std::vector<double> trials;
 };
 
 // Reads `y` (0/1 numbers, or exactly two labels: the later one in case-insensitive character
 // order is the event, `present` over `absent`) and `xs` (numeric columns; a text first row names
 // them), with the catalogue's missing-data and header rules.
 LogisticData read_logistic_data(const Range& y, const Range& xs);
+// With `trials` (FIT.LOGISTIC's fifth argument): y holds successes, trials the number of trials of
+// each row, whole numbers with 0 ≤ y ≤ trials; a row is used when y, trials and every predictor
+// hold a number.
+LogisticData read_logistic_data(const Range& y, const Range& xs, const Range& trials);
 
 struct LogisticFit {
     std::vector<std::string> terms;  // "intercept", then the predictors

@@ -6,6 +6,7 @@
 #include <variant>
 
 #include "core/count_model.hpp"
+#include "core/logistic.hpp"
 #include "core/refusal.hpp"
 #include "reference.hpp"
 
@@ -242,6 +243,60 @@ TEST(FitCounts, LargeCountsAndWideEffort) {
     d.names = {"treated"};
     const CountFit fit = fit_counts(d, CountMethod::poisson);
     expect_relative(std::exp(fit.estimate[1]), (27e12 / 3.5e9) / (10e12 / 3e-3), 1e-9, "rate ratio");
+}
+
+// FIT.LOGISTIC with `trials`: successes out of trials per row, a binomial GLM. statsmodels 0.13 GLM
+// Binomial with a (successes, failures) response on the invented seed trays
+// (tests/reference/generate_counts.py): 1e-9 relative (both Newton/IRLS to ~1e-15); the AIC and
+// McFadden's R² with the full log-likelihood, binomial coefficients included, as statsmodels has it.
+TEST(FitLogistic, WithTrialsAgreesWithStatsmodels) {
+    const auto& c = reference()["germination"];
+    LogisticData d;
+    d.y = c["germinated"].get<std::vector<double>>();
+    d.trials = c["sown"].get<std::vector<double>>();
+    d.xs = {c["moisture"].get<std::vector<double>>(), c["shade"].get<std::vector<double>>()};
+    d.names = {"moisture", "shade"};
+    d.event = "success";
+    const LogisticFit fit = fit_logistic(d);
+    for (std::size_t j = 0; j < 3; ++j) {
+        expect_relative(fit.estimate[j], c["coefficient"][j].get<double>(), 1e-9, "coefficient " + fit.terms[j]);
+        expect_relative(fit.std_error[j], c["SE"][j].get<double>(), 1e-9, "SE " + fit.terms[j]);
+        expect_relative(fit.p[j], c["p"][j].get<double>(), 1e-8, "p " + fit.terms[j]);
+    }
+    expect_relative(fit.deviance, c["deviance"].get<double>(), 1e-9, "deviance");
+    expect_relative(fit.null_deviance, c["null deviance"].get<double>(), 1e-11, "null deviance");
+    expect_relative(fit.aic, c["aic"].get<double>(), 1e-11, "aic");
+    expect_relative(fit.pseudo_r2, c["pseudo-r-squared"].get<double>(), 1e-10, "McFadden R²");
+    // With one trial per row the same fit is the 0/1 model: trials of 1 change nothing.
+    LogisticData ones = d;
+    ones.y = {1, 0, 1, 1, 0, 0, 1, 0};
+    ones.xs = {{3, 1, 4, 1, 5, 9, 2, 6}};
+    ones.names = {"x"};
+    LogisticData plain = ones;
+    ones.trials.assign(8, 1);
+    plain.trials.clear();
+    const LogisticFit a = fit_logistic(ones), b = fit_logistic(plain);
+    expect_relative(a.estimate[1], b.estimate[1], 1e-13, "trials of 1 against 0/1");
+    expect_relative(a.aic, b.aic, 1e-13, "aic");
+}
+
+// Reading successes and trials from cells: a row whose successes exceed its trials is refused by
+// cell (FUNCTIONS.md, FIT.LOGISTIC with trials).
+TEST(FitLogistic, RefusesSuccessesAboveTrials) {
+    const auto column = [](std::vector<double> xs, std::size_t first_column) {
+        Range r = Range::column(xs);
+        r.is_reference = true;
+        r.first_row = 1;
+        r.first_column = first_column;
+        return r;
+    };
+    const Range y = column({3, 7, 2}, 0), xs = column({1, 2, 3}, 1), trials = column({5, 5, 4}, 2);
+    try {
+        read_logistic_data(y, xs, trials);
+        ADD_FAILURE() << "no refusal";
+    } catch (const Refusal& r) {
+        EXPECT_EQ(std::string(r.what()), "y holds 7 in A3 but trials only 5 in C3; successes cannot exceed trials");
+    }
 }
 
 }  // namespace

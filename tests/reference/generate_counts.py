@@ -13,6 +13,8 @@ writes tests/reference/counts.json beside this script.
   minutes as effort, a depth covariate and a site indicator, drawn overdispersed; statsmodels'
   discrete NegativeBinomial (NB2, exposure = effort) and GLM Poisson (offset log effort).
 - `point_counts`: invented bird point counts drawn Poisson (fixed seed), no effort: GLM Poisson.
+- `germination`: invented seed trays (seeds germinated out of sown, FIT.LOGISTIC with `trials`)
+  against soil moisture and shade: GLM Binomial with a (successes, failures) response.
 """
 import json
 import os
@@ -95,6 +97,23 @@ cover = np.round(rng.uniform(0, 80, 40), 1)
 birds = rng.poisson(np.exp(0.4 + 0.015 * cover)).astype(float)
 Xb = np.column_stack([np.ones(40), cover])
 OUT["point_counts"] = {"birds": flt(birds), "cover": flt(cover), "poisson": poisson(birds, Xb)}
+
+# Invented seed trays: 24 trays, 20–50 seeds sown, germinated seeds drawn binomial around a
+# probability that rises with soil moisture (%) and falls under shade.
+rng = np.random.default_rng(11)
+sown = rng.integers(20, 51, 24).astype(float)
+moisture = np.round(rng.uniform(10, 40, 24), 1)
+shade = (np.arange(24) % 3 == 0).astype(float)
+prob = 1 / (1 + np.exp(-(-2.0 + 0.08 * moisture - 0.6 * shade)))
+germinated = rng.binomial(sown.astype(int), prob).astype(float)
+Xg = np.column_stack([np.ones(24), moisture, shade])
+g = sm.GLM(np.column_stack([germinated, sown - germinated]), Xg, family=sm.families.Binomial()).fit(tol=1e-15)
+g0 = sm.GLM(np.column_stack([germinated, sown - germinated]), Xg[:, :1], family=sm.families.Binomial()).fit(tol=1e-15)
+OUT["germination"] = {"germinated": flt(germinated), "sown": flt(sown), "moisture": flt(moisture), "shade": flt(shade),
+                      "coefficient": flt(g.params), "SE": flt(g.bse), "p": flt(g.pvalues),
+                      "deviance": float(g.deviance), "null deviance": float(g.null_deviance),
+                      "loglik": float(g.llf), "null loglik": float(g0.llf), "aic": float(g.aic),
+                      "pseudo-r-squared": float(1 - g.llf / g0.llf)}
 
 with open(os.path.join(os.path.dirname(os.path.abspath(__file__)), "counts.json"), "w") as f:
     json.dump(OUT, f, indent=1)
