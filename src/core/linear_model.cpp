@@ -201,28 +201,100 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
     // (NIST Wampler4/5); the augmented refinement removes it.
     const auto upper = qr.matrixR().topLeftCorner(columns, columns).triangularView<Eigen::Upper>();
     const auto& pivots = qr.colsPermutation().indices();
-    Vector u = qr.solve(yc);
-    Vector residual = yc - design * u;
-    for (int step = 0; step < 4; ++step) {
-        const Vector f = yc - residual - design * u;
-        const Vector g = -(design.transpose() * residual);
+    // One correction of the augmented system from its residuals f = y − r − Bu and g = −Bᵀr.
+    const auto correction = [&](const Vector& f, const Vector& g, Vector& du) {
         Vector permuted_g(columns);
         for (Eigen::Index i = 0; i < columns; ++i) permuted_g(i) = g(pivots(i));
         const Vector h = upper.transpose().solve(permuted_g);   // R' h = P' g
         const Vector d = qr.householderQ().adjoint() * f;      // Q' f
         const Vector z = upper.solve(d.head(columns) - h);     // R z = d₁ − h
-        Vector du(columns);
+        du.resize(columns);
         for (Eigen::Index i = 0; i < columns; ++i) du(pivots(i)) = z(i);
+    };
+    Vector u = qr.solve(yc);
+    Vector residual = yc - design * u;
+    for (int step = 0; step < 4; ++step) {
+        const Vector f = yc - residual - design * u;
+        const Vector g = -(design.transpose() * residual);
+        Vector du;
+        correction(f, g, du);
         u += du;
         residual += f - design * du;
     }
 
+    // Refinement in extended precision converges to what κ allows in it: a relative error of
+    // about κ ε_ld in u (κ² ε_ld with large residuals), and the intercept, moved back from the
+    // centred origin, also carries ε_ld Σ|b_j c_j|. Where either could reach a tenth of a double's
+    // rounding (NIST Wampler1–5, polynomials of degree 5), the same refinement continues with
+    // its residuals f, g and the solution accumulated in binary128 (Björck 1967; Higham 2002,
+    // Accuracy and Stability of Numerical Algorithms, §20.5: mixed-precision refinement converges
+    // to the higher precision while κ ε_ld < 1). Elsewhere its O(np) software arithmetic is skipped.
+    using Quad = __float128;
+    double explained = 0;
+    std::vector<Quad> u_quad(static_cast<std::size_t>(columns));
+    for (Eigen::Index j = 0; j < columns; ++j) u_quad[static_cast<std::size_t>(j)] = u(j);
+    {
+        const Eigen::JacobiSVD<Matrix> svd{Matrix(upper)};
+        const auto& singular = svd.singularValues();
+        const long double kappa = singular(0) / singular(columns - 1);
+        long double moved = 0, level = std::fabs(static_cast<long double>(y_centre) + u(0) * ones);
+        for (std::size_t j = 0; intercept && j < k; ++j)
+            moved += std::fabs(u(offset + static_cast<Eigen::Index>(j)) / scale[j] * centre[j]);
+        const long double large_residual = 1 + residual.norm() / std::max(yc.norm() - residual.norm(), 1e-300L);
+        const long double eps = std::numeric_limits<long double>::epsilon();
+        const bool needed = kappa * kappa * large_residual * eps > 1e-17L || (intercept && moved * eps > 1e-17L * level);
+        std::vector<Quad> r_quad(static_cast<std::size_t>(rows));
+        for (Eigen::Index i = 0; i < rows; ++i) r_quad[static_cast<std::size_t>(i)] = residual(i);
+        for (int step = 0; needed && step < 4; ++step) {
+            Vector f(rows), g(columns);
+            for (Eigen::Index i = 0; i < rows; ++i) {
+                Quad fitted = 0;
+                for (Eigen::Index j = 0; j < columns; ++j) fitted += Quad(design(i, j)) * u_quad[static_cast<std::size_t>(j)];
+                f(i) = static_cast<Real>(Quad(yc(i)) - r_quad[static_cast<std::size_t>(i)] - fitted);
+            }
+            for (Eigen::Index j = 0; j < columns; ++j) {
+                Quad sum = 0;
+                for (Eigen::Index i = 0; i < rows; ++i) sum -= Quad(design(i, j)) * r_quad[static_cast<std::size_t>(i)];
+                g(j) = static_cast<Real>(sum);
+            }
+            Vector du;
+            correction(f, g, du);
+            bool settled = true;  // every correction below binary128's own rounding of its u
+            for (Eigen::Index j = 0; j < columns; ++j) {
+                const Quad before = u_quad[static_cast<std::size_t>(j)];
+                u_quad[static_cast<std::size_t>(j)] += du(j);
+                settled = settled && u_quad[static_cast<std::size_t>(j)] == before;
+            }
+            const Vector moved_rows = f - design * du;
+            for (Eigen::Index i = 0; i < rows; ++i) r_quad[static_cast<std::size_t>(i)] += moved_rows(i);
+            if (settled) break;
+        }
+        if (needed) {
+            for (Eigen::Index j = 0; j < columns; ++j) u(j) = static_cast<Real>(u_quad[static_cast<std::size_t>(j)]);
+            for (Eigen::Index i = 0; i < rows; ++i) residual(i) = static_cast<Real>(r_quad[static_cast<std::size_t>(i)]);
+        }
+        // The explained sum of squares Σ(ŷ − ȳ)², from the fitted deviations themselves (the
+        // predictor columns of B u; through the origin, all of B u), so that R² = ESS/TSS keeps its
+        // digits when it is small: 1 − RSS/TSS would lose log10(1/R²) of them (NIST Wampler5,
+        // R² = 0.0022). In binary128 where the refinement needed it (the terms then cancel).
+        Quad ess = 0;
+        for (Eigen::Index i = 0; i < rows; ++i) {
+            Quad fitted = 0;
+            if (needed)
+                for (Eigen::Index j = offset; j < columns; ++j) fitted += Quad(design(i, j)) * u_quad[static_cast<std::size_t>(j)];
+            else
+                fitted = design.row(i).tail(columns - offset).dot(u.tail(columns - offset));
+            ess += fitted * fitted;
+        }
+        explained = static_cast<double>(ess);
+    }
+
     std::vector<double> slope(k);
-    long double b0 = intercept ? static_cast<long double>(y_centre) + u(0) * ones : 0.0L;
+    Quad b0 = intercept ? Quad(y_centre) + u_quad[0] * Quad(ones) : Quad(0);
     for (std::size_t j = 0; j < k; ++j) {
-        const long double s = u(offset + static_cast<Eigen::Index>(j)) / scale[j];
+        const Quad s = u_quad[static_cast<std::size_t>(offset) + j] / Quad(scale[j]);
         slope[j] = static_cast<double>(s);
-        if (intercept) b0 -= s * centre[j];
+        if (intercept) b0 -= s * Quad(centre[j]);
     }
 
     LinearModel m;
@@ -291,17 +363,16 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         m.p.push_back(two_sided_t_p(t, m.df_residual));
     }
 
-    m.r2 = m.perfect_fit ? 1.0 : 1.0 - m.rss / tss;
+    m.r2 = m.perfect_fit ? 1.0 : std::min(1.0, explained / tss);
     const double df_total = m.df_residual + m.df_model;
     m.adj_r2 = m.perfect_fit ? 1.0 : 1.0 - (m.rss / m.df_residual) / (tss / df_total);
     if (m.perfect_fit || k == 0) {
         m.f_statistic = not_defined;
         m.f_p = not_defined;
     } else {
-        // With an intercept RSS <= TSS exactly; rounding can leave it a hair above when the
-        // predictors explain nothing (a balanced design, a Breusch–Pagan auxiliary fit), and a
-        // negative F is outside the distribution's domain.
-        m.f_statistic = std::max(0.0, ((tss - m.rss) / m.df_model) / (m.rss / m.df_residual));
+        // From the explained sum of squares itself: never negative, and exact to its digits where
+        // TSS − RSS would cancel (predictors that explain almost nothing).
+        m.f_statistic = (explained / m.df_model) / (m.rss / m.df_residual);
         const boost::math::fisher_f dist(m.df_model, m.df_residual);
         m.f_p = boost::math::cdf(boost::math::complement(dist, m.f_statistic));
     }

@@ -1,8 +1,11 @@
 // NIST StRD linear regression: all 11 sets, every coefficient and standard deviation, the residual
 // SD and R², as log relative errors (LRE) against the certified values in each file's header.
-// Tolerance: LRE ≥ 9 on every set, ≥ 7 on Filip (its binary64 ceiling is 7.6: no double-precision
-// program can reliably do better; ceilings in tests/data/nist-strd/README.md). Where the
-// certified value is 0 (Wampler1/2 SDs) the log absolute error is used, as NIST advises.
+// Tolerance: every figure of every set within 0.3 of what binary64 inputs allow (the ceilings of
+// tests/data/nist-strd/README.md). Filip's powers are built here by repeated binary64
+// multiplication, as a sheet builds them, not correctly rounded as the README's ceiling assumes;
+// its ceilings are those of the exact least-squares answer on these inputs, computed in exact
+// rational arithmetic by tests/reference/generate_filip_ceiling.py: 7.90, 8.65, 8.47, 10.65.
+// Where the certified value is 0 (Wampler1/2 SDs) the log absolute error is used, as NIST advises.
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -54,6 +57,8 @@ TEST(StrdLinearRegression, AllElevenSetsReachTheirDigits) {
         {"NoInt2", 15.0, 14.9, 15.0, 15.0},   {"Filip", 7.6, 7.6, 9.6, 11.8},       {"Longley", 14.6, 14.9, 15.0, 15.0},
         {"Wampler1", 15.0, 15.0, 15.0, 15.0}, {"Wampler2", 13.2, 15.0, 15.0, 15.0}, {"Wampler3", 15.0, 14.5, 14.8, 15.0},
         {"Wampler4", 15.0, 14.5, 14.8, 15.0}, {"Wampler5", 15.0, 14.5, 14.8, 15.0}};
+    // Filip with its powers built in binary64 (see the top of this file).
+    const Ceiling filip_as_built = {"Filip", 7.90, 8.65, 8.47, 10.65};
     std::printf("\n%-9s  %-14s  %-14s  %-14s  %-14s\n", "set", "coef (ceil)", "SD (ceil)", "resid SD (ceil)", "R2 (ceil)");
     for (const auto& c : sets) {
         const std::string name = c.name;
@@ -98,11 +103,11 @@ TEST(StrdLinearRegression, AllElevenSetsReachTheirDigits) {
         std::printf("%-9s  %5.1f (%4.1f)    %5.1f (%4.1f)    %5.1f (%4.1f)    %5.1f (%4.1f)\n", c.name, worst_estimate,
                     c.coefficients, worst_sd, c.sds, sd_lre, c.residual_sd, r2_lre, c.r2);
 
-        const double required = name == "Filip" ? 7.0 : 9.0;
-        EXPECT_GE(worst_estimate, required) << name << " coefficients";
-        EXPECT_GE(worst_sd, required) << name << " standard deviations";
-        EXPECT_GE(sd_lre, required) << name << " residual SD";
-        EXPECT_GE(r2_lre, required) << name << " R²";
+        const Ceiling& ceiling = name == "Filip" ? filip_as_built : c;
+        EXPECT_GE(worst_estimate, ceiling.coefficients - 0.3) << name << " coefficients";
+        EXPECT_GE(worst_sd, ceiling.sds - 0.3) << name << " standard deviations";
+        EXPECT_GE(sd_lre, ceiling.residual_sd - 0.3) << name << " residual SD";
+        EXPECT_GE(r2_lre, ceiling.r2 - 0.3) << name << " R²";
     }
 }
 
