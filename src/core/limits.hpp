@@ -31,6 +31,7 @@ Table select_limit_output(const LimitResult& limit, const std::string& output);
 // (Cantelli's one-sided inequality: mean + √(1/α − 1)·s/√n). The k-factor is the multiplier of s.
 LimitResult limit_mean(std::span<const double> values, const std::string& method, double level);
 inline constexpr std::size_t bootstrap_draws = 2000;
+inline constexpr std::size_t max_bootstrap_values = 100000;
 
 // The percentile at `fraction` as PERCENTILE.INC computes it (linear interpolation between order
 // statistics) and its distribution-free upper confidence limit: the smallest order statistic

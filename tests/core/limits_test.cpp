@@ -262,6 +262,13 @@ TEST(Limits, Refusals) {
     EXPECT_NE(refusal_text([&] { limit_mean(x, "t", 0); }).find("level must be"), std::string::npos);
     EXPECT_NE(refusal_text([&] { limit_mean(x, "median", 0.95); }).find("valid: t, bootstrap, chebyshev"), std::string::npos);
     EXPECT_NE(refusal_text([&] { limit_mean(equal, "bootstrap", 0.95); }).find("at least 10 values"), std::string::npos);
+    const std::vector<double> many(max_bootstrap_values + 1, 1.0);
+    EXPECT_NE(refusal_text([&] { limit_mean(many, "bootstrap", 0.95); }).find("takes up to 100000 values, found 100001"),
+              std::string::npos);
+    // ln(0.01)/ln(0.999999) = 4605167.9, so 4605168: the proportion keeps its digits in the text (not "100.0%").
+    EXPECT_NE(refusal_text([&] { limit_tolerance(x, 0.999999, 0.99, "upper", "distribution-free"); })
+                  .find("for 99.9999% at 99% confidence needs at least 4605168 values"),
+              std::string::npos);
     EXPECT_NE(refusal_text([&] { limit_percentile(x, 1, 0.95); }).find("largest value"), std::string::npos);
     EXPECT_NE(refusal_text([&] { limit_percentile(x, -0.1, 0.95); }).find("fraction must be"), std::string::npos);
     EXPECT_NE(refusal_text([&] { limit_tolerance(x, 1, 0.95, "", ""); }).find("proportion must be"), std::string::npos);
