@@ -358,7 +358,7 @@ void require_some_values(const CensoredGroups& groups) {
 Table describe_censored(const CensoredGroups& groups, const std::string& method_given, double level) {
     const std::string method = match_keyword(method_given, {"kaplan-meier", "ros"}, "method");
     require_some_values(groups);
-    if (!(level > 0 && level < 1)) throw Refusal("level must be a fraction between 0 and 1 (or a percentage from 50 to 99.9)");
+    if (!(level > 0 && level < 1)) throw Refusal("level must be a fraction such as 0.95 or a percentage from 50 to 99.9");
     refuse_beyond_scale(groups);
     // More than 80% censored: no method estimates the summaries (Helsel 2012, §8.1 table of methods).
     for (std::size_t g = 0; g < groups.names.size(); ++g) {

@@ -5,7 +5,6 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
-#include <functional>
 #include <string>
 #include <vector>
 
@@ -18,6 +17,7 @@ namespace {
 
 using test_support::expect_relative;
 using test_support::reference_file;
+using test_support::refusal_text;
 
 std::vector<CensoredValue> from_json(const nlohmann::json& cells) {
     std::vector<CensoredValue> out;
@@ -42,15 +42,6 @@ CensoredValue at(double value) { return {value, false}; }
 bool blank(const CellValue& v) { return std::holds_alternative<std::monostate>(v); }
 double number(const CellValue& v) { return std::get<double>(v); }
 std::string text(const CellValue& v) { return std::get<std::string>(v); }
-
-std::string refusal_of(const std::function<void()>& call) {
-    try {
-        call();
-    } catch (const Refusal& r) {
-        return r.what();
-    }
-    return "no refusal";
-}
 
 // Column positions of DESCRIBE.CENSORED's table.
 enum Column { group, n, censored, censored_share, lowest_limit, highest_limit, mean_col, se, ci_low, ci_high, q1, median, q3, maximum, method_col };
@@ -326,7 +317,7 @@ TEST(CensoredDescribe, MoreThanEightyPercentCensoredIsARefusal) {
     // 5 of 6 censored (83%).
     const CensoredGroups g{{"north", "south"},
                            {{lt(1), lt(1), lt(1), lt(0.5), lt(0.5), at(2)}, {at(1), at(2), at(3)}}, 0};
-    EXPECT_EQ(refusal_of([&] { describe_censored(g, "", 0.95); }),
+    EXPECT_EQ(refusal_text([&] { describe_censored(g, "", 0.95); }),
               "north has 5 of 6 values below a detection limit (83%); above 80% no method estimates a mean or "
               "quartiles: report how many were detected, or describe the other groups without it");
     // Exactly 80% (4 of 5) is allowed: the mean is blank; P̂(X < 2) = 4/5 leaves even q3 in the
@@ -373,14 +364,14 @@ TEST(CensoredDescribe, CompleteDataAndEmptyGroups) {
 
 TEST(CensoredBadInput, Refusals) {
     const CensoredGroups all_censored{{"a", "b"}, {{lt(1), lt(0.5)}, {lt(1), lt(2)}}, 0};
-    EXPECT_NE(refusal_of([&] { describe_censored(all_censored, "", 0.95); }).find("a has 2 of 2 values below"), std::string::npos);
-    EXPECT_EQ(refusal_of([&] { compare_censored(all_censored, ""); }),
+    EXPECT_NE(refusal_text([&] { describe_censored(all_censored, "", 0.95); }).find("a has 2 of 2 values below"), std::string::npos);
+    EXPECT_EQ(refusal_text([&] { compare_censored(all_censored, ""); }),
               "every value is below a detection limit; the groups can only be compared on detected values");
-    EXPECT_EQ(refusal_of([&] { describe_censored(CensoredGroups{{"a"}, {{}}, 3}, "", 0.95); }),
+    EXPECT_EQ(refusal_text([&] { describe_censored(CensoredGroups{{"a"}, {{}}, 3}, "", 0.95); }),
               "values holds no numbers and no values below a detection limit (<0.5)");
-    EXPECT_NE(refusal_of([&] { describe_censored(all_censored, "mle", 0.95); }).find("kaplan-meier, ros"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { compare_censored(all_censored, "logrank"); }).find("peto-prentice, gehan"), std::string::npos);
-    EXPECT_EQ(refusal_of([&] { compare_censored(CensoredGroups{{"a"}, {{at(1), at(2)}}, 0}, ""); }),
+    EXPECT_NE(refusal_text([&] { describe_censored(all_censored, "mle", 0.95); }).find("kaplan-meier, ros"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { compare_censored(all_censored, "logrank"); }).find("peto-prentice, gehan"), std::string::npos);
+    EXPECT_EQ(refusal_text([&] { compare_censored(CensoredGroups{{"a"}, {{at(1), at(2)}}, 0}, ""); }),
               "groups has 1 label; COMPARE.CENSORED compares two or more groups");
 
     CensoredGroups many;
@@ -388,28 +379,28 @@ TEST(CensoredBadInput, Refusals) {
         many.names.push_back("well " + std::to_string(g));
         many.values.push_back({at(g + 1.0), lt(0.5)});
     }
-    EXPECT_EQ(refusal_of([&] { compare_censored(many, ""); }), "groups has 101 labels; COMPARE.CENSORED compares up to 100 groups");
+    EXPECT_EQ(refusal_text([&] { compare_censored(many, ""); }), "groups has 101 labels; COMPARE.CENSORED compares up to 100 groups");
     // One detect among censored values in one group, detects elsewhere: the test still runs.
     const CensoredGroups one_detect{{"a", "b"}, {{lt(1), lt(1), at(1.5)}, {at(0.8), at(2), at(3)}}, 0};
     EXPECT_TRUE(std::isfinite(compare_censored(one_detect, "").number("p")));
     // ROS needs two different detects.
-    EXPECT_NE(refusal_of([&] { describe_censored(CensoredGroups{{"a"}, {{lt(1), at(2), at(2)}}, 0}, "ros", 0.95); })
+    EXPECT_NE(refusal_text([&] { describe_censored(CensoredGroups{{"a"}, {{lt(1), at(2), at(2)}}, 0}, "ros", 0.95); })
                   .find("a: ROS fits a line"),
               std::string::npos);
     // ROS is lognormal: a zero is a refusal pointing to Kaplan–Meier.
-    EXPECT_NE(refusal_of([&] { describe_censored(CensoredGroups{{"a"}, {{lt(1), at(0), at(2), at(3)}}, 0}, "ros", 0.95); })
+    EXPECT_NE(refusal_text([&] { describe_censored(CensoredGroups{{"a"}, {{lt(1), at(0), at(2), at(3)}}, 0}, "ros", 0.95); })
                   .find("use method 'kaplan-meier'"),
               std::string::npos);
     // A group whose values are all censored above every detect carries nothing to compare.
     const CensoredGroups above{{"a", "b"}, {{at(0.5), at(0.8), at(1.2)}, {lt(5), lt(5)}}, 0};
-    EXPECT_NE(refusal_of([&] { compare_censored(above, ""); }).find("b holds only values below limits above every detected value (<5 and up)"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { compare_censored(above, ""); }).find("b holds only values below limits above every detected value (<5 and up)"), std::string::npos);
     // Extremes: the scale refusal, never an infinite or NaN cell.
     const CensoredGroups huge{{"a", "b"}, {{at(1e308), lt(-1e308), at(3)}, {at(1), at(2), at(-1e300)}}, 0};
-    EXPECT_NE(refusal_of([&] { describe_censored(huge, "", 0.95); }).find("too large"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { compare_censored(huge, ""); }).find("too large"), std::string::npos);
-    EXPECT_NE(refusal_of([&] { describe_censored(one_detect, "", 1.5); }).find("level"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { describe_censored(huge, "", 0.95); }).find("too large"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { compare_censored(huge, ""); }).find("too large"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { describe_censored(one_detect, "", 1.5); }).find("level"), std::string::npos);
     const CensoredGroups not_a_number{{"a", "b"}, {{at(std::nan("")), at(1)}, {at(2), lt(1)}}, 0};
-    EXPECT_NE(refusal_of([&] { compare_censored(not_a_number, ""); }).find("NaN"), std::string::npos);
+    EXPECT_NE(refusal_text([&] { compare_censored(not_a_number, ""); }).find("NaN"), std::string::npos);
 }
 
 // Several limits mixed within and across groups, and tiny values: numbers stay finite.
