@@ -177,9 +177,10 @@ TestResult spearman_correlation(std::span<const double> x, std::span<const doubl
     return result;
 }
 
-TestResult kendall_correlation(std::span<const double> x, std::span<const double> y) {
-    refuse_unusable(x, y);
+KendallScore kendall_score(std::span<const double> x, std::span<const double> y) {
     const std::size_t n = x.size();
+    KendallScore score;
+    if (n < 2) return score;
 
     // Knight (1966): sort by x, then y; ties in x and joint ties are runs of the sorted pairs.
     std::vector<std::size_t> order(n);
@@ -194,33 +195,46 @@ TestResult kendall_correlation(std::span<const double> x, std::span<const double
     // Discordant pairs are the inversions of y in that order (pairs tied in x are already in y order).
     std::vector<double> ys(n), buffer(n);
     for (std::size_t i = 0; i < n; ++i) ys[i] = y[order[i]];
-    const double discordant = static_cast<double>(count_inversions(ys, buffer, 0, n));
+    score.discordant = count_inversions(ys, buffer, 0, n);
     const TieSums y_ties = tie_sums(n, [&](std::size_t a, std::size_t b) { return ys[a] == ys[b]; });
 
     const double nn = static_cast<double>(n);
     const double total = nn * (nn - 1) / 2;
-    const double concordant_minus_discordant = total - x_ties.pairs - y_ties.pairs + joint_ties.pairs - 2 * discordant;
-    const double tau = concordant_minus_discordant / std::sqrt((total - x_ties.pairs) * (total - y_ties.pairs));
+    score.s = total - x_ties.pairs - y_ties.pairs + joint_ties.pairs - 2 * static_cast<double>(score.discordant);
+    score.denominator = std::sqrt((total - x_ties.pairs) * (total - y_ties.pairs));
+    score.ties = x_ties.pairs > 0 || y_ties.pairs > 0;
+    // Tie-corrected variance of C − D (Kendall 1970, eq. 4.3); the last term needs n ≥ 3.
+    const double v0 = nn * (nn - 1) * (2 * nn + 5);
+    score.variance = (v0 - x_ties.variance - y_ties.variance) / 18.0 +
+                     (2 * x_ties.pairs) * (2 * y_ties.pairs) / (2 * nn * (nn - 1)) +
+                     (n > 2 ? x_ties.cubic * y_ties.cubic / (9 * nn * (nn - 1) * (nn - 2)) : 0.0);
+    return score;
+}
+
+double kendall_exact_p(std::size_t n, std::uint64_t discordant) {
+    // Two-sided: twice the smaller tail of the inversion count (the distribution is symmetric).
+    const std::uint64_t all = static_cast<std::uint64_t>(n) * (n - 1) / 2;
+    const std::uint64_t c = std::min(discordant, all - discordant);
+    return 4 * c == static_cast<std::uint64_t>(n) * (n - 1) ? 1.0
+                                                            : std::min(1.0, 2.0 * inversions_cdf(n, static_cast<std::size_t>(c)));
+}
+
+TestResult kendall_correlation(std::span<const double> x, std::span<const double> y) {
+    refuse_unusable(x, y);
+    const std::size_t n = x.size();
+    const KendallScore score = kendall_score(x, y);
+    const double tau = score.s / score.denominator;
 
     TestResult result;
-    const bool exact = x_ties.pairs == 0 && y_ties.pairs == 0 && n < 50;
+    const bool exact = !score.ties && n < 50;
     // The name says how p was found, as the rank-sum and signed-rank tests' names do.
     result.test = exact ? "Kendall's tau-b (exact p)" : "Kendall's tau-b (normal approximation)";
     double p;
     if (exact) {
-        // Two-sided: twice the smaller tail of the inversion count (the distribution is symmetric).
-        const auto inversions = static_cast<std::size_t>(discordant);
-        const std::size_t all = n * (n - 1) / 2;
-        const std::size_t c = std::min(inversions, all - inversions);
-        p = 4 * c == n * (n - 1) ? 1.0 : std::min(1.0, 2.0 * inversions_cdf(n, c));
+        p = kendall_exact_p(n, score.discordant);
         result.add("statistic", tau);
     } else {
-        // Tie-corrected variance of C − D (Kendall 1970, eq. 4.3).
-        const double v0 = nn * (nn - 1) * (2 * nn + 5);
-        const double variance = (v0 - x_ties.variance - y_ties.variance) / 18.0 +
-                                (2 * x_ties.pairs) * (2 * y_ties.pairs) / (2 * nn * (nn - 1)) +
-                                x_ties.cubic * y_ties.cubic / (9 * nn * (nn - 1) * (nn - 2));
-        const double z = concordant_minus_discordant / std::sqrt(variance);
+        const double z = score.s / std::sqrt(score.variance);
         p = 2.0 * boost::math::cdf(boost::math::complement(boost::math::normal(), std::fabs(z)));
         result.add("statistic", z);
     }
