@@ -7,6 +7,7 @@
 #include <numeric>
 #include <random>
 #include <set>
+#include <unordered_map>
 #include <utility>
 
 #include <boost/math/distributions/normal.hpp>
@@ -495,10 +496,11 @@ TestResult mann_kendall_trend(const TrendSeries& series, const TrendOptions& opt
     std::vector<std::uint32_t> season(n, 0);
     std::vector<std::string> season_names;
     if (!series.seasons.empty()) {
+        std::unordered_map<std::string, std::uint32_t> code;
         for (std::size_t i = 0; i < n; ++i) {
-            auto found = std::find(season_names.begin(), season_names.end(), series.seasons[i]);
-            season[i] = static_cast<std::uint32_t>(found - season_names.begin());
-            if (found == season_names.end()) season_names.push_back(series.seasons[i]);
+            const auto [at, added] = code.emplace(series.seasons[i], static_cast<std::uint32_t>(season_names.size()));
+            if (added) season_names.push_back(series.seasons[i]);
+            season[i] = at->second;
         }
     }
     const std::size_t season_count = std::max<std::size_t>(1, season_names.size());

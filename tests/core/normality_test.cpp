@@ -26,15 +26,6 @@ const nlohmann::json& fixture() { return reference_file("normality.json"); }
 std::vector<double> values_of(const nlohmann::json& c) { return c.at("values").get<std::vector<double>>(); }
 
 
-std::string refusal_text(auto&& call) {
-    try {
-        call();
-    } catch (const Refusal& r) {
-        return r.what();
-    }
-    return "(no refusal)";
-}
-
 // Shapiro & Wilk (1965), Biometrika 52, 591–611, worked example (weights of 11 men, lb; data and
 // W = 0.79 quoted from memory): the printed W has two decimals, so agreement to 0.005. The
 // paper's W uses the exact coefficients; Royston's approximation gives 0.7888.
