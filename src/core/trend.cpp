@@ -432,7 +432,7 @@ std::string trend_sentence(const TrendReport& r) {
     s += ": S = " + format_df(r.s);
     if (!r.exact) s += ", z = " + format_number(r.z);
     s += ", " + format_p(r.p) + ", τ = " + format_number(r.tau) + "; Sen slope " + format_number(r.slope) + " " + r.unit;
-    if (std::holds_alternative<double>(r.ci_low))
+    if (std::holds_alternative<double>(r.ci_low) && std::holds_alternative<double>(r.ci_high))
         s += " (" + format_level(r.level) + " CI " + format_number(std::get<double>(r.ci_low)) + " to " +
              format_number(std::get<double>(r.ci_high)) + ")";
     if (std::holds_alternative<double>(r.percent)) s += ", " + format_number(std::get<double>(r.percent)) + "% of the median " + r.unit;
