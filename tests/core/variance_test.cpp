@@ -40,7 +40,6 @@ Groups make_groups(std::vector<std::string> names, std::vector<std::vector<doubl
     return g;
 }
 
-
 // scipy 1.10 levene(center='median'), levene(center='mean'), bartlett, fligner(center='median') and
 // the F distribution (generate_normality.py): the same closed forms, 1e-9 relative.
 TEST(CheckVariance, MatchesScipy) {
