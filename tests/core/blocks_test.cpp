@@ -413,5 +413,55 @@ TEST(Nested, Refusals) {
     EXPECT_EQ(refusal({{1}, {"a", "b"}, {"p"}}), "values, groups and units must have the same number of rows");
 }
 
+
+// Robustness (common practice, no source): small random sheets from a few labels, with readings
+// from ±1e308 to denormals, ties and repeats. Every call either answers with finite numbers in every
+// numeric cell of its table or refuses; nothing else escapes (the fuzzer's rule for cell functions).
+TEST(BlocksAndNested, RandomSheetsAnswerOrRefuse) {
+    std::mt19937 rng(20261204);
+    const std::vector<double> pool = {0, 1, -1, 2.5, 1e308, -1e308, 4.9e-324, 1e-310, 3, 3, 7, 1e-300, 12.25};
+    std::size_t answered = 0, refused = 0;
+    const auto finite_table = [](const Table& t) {
+        for (const auto& row : t)
+            for (const auto& cell : row)
+                if (const double* x = std::get_if<double>(&cell); x && !std::isfinite(*x)) return false;
+        return true;
+    };
+    for (int trial = 0; trial < 800; ++trial) {
+        Sheet s;
+        const std::size_t rows = 1 + rng() % 24, groups = 1 + rng() % 4, blocks = 1 + rng() % 5;
+        for (std::size_t i = 0; i < rows; ++i) {
+            s.values.push_back(rng() % 3 == 0 ? pool[rng() % pool.size()] : static_cast<double>(rng() % 9));
+            s.groups.push_back(std::string(1, static_cast<char>('a' + rng() % groups)));
+            s.blocks.push_back("b" + std::to_string(rng() % blocks));
+        }
+        for (const char* method : {"pooled", "ranks", "sign"}) {
+            try {
+                EXPECT_TRUE(finite_table(compare_blocks(s.readings(), method).table())) << trial << method;
+                EXPECT_TRUE(finite_table(compare_blocks_pairs(s.readings(), method, std::nullopt).table())) << trial << method;
+                ++answered;
+            } catch (const Refusal&) {
+                ++refused;
+            }
+        }
+        try {
+            EXPECT_TRUE(finite_table(compare_nested(s.nested()).table())) << trial;
+            ++answered;
+        } catch (const Refusal&) {
+            ++refused;
+        }
+    }
+    // Both paths are taken many times.
+    EXPECT_GT(answered, 300u);
+    EXPECT_GT(refused, 300u);
+}
+
+// Infinite or NaN readings never reach the core from a sheet; a direct caller gets a refusal.
+TEST(BlocksAndNested, NonFiniteReadingsRefused) {
+    const Sheet s{{1, std::nan(""), 3, 4}, {"a", "b", "a", "b"}, {"x", "x", "y", "y"}};
+    EXPECT_THROW(compare_blocks(s.readings(), ""), Refusal);
+    EXPECT_THROW(compare_nested(s.nested()), Refusal);
+}
+
 }  // namespace
 }  // namespace quadrat
