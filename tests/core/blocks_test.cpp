@@ -4,7 +4,6 @@
 
 #include <algorithm>
 #include <cmath>
-#include <functional>
 #include <random>
 #include <string>
 #include <vector>
@@ -69,15 +68,6 @@ void expect_pairs(const PosthocResult& got, const nlohmann::json& ref, double to
         expect_relative(c.p, ref[i]["p"].get<double>(), tolerance, "p");
         expect_relative(c.adjusted_p, ref[i]["adjusted p"].get<double>(), tolerance, "adjusted p");
     }
-}
-
-std::string refusal_of(const std::function<void()>& f) {
-    try {
-        f();
-    } catch (const Refusal& e) {
-        return e.what();
-    }
-    return "(no refusal)";
 }
 
 // ---------------------------------------------------------------- published examples
@@ -261,7 +251,7 @@ TEST(Blocks, TwoGroupsAreCompareBlocksOfPairs) {
 
 TEST(Blocks, Refusals) {
     const auto refusal = [](Sheet s, const std::string& method = "") {
-        return refusal_of([&] { compare_blocks(s.readings(), method); });
+        return refusal_text([&] { compare_blocks(s.readings(), method); });
     };
     EXPECT_EQ(refusal({{1, 2, 3}, {"a", "b", "c"}, {"x", "x", "x"}}),
               "all readings are in one block (x); a block design compares groups within at least 2 blocks — with "
@@ -292,7 +282,7 @@ TEST(Blocks, Refusals) {
     // Two groups with the same difference in every block: COMPARE.PAIRED's refusal.
     EXPECT_EQ(refusal({{1, 2, 5, 6}, {"a", "b", "a", "b"}, {"x", "x", "y", "y"}}),
               "all differences are equal (no spread); a t-test needs spread in the differences");
-    EXPECT_EQ(refusal_of([&] { compare_blocks_pairs(Sheet{{1, 2, 4, 2, 3, 5, 3, 4, 6}, {"a", "b", "c", "a", "b", "c", "a", "b", "c"},
+    EXPECT_EQ(refusal_text([&] { compare_blocks_pairs(Sheet{{1, 2, 4, 2, 3, 5, 3, 4, 6}, {"a", "b", "c", "a", "b", "c", "a", "b", "c"},
                                                           {"x", "x", "x", "y", "y", "y", "z", "z", "z"}}.readings(), "ranks", std::nullopt); }),
               "every block ranks the groups alike; Conover's comparisons need some disagreement between blocks (the "
               "Friedman test itself is in output 'p')");
@@ -398,7 +388,7 @@ TEST(Nested, NegativeComponentSetToZero) {
 }
 
 TEST(Nested, Refusals) {
-    const auto refusal = [](Sheet s) { return refusal_of([&] { compare_nested(s.nested()); }); };
+    const auto refusal = [](Sheet s) { return refusal_text([&] { compare_nested(s.nested()); }); };
     EXPECT_EQ(refusal({{1, 2, 3, 4, 5, 6}, {"a", "a", "b", "b", "b", "b"}, {"p1", "p1", "p2", "p2", "p1", "p1"}}),
               "unit 'p1' appears in groups 'a' and 'b'; in a nested design each unit belongs to one group — give units "
               "in different groups different labels");
