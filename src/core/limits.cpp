@@ -70,7 +70,7 @@ double finite_limit(double x) {
 }
 
 double fraction_argument(double p, const std::string& name) {
-    if (!(p > 0 && p < 1)) throw Refusal(name + " must be a fraction between 0 and 1 (such as 0.9), found " + format_number(p));
+    if (!(p > 0 && p < 1)) throw Refusal(name + " must be a fraction between 0 and 1 (such as 0.9), found " + number_label(p));
     return p;
 }
 
@@ -346,7 +346,7 @@ LimitResult limit_percentile(std::span<const double> values, double fraction, do
     const double level = parse_level(level_given, false);
     if (!(fraction >= 0 && fraction < 1))
         throw Refusal(fraction == 1 ? std::string("fraction 1 is the largest value, which has no upper confidence limit; use a fraction below 1")
-                                    : "fraction must be from 0 to 1 (0.9 for the 90th percentile), found " + format_number(fraction));
+                                    : "fraction must be from 0 to 1 (0.9 for the 90th percentile), found " + number_label(fraction));
     const std::vector<double> sorted = sorted_finite(values, 1, "a percentile");
     const std::size_t n = sorted.size();
     const std::size_t rank = order_statistic_rank(n, fraction, level);
@@ -481,7 +481,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
                              const std::string& side_given, const std::string& method_given) {
     const double level = parse_level(level_given, false);
     if (!(readings >= 1 && readings <= 1e6 && readings == std::floor(readings)))
-        throw Refusal("readings must be a whole number of new readings from 1 to 1000000, found " + format_number(readings));
+        throw Refusal("readings must be a whole number of new readings from 1 to 1000000, found " + number_label(readings));
     const Side side = side_keyword(side_given);
     const std::string method = match_keyword(method_given, {"normal", "distribution-free"}, "method");
     const std::string next = readings == 1 ? "the next reading" : "each of the next " + format_df(readings) + " readings";

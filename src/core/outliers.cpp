@@ -80,7 +80,7 @@ OutlierCheck generalized_esd(std::span<const double> values, double most_given, 
     if (most_given > 0) {
         if (!(most_given == std::floor(most_given) && most_given <= static_cast<double>(n / 2)))
             throw Refusal("most must be a whole number from 1 to " + std::to_string(n / 2) +
-                          " (half the values), found " + format_number(most_given));
+                          " (half the values), found " + number_label(most_given));
         most = static_cast<std::size_t>(most_given);
     }
     const SortedValues s = sorted_values(values);
@@ -196,7 +196,7 @@ OutlierCheck check_outliers(std::span<const double> values, const std::string& m
     const std::string method = match_keyword(method_given, {"generalized-esd", "grubbs", "fences"}, "method");
     const double level = parse_level(level_given, false);
     if (most > 0 && method != "generalized-esd") throw Refusal("most applies to method generalized-esd only; leave it empty");
-    if (most < 0 || std::isnan(most)) throw Refusal("most must be a whole number of values from 1, found " + format_number(most));
+    if (most < 0 || std::isnan(most)) throw Refusal("most must be a whole number of values from 1, found " + number_label(most));
     if (method == "generalized-esd") return generalized_esd(values, most, 1 - level);
     if (method == "grubbs") return grubbs(values, 1 - level);
     return fences(values);

@@ -20,13 +20,13 @@ namespace quadrat {
 namespace {
 
 double positive(double x, const std::string& name, const std::string& what) {
-    if (!(std::isfinite(x) && x > 0)) throw Refusal(name + " must be a positive number (" + what + "), found " + format_number(x));
+    if (!(std::isfinite(x) && x > 0)) throw Refusal(name + " must be a positive number (" + what + "), found " + number_label(x));
     return x;
 }
 
 double per_group(double n) {
     if (!(n >= 2 && n <= 1e9 && n == std::floor(n)))
-        throw Refusal("n must be a whole number of readings per group from 2 to 1000000000, found " + format_number(n));
+        throw Refusal("n must be a whole number of readings per group from 2 to 1000000000, found " + number_label(n));
     return n;
 }
 
@@ -36,7 +36,7 @@ double alpha_of(double level) { return 1 - parse_level(level, false); }
 
 double target_power(double power, double alpha) {
     if (!(power > 0 && power < 1))
-        throw Refusal("power must be a fraction between 0 and 1 (such as 0.8), found " + format_number(power));
+        throw Refusal("power must be a fraction between 0 and 1 (such as 0.8), found " + number_label(power));
     if (!(power > alpha))
         throw Refusal("power must be above " + number_label(alpha) +
                       ", the share of tests that flag a difference where there is none at this level");
@@ -97,7 +97,7 @@ Design plan_design(const std::string& design, double count, bool count_given) {
     if (g.kind == DesignKind::several_groups) {
         if (!count_given) throw Refusal("design several-groups needs count, the number of groups (3 or more)");
         if (!(count >= 2 && count <= 10000 && count == std::floor(count)))
-            throw Refusal("count must be a whole number of groups from 2 to 10000, found " + format_number(count));
+            throw Refusal("count must be a whole number of groups from 2 to 10000, found " + number_label(count));
         g.groups = count;
     } else if (count_given) {
         throw Refusal("count is the number of groups of design several-groups; leave it empty for design " + key);
