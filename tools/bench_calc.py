@@ -19,8 +19,7 @@ import sys
 import tempfile
 import time
 
-sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from office_session import Office, file_url, props  # noqa: E402
+from quadrat_sheets.office import Office, file_url, props
 
 SEED = 20261202
 PAD = 20  # spare rows below the data, room for the shifted copies

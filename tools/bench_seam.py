@@ -23,8 +23,7 @@ import random
 import sys
 import time
 
-sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from office_session import Office  # noqa: E402
+from quadrat_sheets.office import Office
 
 
 def soffice_rss_mb(office):

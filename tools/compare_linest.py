@@ -29,10 +29,10 @@ import os
 import re
 import sys
 
-HERE = os.path.dirname(os.path.abspath(__file__))
-sys.path.insert(0, HERE)
+from quadrat_sheets.cells import column_name
+from quadrat_sheets.office import Office
 
-from office_session import Office, column_name  # noqa: E402
+HERE = os.path.dirname(os.path.abspath(__file__))
 
 STRD = os.path.join(HERE, "..", "tests", "data", "nist-strd")
 SETS = ["Norris", "Pontius", "NoInt1", "NoInt2", "Filip", "Longley",

@@ -4,7 +4,7 @@ recompute, print the Quadrat results of every sheet as a text table, and write a
 
     /usr/bin/python3 tools/main_job.py --oxt build/quadrat.oxt --out out sample_sheets/*.fods
 
-The extension goes into a throwaway private profile (tools/office_session.py): your own
+The extension goes into a throwaway private profile (tools/quadrat_sheets/office.py): your own
 LibreOffice profile and installation are not touched.
 """
 
@@ -19,8 +19,8 @@ import zipfile
 import uno
 from com.sun.star.beans import PropertyValue
 
-sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from office_session import Office, column_name, file_url, props  # noqa: E402
+from quadrat_sheets.cells import column_name
+from quadrat_sheets.office import Office, file_url, props
 
 STORED_PREFIX = "ORG.QUADRAT.FUNCTIONS."
 FORMULA = 16  # com.sun.star.sheet.CellFlags.FORMULA

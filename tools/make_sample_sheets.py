@@ -6,7 +6,7 @@ forest-regression.fods and fish-counts.fods.
 
 All data are invented and generated with fixed seeds (nothing measured anywhere). Each workbook
 is built through UNO in a headless Calc with the extension installed in a throwaway profile
-(tools/office_session.py): the raw long-format table is filled in (header row, a few blanks and
+(tools/quadrat_sheets/office.py): the raw long-format table is filled in (header row, a few blanks and
 an `n/a`, as real field sheets have), the Quadrat formulas are typed beside it under their
 display names, array formulas are sized to their result, the charts are added over the result
 cells, and the document is stored as flat ODF. Rerunning the script reproduces the files.
@@ -26,8 +26,8 @@ from com.sun.star.awt import Rectangle, Size
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(HERE)
-sys.path.insert(0, HERE)
-from office_session import Office, column_name, file_url, props  # noqa: E402
+from quadrat_sheets.cells import column_name
+from quadrat_sheets.office import Office, file_url, props
 
 NOT_AVAILABLE = 32767  # the office's #N/A: a cell of an array block beyond the result
 

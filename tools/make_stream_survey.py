@@ -14,11 +14,10 @@ column. The results sit to the right of the raw table, as a technician would put
 import math
 import os
 import random
-import sys
+
+from quadrat_sheets.fods import Workbook
 
 ROOT = os.path.dirname(os.path.dirname(os.path.abspath(__file__)))
-sys.path.insert(0, os.path.join(ROOT, "tests", "office"))
-from fods import Workbook  # noqa: E402
 
 rng = random.Random(20260502)
 

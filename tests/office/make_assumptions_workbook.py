@@ -12,7 +12,7 @@ are checked against Calc's own NORMSINV and SMALL on the same cells.
 import json
 import os
 
-from fods import Checks, Workbook
+from quadrat_sheets.fods import Checks, Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 NORMALITY = json.load(open(os.path.join(HERE, "..", "reference", "normality.json")))

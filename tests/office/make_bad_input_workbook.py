@@ -29,7 +29,7 @@ at each method's limit on `few`; blocks of counts on `counts`; wide format on `w
 import json
 import os
 
-from fods import Workbook
+from quadrat_sheets.fods import Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 with open(os.path.join(HERE, "..", "reference", "bad_input.json")) as fh:

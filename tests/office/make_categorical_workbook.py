@@ -11,12 +11,9 @@ Freeman-Halton test), except where Calc's own CHITEST computes the same p-value 
 
 import json
 import os
-import sys
 
-from fods import Workbook
-
-sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "reference"))
-from report_numbers import fmt_number, fmt_p  # noqa: E402
+from quadrat_sheets.fods import Workbook
+from quadrat_sheets.report_numbers import fmt_number, fmt_p
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 with open(os.path.join(HERE, "..", "reference", "categorical.json")) as fh:

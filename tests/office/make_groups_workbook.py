@@ -12,7 +12,7 @@ pairs. Refusal texts are the core's, exact.
 import json
 import os
 
-from fods import Checks, Workbook
+from quadrat_sheets.fods import Checks, Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 REF = json.load(open(os.path.join(HERE, "..", "reference", "compare.json")))["cases"]

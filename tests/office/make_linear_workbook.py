@@ -14,12 +14,9 @@ FIT.POINTS) to the generator's 40 reaches; layouts and refusal texts are the cat
 
 import json
 import os
-import sys
 
-from fods import Checks, Workbook
-
-sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "reference"))
-from report_numbers import fmt_number, fmt_p  # noqa: E402
+from quadrat_sheets.fods import Checks, Workbook
+from quadrat_sheets.report_numbers import fmt_number, fmt_p
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 with open(os.path.join(HERE, "..", "reference", "linear.json")) as f:

@@ -4,7 +4,8 @@ real cells, word for word.
 
     python3 tests/office/make_reports_workbook.py
 
-The data are the invented scenarios of tests/reference/generate_reports.py (imported from it), and
+The data are the invented scenarios of tools/quadrat_sheets/report_scenarios.py (as in
+tests/reference/generate_reports.py), and
 each expected sentence is the one tests/core/report_sentences_test.cpp spells out for the same
 data, whose numbers that generator computes with SciPy 1.10 / statsmodels 0.13 and formats by the
 catalogue's rules. Here the point is that the sentence reaches a cell unchanged: the UNO string
@@ -12,13 +13,11 @@ conversion keeps every character (en dashes, minus signs, χ², τ, ρ, ÷, ′)
 """
 
 import os
-import sys
 
-from fods import Workbook
+import quadrat_sheets.report_scenarios as data  # the same invented data as the core tests
+from quadrat_sheets.fods import Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-sys.path.insert(0, os.path.join(HERE, "..", "reference"))
-import generate_reports as data  # noqa: E402  (the same invented data as the core tests)
 
 SOURCE = "tests/core/report_sentences_test.cpp (%s), numbers from tests/reference/generate_reports.py; exact text"
 

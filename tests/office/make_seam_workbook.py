@@ -15,7 +15,7 @@ headers and refusal texts are the catalogue's (FUNCTIONS.md) and the core's.
 
 import os
 
-from fods import Workbook
+from quadrat_sheets.fods import Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 

@@ -3,7 +3,7 @@
 
     /usr/bin/python3 tests/office/run_office_tests.py --oxt build/quadrat.oxt [workbook.fods ...]
 
-Installs the .oxt into a private, throwaway profile (tools/office_session.py), then for every
+Installs the .oxt into a private, throwaway profile (tools/quadrat_sheets/office.py), then for every
 workbook (default: tests/office/*.fods):
   1. load, calculateAll(), and compare every row of its `checks` sheet (see README.md);
   2. store it as .ods, reload, recompute: every check must give the same value again;
@@ -26,13 +26,12 @@ import time
 import xml.etree.ElementTree as ET
 import zipfile
 
+import uno
+
+from quadrat_sheets.office import Office, file_url, props
+
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(os.path.dirname(HERE))
-sys.path.insert(0, os.path.join(ROOT, "tools"))
-
-from office_session import Office, file_url, props  # noqa: E402
-
-import uno  # noqa: E402
 
 DEFAULT_TOLERANCE = 1e-12   # relative, when a number's tolerance cell is blank
 FORMULA_RESULT_VALUE = 1    # com.sun.star.sheet.FormulaResult

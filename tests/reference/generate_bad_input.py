@@ -18,7 +18,6 @@ logicals give the p of their 1/0 values, a whole column gives the bounded range'
 """
 import json
 import pathlib
-import sys
 
 import numpy as np
 import pandas as pd
@@ -29,8 +28,7 @@ import statsmodels.api as sm
 from statsmodels.formula.api import ols
 from statsmodels.stats.anova import anova_lm
 
-sys.path.insert(0, str(pathlib.Path(__file__).parent))
-from generate_normality import royston_shapiro_wilk  # noqa: E402
+from generate_normality import royston_shapiro_wilk
 
 DATA = {
     "zone": ["marsh"] * 6 + ["reed"] * 6,

@@ -35,8 +35,7 @@ import statsmodels
 from statsmodels.stats.multitest import multipletests
 from statsmodels.stats.oneway import anova_oneway
 
-sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from generate_compare import signed_rank_counts  # noqa: E402  (T⁺ counts over the 2ⁿ sign patterns, Wilcoxon 1945)
+from generate_compare import signed_rank_counts  # (T⁺ counts over the 2ⁿ sign patterns, Wilcoxon 1945)
 
 mpmath.mp.dps = 40
 OUT = {"generator": "tests/reference/generate_published_compare.py",

@@ -32,16 +32,6 @@ def file_url(path):
     return uno.systemPathToFileUrl(os.path.abspath(path))
 
 
-def column_name(c):
-    """0 → 'A', 26 → 'AA': a sheet's column letters."""
-    letters = ""
-    c += 1
-    while c:
-        c, rest = divmod(c - 1, 26)
-        letters = chr(65 + rest) + letters
-    return letters
-
-
 def props(**values):
     out = []
     for name, value in values.items():

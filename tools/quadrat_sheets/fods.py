@@ -16,6 +16,8 @@ office stores it, ORG.QUADRAT.FUNCTIONS.DESCRIBEGROUPS (the display name without
 import re
 from xml.sax.saxutils import escape, quoteattr
 
+from .cells import cell_address, cell_position
+
 FAMILIES = ("CHECK", "COMPARE", "RELATE", "FIT", "ADJUST", "DESCRIBE", "ADVISE")
 _DISPLAY_NAME = re.compile(r"\b(%s)\.([A-Z]+)\(" % "|".join(FAMILIES))
 
@@ -24,17 +26,6 @@ def stored_formula(formula):
     """OpenFormula text as saved: `of:=` prefix, Quadrat display names as service.method."""
     formula = formula[1:] if formula.startswith("=") else formula
     return "of:=" + _DISPLAY_NAME.sub(lambda m: "ORG.QUADRAT.FUNCTIONS.%s%s(" % (m.group(1), m.group(2)), formula)
-
-
-def cell_position(ref):
-    """'B12' → (row 11, column 1)."""
-    m = re.fullmatch(r"([A-Z]+)(\d+)", ref)
-    if not m:
-        raise ValueError("not a cell address: %r" % ref)
-    column = 0
-    for ch in m.group(1):
-        column = column * 26 + (ord(ch) - 64)
-    return int(m.group(2)) - 1, column - 1
 
 
 class Sheet:
@@ -67,24 +58,24 @@ class Sheet:
     def row(self, ref, values):
         row, column = cell_position(ref)
         for i, v in enumerate(values):
-            self.put(_address(row, column + i), v)
+            self.put(cell_address(row, column + i), v)
 
     def column(self, ref, values):
         row, column = cell_position(ref)
         for i, v in enumerate(values):
-            self.put(_address(row + i, column), v)
+            self.put(cell_address(row + i, column), v)
 
     def block(self, ref, rows):
         row, column = cell_position(ref)
         for i, values in enumerate(rows):
-            self.row(_address(row + i, column), values)
+            self.row(cell_address(row + i, column), values)
 
     def rows(self, ref, rows):
         """A block like `block`, in which a text starting with '=' is written as a formula."""
         row, column = cell_position(ref)
         for i, values in enumerate(rows):
             for j, v in enumerate(values):
-                address = _address(row + i, column + j)
+                address = cell_address(row + i, column + j)
                 if isinstance(v, str) and v.startswith("="):
                     self.formula(address, v)
                 else:
@@ -119,15 +110,6 @@ class Sheet:
 
 def _empty(n):
     return "<table:table-cell/>" if n == 1 else '<table:table-cell table:number-columns-repeated="%d"/>' % n
-
-
-def _address(row, column):
-    letters = ""
-    column += 1
-    while column:
-        column, rest = divmod(column - 1, 26)
-        letters = chr(65 + rest) + letters
-    return "%s%d" % (letters, row + 1)
 
 
 class Checks:
