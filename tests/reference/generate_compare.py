@@ -148,6 +148,19 @@ def u_counts(m, n):
     return prev[n]
 
 
+def exact_critical_k(counts, alpha_half):
+    """The interval's order statistic from an exact null distribution given as the count of each
+    value of the statistic: the largest k with P(statistic <= k - 1) <= alpha/2."""
+    total = sum(counts)
+    k, cum = 0, 0
+    for v, c in enumerate(counts):
+        cum += c
+        if Fraction(cum, total) > Fraction(alpha_half):
+            break
+        k = v + 1
+    return k
+
+
 def rank_sum_reference(a, b, exact):
     m, n = len(a), len(b)
     method = 'exact' if exact else 'asymptotic'
@@ -157,14 +170,7 @@ def rank_sum_reference(a, b, exact):
     hl = diffs[N // 2] if N % 2 else 0.5 * (diffs[N // 2 - 1] + diffs[N // 2])
     alpha_half = (1 - LEVEL) / 2
     if exact:
-        counts = u_counts(m, n)
-        total = sum(counts)
-        k, cum = 0, 0
-        for v, c in enumerate(counts):
-            cum += c
-            if Fraction(cum, total) > Fraction(alpha_half):
-                break
-            k = v + 1
+        k = exact_critical_k(u_counts(m, n), alpha_half)
     else:
         pooled = np.concatenate([a, b])
         _, t = np.unique(pooled, return_counts=True)
@@ -240,14 +246,7 @@ def paired_reference(d, exact):
     hl = walsh[M // 2] if M % 2 else 0.5 * (walsh[M // 2 - 1] + walsh[M // 2])
     alpha_half = (1 - LEVEL) / 2
     if exact:
-        counts = signed_rank_counts(n)
-        total = 2 ** n
-        k, cum = 0, 0
-        for v, c in enumerate(counts):
-            cum += c
-            if Fraction(cum, total) > Fraction(alpha_half):
-                break
-            k = v + 1
+        k = exact_critical_k(signed_rank_counts(n), alpha_half)  # counts over the 2^n sign patterns
     else:
         _, tc = np.unique(np.abs(nz), return_counts=True)
         var = n * (n + 1) * (2 * n + 1) / 24 - float(((tc ** 3) - tc).sum()) / 48

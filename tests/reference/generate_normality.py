@@ -131,17 +131,22 @@ def samples():
     return {k: [float(v) for v in vals] for k, vals in cases.items()}
 
 
+def lilliefors_d_of_normal_samples(rng, m, n):
+    """Lilliefors' D of m standard normal samples of size n drawn from rng (one simulation batch)."""
+    x = np.sort(rng.standard_normal((m, n)), axis=1)
+    z = (x - x.mean(1, keepdims=True)) / x.std(1, ddof=1, keepdims=True)
+    f = scipy.special.ndtr(z)
+    i = np.arange(1, n + 1)
+    return np.maximum((i / n - f).max(1), (f - (i - 1) / n).max(1))
+
+
 def simulated_lilliefors_p(d, n, seed, reps=50000):
     """Monte Carlo upper tail of the Lilliefors D for normal samples of size n (fixed seed)."""
     rng = np.random.default_rng(seed)
     above, done = 0, 0
     while done < reps:
         m = min(max(1, 2000000 // n), reps - done)
-        x = np.sort(rng.standard_normal((m, n)), axis=1)
-        z = (x - x.mean(1, keepdims=True)) / x.std(1, ddof=1, keepdims=True)
-        f = scipy.special.ndtr(z)
-        i = np.arange(1, n + 1)
-        above += int((np.maximum((i / n - f).max(1), (f - (i - 1) / n).max(1)) >= d).sum())
+        above += int((lilliefors_d_of_normal_samples(rng, m, n) >= d).sum())
         done += m
     return above / reps
 
@@ -236,11 +241,7 @@ def fit_lilliefors():
         stat, done, reps = [], 0, 100000
         while done < reps:
             m = min(max(1, 2000000 // n), reps - done)
-            x = np.sort(rng.standard_normal((m, n)), axis=1)
-            z = (x - x.mean(1, keepdims=True)) / x.std(1, ddof=1, keepdims=True)
-            f = scipy.special.ndtr(z)
-            i = np.arange(1, n + 1)
-            stat.append(np.maximum((i / n - f).max(1), (f - (i - 1) / n).max(1)))
+            stat.append(lilliefors_d_of_normal_samples(rng, m, n))
             done += m
         d = np.concatenate(stat)
         kd, nd = (d * (n / 100) ** 0.49, 100) if n > 100 else (d, n)
