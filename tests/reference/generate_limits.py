@@ -29,7 +29,6 @@ from scipy import stats
 from scipy.optimize import brentq
 from statsmodels.stats.power import FTestAnovaPower, TTestIndPower, TTestPower
 
-sys.path.insert(0, str(pathlib.Path(__file__).parent))
 from generate_describe import t_quantile  # 40-digit mpmath Student quantile
 
 ROSNER = [-0.25, 0.68, 0.94, 1.15, 1.20, 1.26, 1.26, 1.34, 1.38, 1.43, 1.49, 1.49, 1.55, 1.56,
