@@ -19,6 +19,7 @@ import zipfile
 import uno
 from com.sun.star.beans import PropertyValue
 
+from make_sample_sheets import cut_cells, short_sentences
 from quadrat_sheets.cells import column_name
 from quadrat_sheets.office import Office, file_url, props
 
@@ -47,15 +48,10 @@ def readable(formula, names):
 
 
 def shown(cell):
-    """The cell's value as text: numbers to 6 significant digits, errors by name."""
+    """The cell's value as the sheet shows it (in its number format), errors by name."""
     code = cell.getError()
     if code:
         return ERROR_NAMES.get(code, "Err:%d" % code)
-    kind = cell.getType().value
-    if kind == "EMPTY":
-        return ""
-    if kind == "VALUE" or (kind == "FORMULA" and cell.getPropertyValue("FormulaResultType2") == 1):
-        return "%.6g" % cell.getValue()
     return cell.getString()
 
 
@@ -100,6 +96,31 @@ def grid(rows, indent="      "):
     return "\n".join(indent + " | ".join(v.ljust(w) for v, w in zip(r, widths)).rstrip() for r in rows)
 
 
+def error_cells(sheet):
+    """Addresses and names of the cells of the sheet's used area that show an error."""
+    cursor = sheet.createCursor()
+    cursor.gotoStartOfUsedArea(False)
+    cursor.gotoEndOfUsedArea(True)
+    a = cursor.getRangeAddress()
+    found = []
+    for r in range(a.StartRow, a.EndRow + 1):
+        for c in range(a.StartColumn, a.EndColumn + 1):
+            code = sheet.getCellByPosition(c, r).getError()
+            if code:
+                found.append("%s%d %s" % (column_name(c), r + 1, ERROR_NAMES.get(code, "Err:%d" % code)))
+    return found
+
+
+def layout_problems(doc, sheet):
+    """Error cells, cut labels or numbers and sentences taller than their cells, as lines of text."""
+    lines = ["    error: %s" % e for e in error_cells(sheet)]
+    for address, text, need, have in cut_cells(doc, sheet):
+        lines.append("    cut: %s %r needs %.1f cm, has %.1f cm" % (address, text[:50], need, have))
+    for address, text, need, have in short_sentences(doc, sheet):
+        lines.append("    cut: %s %r needs %.1f cm of height, has %.1f cm" % (address, text[:50], need, have))
+    return lines
+
+
 def report_sheet(sheet, names):
     results = quadrat_results(sheet)
     if not results:
@@ -119,17 +140,19 @@ def report_sheet(sheet, names):
 
 
 def export_pdf(doc, sheet, path):
-    """One PDF of the sheet's used area: columns as wide as their contents, landscape, one page
-    wide (changed in the open copy only; the workbook file is not written)."""
+    """One PDF of the sheet's used area as the workbook lays it out (its own column widths and
+    number formats), landscape, one page wide (changed in the open copy only; the workbook file
+    is not written)."""
     cursor = sheet.createCursor()
     cursor.gotoStartOfUsedArea(False)
     cursor.gotoEndOfUsedArea(True)
-    area = cursor.getRangeAddress()
-    for c in range(area.StartColumn, area.EndColumn + 1):
-        column = sheet.getColumns().getByIndex(c)
-        column.OptimalWidth = True
-        # Capped, so that numbers in General format round to the width instead of showing 15 digits.
-        column.Width = min(column.Width, 2600)
+    # Down to the last row that shows something: array blocks read far below the data (so that a
+    # new season's rows are included) and would otherwise print pages of empty rows.
+    a = cursor.getRangeAddress()
+    shown_rows = [j for j, row in enumerate(sheet.getCellRangeByPosition(
+        a.StartColumn, a.StartRow, a.EndColumn, a.EndRow).getDataArray()) if any(v != "" for v in row)]
+    if shown_rows:
+        cursor = sheet.getCellRangeByPosition(a.StartColumn, a.StartRow, a.EndColumn, a.StartRow + shown_rows[-1])
     style = doc.StyleFamilies.getByName("PageStyles").getByName(sheet.PageStyle)
     if not style.IsLandscape:
         width, height = style.Width, style.Height
@@ -175,10 +198,14 @@ def main():
                 doc.calculateAll()
                 stem = os.path.splitext(os.path.basename(path))[0]
                 print("\n%s" % os.path.basename(path))
-                for index, sheet in enumerate(doc.Sheets):
+                for index, sheet in enumerate([doc.Sheets.getByIndex(i) for i in range(doc.Sheets.getCount())]):
                     text = report_sheet(sheet, names)
                     if text:
                         print(text)
+                    problems_here = layout_problems(doc, sheet)
+                    if problems_here:
+                        print("\n".join(problems_here))
+                        problems += len(problems_here)
                     pdf = os.path.join(args.out, "%s-%s.pdf" % (stem, re.sub(r"[^\w.-]+", "_", sheet.getName())))
                     export_pdf(doc, sheet, pdf)
                     print("    → %s" % pdf)
