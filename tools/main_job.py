@@ -184,7 +184,7 @@ def main():
     args = parser.parse_args()
     os.makedirs(args.out, exist_ok=True)
     names = display_names(args.oxt)
-    problems = 0
+    problems = layout = 0
     with Office() as office:
         office.start()
         office.install(args.oxt)
@@ -203,9 +203,9 @@ def main():
                     if text:
                         print(text)
                     problems_here = layout_problems(doc, sheet)
-                    if problems_here:
+                    if problems_here:  # reported for a person to fix in the generator; the job goes on
                         print("\n".join(problems_here))
-                        problems += len(problems_here)
+                        layout += len(problems_here)
                     pdf = os.path.join(args.out, "%s-%s.pdf" % (stem, re.sub(r"[^\w.-]+", "_", sheet.getName())))
                     export_pdf(doc, sheet, pdf)
                     print("    → %s" % pdf)
@@ -217,6 +217,8 @@ def main():
             finally:
                 doc.close(True)
         alive = office.alive()
+    if layout:
+        print("%d cells show an error or a cut label or number (listed above)" % layout)
     if not alive:
         print("soffice did not survive the run")
         problems += 1
