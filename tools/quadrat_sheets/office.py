@@ -43,7 +43,7 @@ def props(**values):
 
 
 class _AcceptEverything(unohelper.Base, XCommandEnvironment, XInteractionHandler, XProgressHandler):
-    """Installs without questions: accepts the licence and replaces an older copy."""
+    """Installs without questions: approves whatever the office asks (replacing an older copy)."""
 
     def getInteractionHandler(self):
         return self
