@@ -44,8 +44,8 @@ Table fit_points(const Arguments& a) {
 
 Table check_model(const Arguments& a) {
     const auto fit = fitted_regression(a);
-    const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), check_model_outputs(), "output");
-    return check_model_output(fit->model, fit->data, output);
+    const std::string output = match_keyword(keyword_argument(argument(a, 2), "output"), check_regression_outputs(), "output");
+    return check_regression_output(fit->model, fit->data, output, argument(a, 3));  // order: not declared yet
 }
 
 Table relate_correlation(const Arguments& a) {

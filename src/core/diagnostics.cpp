@@ -2,12 +2,12 @@
 
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
 #include <limits>
 
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/fisher_f.hpp>
 
+#include "data.hpp"
 #include "keywords.hpp"
 #include "normality.hpp"
 #include "refusal.hpp"
@@ -30,6 +30,32 @@ CellValue number_or_blank(double x) {
 }
 
 std::string count_rows(std::size_t count) { return std::to_string(count) + (count == 1 ? " row" : " rows"); }
+
+// The rows used by the fit (0 … n − 1) in sampling order: sorted by their `order` cell, ties kept
+// in row order. Every used row needs a number there.
+std::vector<std::size_t> sampling_order(const Range& order, const RegressionData& data) {
+    if (order.columns != 1) throw Refusal("order must be one column (found " + std::to_string(order.columns) + ")");
+    if (order.rows != data.rows)
+        throw Refusal("order has " + std::to_string(order.rows) + " rows and y has " + std::to_string(data.rows) +
+                      "; give one date, time or distance per row of y");
+    const std::size_t n = data.used_rows.size();
+    std::vector<double> key(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        const std::size_t row = data.used_rows[i];
+        const Cell& c = order.at(row, 0);
+        if (c.kind == CellKind::error) throw Refusal(error_cell_message(order, row, 0, "order"));
+        if (c.kind != CellKind::number || !std::isfinite(c.number)) {
+            const std::string at = order.is_reference ? cell_address(order, row, 0) : "row " + std::to_string(row + 1) + " of order";
+            throw Refusal(at + (c.kind == CellKind::empty ? " is empty" : " holds no number") +
+                          ", but its row is used by the fit; give every used row its date, time or distance");
+        }
+        key[i] = c.number;
+    }
+    std::vector<std::size_t> rows(n);
+    for (std::size_t i = 0; i < n; ++i) rows[i] = i;
+    std::stable_sort(rows.begin(), rows.end(), [&](std::size_t a, std::size_t b) { return key[a] < key[b]; });
+    return rows;
+}
 
 }  // namespace
 
@@ -61,8 +87,14 @@ Influence influence_measures(const LinearModel& m) {
 }
 
 const std::vector<std::string>& point_columns() {
-    static const std::vector<std::string> keys = {"fitted", "residual", "standardized", "studentized", "leverage", "cooks"};
+    static const std::vector<std::string> keys = {"fitted", "residual", "standardized", "studentized", "leverage", "cook"};
     return keys;
+}
+
+const std::vector<std::string>& point_headers() {
+    static const std::vector<std::string> words = {"fitted value",         "residual", "standardized residual",
+                                                   "studentized residual", "leverage", "Cook's distance"};
+    return words;
 }
 
 Table fit_points_table(const LinearModel& m, const RegressionData& data, const std::string& what) {
@@ -81,14 +113,14 @@ Table fit_points_table(const LinearModel& m, const RegressionData& data, const s
     // the input), else sits on top (one row more).
     const std::size_t offset = data.has_header ? 0 : 1;
     Table t(data.rows + offset, std::vector<CellValue>(keys.size()));
-    for (std::size_t c = 0; c < keys.size(); ++c) t[0][c] = keys[c];
+    for (std::size_t c = 0; c < keys.size(); ++c) t[0][c] = point_headers()[c];
     for (std::size_t i = 0; i < m.n; ++i)
         for (std::size_t c = 0; c < keys.size(); ++c)
             t[data.used_rows[i] + offset][c] = number_or_blank((*columns[c])[i]);
     return t;
 }
 
-ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
+ModelChecks check_regression(const LinearModel& m, const RegressionData& data, const Range& order) {
     if (m.perfect_fit)
         throw Refusal("the fit is perfect (every residual is 0): there is nothing to check");
     ModelChecks c;
@@ -113,23 +145,29 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
         std::vector<double> squared(n);
         for (std::size_t i = 0; i < n; ++i) squared[i] = m.residuals[i] * m.residuals[i];
         const LinearModel aux = fit_least_squares(squared, data.predictors, data.names, true);
-        c.variance_lm = nn * aux.r2;
-        c.variance_df = static_cast<double>(k);
-        const boost::math::chi_squared dist(c.variance_df);
-        c.variance_p = boost::math::cdf(boost::math::complement(dist, std::max(0.0, c.variance_lm)));
+        c.spread_lm = nn * aux.r2;
+        c.spread_df = static_cast<double>(k);
+        const boost::math::chi_squared dist(c.spread_df);
+        c.spread_p = boost::math::cdf(boost::math::complement(dist, std::max(0.0, c.spread_lm)));
     } catch (const Refusal&) {
         // Squared residuals all equal (or too few rows): the auxiliary regression has nothing to explain.
-        c.variance_lm = c.variance_p = not_defined;
-        c.variance_note = "not defined: the squared residuals do not vary";
+        c.spread_lm = c.spread_p = not_defined;
+        c.spread_note = "not defined: the squared residuals do not vary";
     }
 
-    // Independence in row order: Durbin–Watson (Durbin & Watson 1950, Biometrika 37, 409–428).
-    {
+    // Independence in sampling order: Durbin–Watson (Durbin & Watson 1950, Biometrika 37, 409–428).
+    // Rows in no particular order (plots of a forest, say) cannot be judged: without `order` there
+    // is no statistic, rather than one computed in an order that means nothing.
+    c.ordered = !order.empty();
+    c.durbin_watson = not_defined;
+    if (c.ordered) {
+        const std::vector<std::size_t> rows = sampling_order(order, data);
         Accumulator differences, squares;
         for (std::size_t i = 0; i < n; ++i) {
-            squares.add(m.residuals[i] * m.residuals[i]);
+            const double e = m.residuals[rows[i]];
+            squares.add(e * e);
             if (i > 0) {
-                const double d = m.residuals[i] - m.residuals[i - 1];
+                const double d = e - m.residuals[rows[i - 1]];
                 differences.add(d * d);
             }
         }
@@ -178,15 +216,20 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
     for (std::size_t j = 0; j < m.parameters; ++j)
         if (std::isfinite(m.vif[j])) c.max_vif = std::max(c.max_vif, m.vif[j]);
 
-    // Influence and outliers.
+    // Influence and outliers. The cut-off of the verdict is the median of F(p, n − p) (Cook &
+    // Weisberg 1982, Residuals and Influence in Regression, p. 118): a row moving the estimates
+    // beyond the centre of their joint confidence region. 4/n and 2p/n are counted for information.
     const Influence inf = influence_measures(m);
+    const double p = static_cast<double>(m.parameters);
+    c.cooks_cut = m.df_residual >= 1 ? boost::math::median(boost::math::fisher_f(p, m.df_residual)) : not_defined;
     const double cooks_cut = 4.0 / nn;
-    const double leverage_cut = 2.0 * static_cast<double>(m.parameters) / nn;
+    const double leverage_cut = 2.0 * p / nn;
     c.max_cooks = not_defined;
     for (std::size_t i = 0; i < n; ++i) {
         if (std::isfinite(inf.cooks[i])) {
             c.max_cooks = std::isfinite(c.max_cooks) ? std::max(c.max_cooks, inf.cooks[i]) : inf.cooks[i];
             if (inf.cooks[i] > cooks_cut) ++c.cooks_above;
+            if (inf.cooks[i] > c.cooks_cut) ++c.cooks_above_cut;
         }
         if (m.leverage[i] > leverage_cut) ++c.high_leverage;
         if (std::isfinite(inf.studentized[i]) && std::fabs(inf.studentized[i]) > 3.0) ++c.outliers;
@@ -194,27 +237,35 @@ ModelChecks check_model(const LinearModel& m, const RegressionData& data) {
     return c;
 }
 
-const std::vector<std::string>& check_model_outputs() {
-    static const std::vector<std::string> keys = {"table",        "normality",    "variance", "independence",
+const std::vector<std::string>& check_regression_outputs() {
+    static const std::vector<std::string> keys = {"table",        "normality",    "spread",    "independence",
                                                   "linearity",    "collinearity", "influence", "outliers"};
     return keys;
 }
 
-Table check_model_output(const LinearModel& m, const RegressionData& data, const std::string& output) {
-    const ModelChecks c = check_model(m, data);
+Table check_regression_output(const LinearModel& m, const RegressionData& data, const std::string& output,
+                              const Range& order) {
+    const ModelChecks c = check_regression(m, data, order);
     const auto need = [](double x, const std::string& what, const std::string& note) -> Table {
         if (!std::isfinite(x)) throw Refusal(what + " is " + (note.empty() ? "not defined for these data" : note));
         return single(x);
     };
     if (output == "normality") return need(c.normality_p, "the normality check", c.normality_note);
-    if (output == "variance") return need(c.variance_p, "the constant-variance check", c.variance_note);
-    if (output == "independence") return single(c.durbin_watson);
+    if (output == "spread") return need(c.spread_p, "the spread check", c.spread_note);
+    if (output == "independence") {
+        if (!c.ordered)
+            throw Refusal("independence needs the sampling order: give order (a column of dates, times or distances); "
+                          "rows in no particular order cannot be judged");
+        return need(c.durbin_watson, "the independence check", "");
+    }
     if (output == "linearity") return need(c.reset_p, "the linearity check", c.linearity_note);
     if (output == "collinearity") return single(c.max_vif);
     if (output == "influence") return need(c.max_cooks, "the influence check", "");
     if (output == "outliers") return single(static_cast<double>(c.outliers));
 
-    // The table. Screening rules of common practice, no single source; stated in the rule column.
+    // The table. Screening rules, stated in the rule column: p < 0.05 and Durbin–Watson 1.5 to 2.5
+    // and VIF > 10 are common practice, no single source; the influence cut-off is Cook and
+    // Weisberg's (1982).
     const double nn = static_cast<double>(m.n);
     const std::string ok = "ok", look = "look";
     const auto verdict_p = [&](double p) -> CellValue {
@@ -228,15 +279,22 @@ Table check_model_output(const LinearModel& m, const RegressionData& data, const
                  c.normality_note.empty() ? std::string("Shapiro–Wilk W on the residuals; look when p < 0.05")
                                           : "Shapiro–Wilk W on the residuals: " + c.normality_note,
                  verdict_p(c.normality_p)});
-    t.push_back({std::string("variance"), number_or_blank(c.variance_lm), number_or_blank(c.variance_p),
-                 c.variance_note.empty()
-                     ? "Breusch–Pagan (studentized) LM, χ² with " + format_df(c.variance_df) +
-                           " df; look when p < 0.05"
-                     : "Breusch–Pagan (studentized): " + c.variance_note,
-                 verdict_p(c.variance_p)});
-    t.push_back({std::string("independence"), c.durbin_watson, std::monostate{},
-                 std::string("Durbin–Watson in row order; ok from 1.5 to 2.5"),
-                 (c.durbin_watson < 1.5 || c.durbin_watson > 2.5) ? look : ok});
+    t.push_back({std::string("spread"), number_or_blank(c.spread_lm), number_or_blank(c.spread_p),
+                 c.spread_note.empty()
+                     ? "Breusch–Pagan (studentized) LM, χ² with " + format_df(c.spread_df) + " df; look when p < 0.05"
+                     : "Breusch–Pagan (studentized): " + c.spread_note,
+                 verdict_p(c.spread_p)});
+    if (c.ordered)
+        t.push_back({std::string("independence"), number_or_blank(c.durbin_watson), std::monostate{},
+                     std::string("Durbin–Watson in the order given by order; look outside 1.5 to 2.5"),
+                     !std::isfinite(c.durbin_watson)                          ? CellValue{std::monostate{}}
+                     : (c.durbin_watson < 1.5 || c.durbin_watson > 2.5) ? CellValue{look}
+                                                                              : CellValue{ok}});
+    else
+        t.push_back({std::string("independence"), std::monostate{}, std::monostate{},
+                     std::string("no verdict: rows in no particular order cannot be judged; give order (dates, times "
+                                 "or distances) for Durbin–Watson"),
+                     std::monostate{}});
     t.push_back({std::string("linearity"), number_or_blank(c.reset_f), number_or_blank(c.reset_p),
                  c.linearity_note.empty()
                      ? "RESET with fitted² and fitted³, F(2, " + format_df(c.reset_df2) + "); look when p < 0.05"
@@ -246,12 +304,15 @@ Table check_model_output(const LinearModel& m, const RegressionData& data, const
                  predictors == 1 ? std::string("largest VIF (one predictor: always 1); look when > 10")
                                  : std::string("largest VIF; look when > 10"),
                  c.max_vif > 10 ? look : ok});
-    char cuts[160];
-    std::snprintf(cuts, sizeof cuts, "largest Cook's distance; %s above 4/n = %s; %s with leverage above 2p/n = %s",
-                  count_rows(c.cooks_above).c_str(), format_number(4.0 / nn).c_str(),
-                  count_rows(c.high_leverage).c_str(), format_number(2.0 * static_cast<double>(m.parameters) / nn).c_str());
-    t.push_back({std::string("influence"), number_or_blank(c.max_cooks), std::monostate{}, std::string(cuts),
-                 c.cooks_above > 0 ? look : ok});
+    const std::string influence_rule =
+        "largest Cook's distance; look when above the median of F(" + format_df(static_cast<double>(m.parameters)) + ", " +
+        format_df(m.df_residual) + ") = " + format_number(c.cooks_cut) + " (Cook & Weisberg 1982); for information, " +
+        count_rows(c.cooks_above) + " above 4/n = " + format_number(4.0 / nn) + ", " + count_rows(c.high_leverage) +
+        " with leverage above 2p/n = " + format_number(2.0 * static_cast<double>(m.parameters) / nn);
+    t.push_back({std::string("influence"), number_or_blank(c.max_cooks), std::monostate{}, influence_rule,
+                 !std::isfinite(c.max_cooks) || !std::isfinite(c.cooks_cut) ? CellValue{std::monostate{}}
+                 : c.max_cooks > c.cooks_cut                                  ? CellValue{look}
+                                                                              : CellValue{ok}});
     t.push_back({std::string("outliers"), static_cast<double>(c.outliers), std::monostate{},
                  std::string("rows with |externally studentized residual| > 3; look when any"),
                  c.outliers > 0 ? look : ok});

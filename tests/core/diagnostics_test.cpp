@@ -1,6 +1,7 @@
-// FIT.POINTS' influence measures and CHECK.MODEL's checks against statsmodels 0.13
+// FIT.POINTS' influence measures and CHECK.REGRESSION's checks against statsmodels 0.13
 // (OLSInfluence, het_breuschpagan(robust=True), linear_reset(power=3, test_type='fitted',
-// use_f=True), durbin_watson, variance_inflation_factor) on invented field data.
+// use_f=True), durbin_watson in sampling order, variance_inflation_factor) and SciPy 1.10
+// (f.median for the influence cut-off) on invented field data.
 // Reference values: tests/reference/generate_linear.py → linear.json.
 // Tolerance 1e-9 relative: closed forms of an accurately solved, well-conditioned fit; p-values
 // 1e-8 relative (Boost.Math against SciPy).
@@ -38,6 +39,9 @@ RegressionData data_of(const std::string& name) {
 
 LinearModel fit(const RegressionData& d) { return fit_least_squares(d.y, d.predictors, d.names, true); }
 
+// The sampling days of a data set, as the `order` argument holds them.
+Range order_of(const std::string& name) { return Range::column(reference()[name]["order"].get<std::vector<double>>()); }
+
 TEST(Influence, MatchesStatsmodelsOLSInfluence) {
     for (const std::string name : {"stream", "marsh"}) {
         const LinearModel m = fit(data_of(name));
@@ -55,20 +59,23 @@ TEST(Influence, MatchesStatsmodelsOLSInfluence) {
 TEST(ModelChecks, MatchStatsmodelsDiagnostics) {
     for (const std::string name : {"stream", "marsh"}) {
         const RegressionData d = data_of(name);
-        const ModelChecks c = check_model(fit(d), d);
+        const ModelChecks c = check_regression(fit(d), d, order_of(name));
         const json& ref = reference()[name]["reference"]["checks"];
         // scipy.stats.shapiro on the residuals (generator). SciPy computes in single precision
         // (LIBRARY-NOTES.md): W held to 2e-6 relative, p to 1e-3 relative.
         expect_relative(c.normality_w, ref["shapiro_w"], 2e-6, name + " W");
         expect_relative(c.normality_p, ref["shapiro_p"], 1e-3, name + " SW p");
         // statsmodels het_breuschpagan(robust=True): LM and its χ² p.
-        expect_relative(c.variance_lm, ref["breusch_pagan"], 1e-9, name + " BP");
-        expect_relative(c.variance_p, ref["breusch_pagan_p"], 1e-8, name + " BP p");
+        expect_relative(c.spread_lm, ref["breusch_pagan"], 1e-9, name + " BP");
+        expect_relative(c.spread_p, ref["breusch_pagan_p"], 1e-8, name + " BP p");
         // statsmodels linear_reset(power=3, test_type='fitted', use_f=True).
         expect_relative(c.reset_f, ref["reset_f"], 1e-8, name + " RESET F");
         expect_relative(c.reset_p, ref["reset_p"], 1e-8, name + " RESET p");
-        // statsmodels durbin_watson.
+        // statsmodels durbin_watson on the residuals sorted by sampling day (stable: ties keep row order).
         expect_relative(c.durbin_watson, ref["durbin_watson"], 1e-12, name + " DW");
+        // scipy.stats.f.median(p, n − p), Cook and Weisberg's cut-off; 1e-9 relative (two quantile codes).
+        expect_relative(c.cooks_cut, ref["cooks_cut"], 1e-9, name + " Cook cut-off");
+        EXPECT_EQ(c.cooks_above_cut, ref["cooks_above_cut"].get<std::size_t>()) << name;
         // statsmodels variance_inflation_factor, largest; OLSInfluence Cook's distance, largest.
         expect_relative(c.max_vif, ref["max_vif"], 1e-10, name + " VIF");
         expect_relative(c.max_cooks, ref["max_cooks"], 1e-9, name + " Cook");
@@ -81,24 +88,75 @@ TEST(ModelChecks, MatchStatsmodelsDiagnostics) {
 
 TEST(ModelChecks, TableHasTheCatalogueRowsInOrder) {
     const RegressionData d = data_of("stream");
-    const Table t = check_model_output(fit(d), d, "table");
-    const std::vector<std::string> checks = {"check",     "normality",    "variance",  "independence",
+    const Table t = check_regression_output(fit(d), d, "table", order_of("stream"));
+    const std::vector<std::string> checks = {"check",     "normality",    "spread",    "independence",
                                              "linearity", "collinearity", "influence", "outliers"};
     ASSERT_EQ(t.size(), checks.size());
     for (std::size_t i = 0; i < checks.size(); ++i) {
         ASSERT_EQ(t[i].size(), 5u);
         EXPECT_EQ(std::get<std::string>(t[i][0]), checks[i]);
     }
-    // Stream data (generator): BP p = 0.027 → look; one row beyond 3 → look; DW 2.31 → ok.
+    EXPECT_EQ(std::get<std::string>(t[0][3]), "rule");
+    EXPECT_EQ(std::get<std::string>(t[0][4]), "verdict");
+    // Stream data (generator): BP p = 0.027 → look; DW in day order 2.26 → ok; largest Cook's
+    // distance 0.36 below the median of F(3, 37) = 0.80 → ok, although 2 rows exceed 4/n; one row
+    // beyond 3 → look.
     EXPECT_EQ(std::get<std::string>(t[2][4]), "look");
     EXPECT_EQ(std::get<std::string>(t[3][4]), "ok");
+    EXPECT_EQ(std::get<std::string>(t[6][4]), "ok");
     EXPECT_EQ(std::get<std::string>(t[7][4]), "look");
     EXPECT_TRUE(std::holds_alternative<std::monostate>(t[3][2]));  // Durbin–Watson has no p here
     const std::string rule = std::get<std::string>(t[6][3]);
+    EXPECT_NE(rule.find("median of F(3, 37) = 0.80"), std::string::npos) << rule;
     EXPECT_NE(rule.find("2 rows above 4/n"), std::string::npos) << rule;
     EXPECT_NE(rule.find("1 row with leverage"), std::string::npos) << rule;
     // One number per check.
-    EXPECT_EQ(std::get<double>(check_model_output(fit(d), d, "outliers")[0][0]), 1.0);
+    EXPECT_EQ(std::get<double>(check_regression_output(fit(d), d, "outliers")[0][0]), 1.0);
+    // Marsh data in day order: DW 1.09 (generator) → look.
+    const RegressionData marsh = data_of("marsh");
+    EXPECT_EQ(std::get<std::string>(check_regression_output(fit(marsh), marsh, "table", order_of("marsh"))[3][4]), "look");
+}
+
+// Without `order` nothing judges independence: the row has no statistic and no verdict, and the
+// single output asks for the sampling order.
+TEST(ModelChecks, IndependenceWithoutOrderHasNoVerdict) {
+    const RegressionData d = data_of("stream");
+    const Table t = check_regression_output(fit(d), d, "table");
+    EXPECT_EQ(std::get<std::string>(t[3][0]), "independence");
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(t[3][1]));
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(t[3][4]));
+    EXPECT_NE(std::get<std::string>(t[3][3]).find("rows in no particular order cannot be judged"), std::string::npos);
+    try {
+        check_regression_output(fit(d), d, "independence");
+        ADD_FAILURE() << "no refusal";
+    } catch (const Refusal& r) {
+        EXPECT_NE(std::string(r.what()).find("sampling order"), std::string::npos) << r.what();
+    }
+}
+
+// Order: ties keep row order; a used row without a number there is refused, naming its cell.
+TEST(ModelChecks, OrderTiesKeepRowOrderAndGapsAreRefused) {
+    const RegressionData d = data_of("marsh");
+    // Every row on the same day: the order is the row order, so DW is the row-order statistic
+    // (statsmodels durbin_watson on the unsorted residuals, by the same generator's residuals).
+    const std::vector<double> residuals = reference()["marsh"]["reference"]["residual"].get<std::vector<double>>();
+    double num = 0, den = 0;
+    for (std::size_t i = 0; i < residuals.size(); ++i) {
+        den += residuals[i] * residuals[i];
+        if (i) num += (residuals[i] - residuals[i - 1]) * (residuals[i] - residuals[i - 1]);
+    }
+    const ModelChecks same_day = check_regression(fit(d), d, Range::column(std::vector<double>(d.rows, 5.0)));
+    expect_relative(same_day.durbin_watson, num / den, 1e-9, "row order");
+    Range gap = order_of("marsh");
+    gap.cells[3] = Cell{};
+    gap.first_row = 1;
+    gap.first_column = 4;
+    try {
+        check_regression(fit(d), d, gap);
+        ADD_FAILURE() << "no refusal";
+    } catch (const Refusal& r) {
+        EXPECT_NE(std::string(r.what()).find("E5 is empty"), std::string::npos) << r.what();
+    }
 }
 
 TEST(ModelChecks, PerfectFitIsRefused) {
@@ -108,7 +166,7 @@ TEST(ModelChecks, PerfectFitIsRefused) {
     d.names = {"x"};
     d.rows = 6;
     d.used_rows = {0, 1, 2, 3, 4, 5};
-    EXPECT_THROW(check_model(fit(d), d), Refusal);
+    EXPECT_THROW(check_regression(fit(d), d), Refusal);
 }
 
 TEST(ModelChecks, LinearityIsBlankForATwoValuedPredictor) {
@@ -120,11 +178,11 @@ TEST(ModelChecks, LinearityIsBlankForATwoValuedPredictor) {
     d.names = {"treated"};
     d.rows = d.y.size();
     for (std::size_t i = 0; i < d.rows; ++i) d.used_rows.push_back(i);
-    const Table t = check_model_output(fit(d), d, "table");
+    const Table t = check_regression_output(fit(d), d, "table");
     EXPECT_TRUE(std::holds_alternative<std::monostate>(t[4][1]));
     EXPECT_TRUE(std::holds_alternative<std::monostate>(t[4][4]));
     EXPECT_NE(std::get<std::string>(t[4][3]).find("not defined"), std::string::npos);
-    EXPECT_THROW(check_model_output(fit(d), d, "linearity"), Refusal);
+    EXPECT_THROW(check_regression_output(fit(d), d, "linearity"), Refusal);
 }
 
 TEST(Influence, UndefinedWhereTheRowFitsItselfOrNoDfIsLeft) {

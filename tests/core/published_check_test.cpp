@@ -289,7 +289,7 @@ TEST(PublishedChecks, LeveneBrownForsytheFlignerByHand) {
     expect_relative(r.number("p"), c["scipy_p"], 1e-9, "p, scipy");
 }
 
-// CHECK.MODEL on a design whose residuals are known exactly (by hand, from the definitions; no
+// CHECK.REGRESSION on a design whose residuals are known exactly (by hand, from the definitions; no
 // published example): x = 1,1,2,2,…,5,5 and y = x + (+1, −1, +1, …). The ±1 pattern sums to zero
 // within each pair of equal x, so it is orthogonal to the intercept and to x: the fitted line is y = x
 // and the residuals are exactly +1, −1, ….
@@ -299,7 +299,11 @@ TEST(PublishedChecks, LeveneBrownForsytheFlignerByHand) {
 //   Cook (1977), Technometrics 19, 15–18: Dᵢ = eᵢ² hᵢ / (p s² (1 − hᵢ)²), s² = 10/8 = 1.25, p = 2:
 //   largest 0.3 / (2 · 1.25 · 0.49) = 0.244898, at x = 1 and 5; above 4/n = 0.4: none.
 //   One predictor: VIF 1.
-// Tolerance 1e-12 relative: a least-squares solve of an exactly representable problem.
+//   In an order that takes the five +1 rows first (order 1, 6, 2, 7, …): d = (−2)² / 10 = 0.4.
+//   Cook & Weisberg (1982) cut-off, the median of F(2, 8): F(2, m) has P(F ≤ x) = 1 − (1 + 2x/m)^(−m/2),
+//   so the median is x = 4(2^(1/4) − 1) = 0.756828; the largest Cook's distance is below it.
+// Tolerance 1e-12 relative: a least-squares solve of an exactly representable problem; 1e-10 for the
+// F median (Boost's quantile by iteration).
 TEST(PublishedChecks, ModelChecksWorkedByHand) {
     RegressionData d;
     for (int i = 0; i < 10; ++i) {
@@ -311,8 +315,12 @@ TEST(PublishedChecks, ModelChecksWorkedByHand) {
     d.names = {"x"};
     d.rows = 10;
     const LinearModel m = fit_least_squares(d.y, d.predictors, d.names, true);
-    const ModelChecks c = check_model(m, d);
+    const ModelChecks c = check_regression(m, d, Range::column({1, 2, 3, 4, 5, 6, 7, 8, 9, 10}));
     expect_relative(c.durbin_watson, 3.6, 1e-12, "Durbin–Watson");
+    const ModelChecks signs_first = check_regression(m, d, Range::column({1, 6, 2, 7, 3, 8, 4, 9, 5, 10}));
+    expect_relative(signs_first.durbin_watson, 0.4, 1e-12, "Durbin–Watson, +1 rows first");
+    expect_relative(c.cooks_cut, 4 * (std::pow(2.0, 0.25) - 1), 1e-10, "median of F(2, 8)");
+    EXPECT_EQ(c.cooks_above_cut, 0u);
     const std::vector<double> leverage = {0.3, 0.3, 0.15, 0.15, 0.1, 0.1, 0.15, 0.15, 0.3, 0.3};
     for (std::size_t i = 0; i < 10; ++i) expect_relative(m.leverage[i], leverage[i], 1e-12, "leverage " + std::to_string(i));
     expect_relative(c.max_cooks, 0.3 / (2 * 1.25 * 0.49), 1e-12, "largest Cook's distance");

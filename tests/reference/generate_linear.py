@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Reference values for the linear model family (FIT.LINEAR, FIT.POINTS, CHECK.MODEL,
+"""Reference values for the linear model family (FIT.LINEAR, FIT.POINTS, CHECK.REGRESSION,
 RELATE.CORRELATION), from statsmodels 0.13 and SciPy 1.10 (Debian's python3-statsmodels and
 python3-scipy). Run with /usr/bin/python3; writes linear.json beside this script.
 
@@ -14,6 +14,10 @@ Notes on the calls (shared/reference/LIBRARY-NOTES.md):
 - het_breuschpagan(robust=True) is the studentized (Koenker) form; linear_reset(power=3,
   test_type='fitted', use_f=True) is RESET with squared and cubed fitted values, F form.
 - scipy.stats.kendalltau is called with method='exact' and method='asymptotic' explicitly.
+- CHECK.REGRESSION's Durbin–Watson follows the `order` column (sampling days, with ties): the
+  residuals sorted by a stable argsort of the days (ties keep row order), then statsmodels'
+  durbin_watson. Its influence cut-off is the median of F(p, n − p) (Cook & Weisberg 1982),
+  scipy.stats.f.median.
 """
 import json
 import math
@@ -29,9 +33,12 @@ from statsmodels.stats.outliers_influence import OLSInfluence, variance_inflatio
 from statsmodels.stats.stattools import durbin_watson
 
 rng = np.random.default_rng(20261202)
+# Sampling days for the `order` argument, from a generator of their own so the data above stay as
+# they were drawn: whole days over a month, so some reaches share a day (ties).
+order_rng = np.random.default_rng(20261204)
 
 
-def regression_reference(y, xs, levels=(0.95, 0.90)):
+def regression_reference(y, xs, order, levels=(0.95, 0.90)):
     y = np.asarray(y, dtype=float)
     X = sm.add_constant(np.column_stack(xs))
     res = sm.OLS(y, X).fit(method='qr')
@@ -74,12 +81,14 @@ def regression_reference(y, xs, levels=(0.95, 0.90)):
         'breusch_pagan_p': float(lm_p),
         'reset_f': float(reset.fvalue),
         'reset_p': float(reset.pvalue),
-        'durbin_watson': float(durbin_watson(res.resid)),
+        'durbin_watson': float(durbin_watson(np.asarray(res.resid)[np.argsort(order, kind='stable')])),
         'shapiro_w': float(w),
         'shapiro_p': float(w_p),
         'max_vif': max(out['vif']),
         'max_cooks': float(np.max(infl.cooks_distance[0])),
         'cooks_above': int(np.sum(infl.cooks_distance[0] > 4 / n)),
+        'cooks_cut': float(st.f.median(p, n - p)),
+        'cooks_above_cut': int(np.sum(infl.cooks_distance[0] > st.f.median(p, n - p))),
         'high_leverage': int(np.sum(infl.hat_matrix_diag > 2 * p / n)),
         'outliers': int(np.sum(np.abs(infl.resid_studentized_external) > 3)),
     }
@@ -111,16 +120,19 @@ flow = np.round(rng.uniform(0.05, 1.2, n), 2)
 canopy = np.round(rng.uniform(5, 95, n), 0)
 density = np.round(120 + 85 * flow - 0.6 * canopy + rng.normal(0, 12, n), 1)
 density[17] += 60.0
-data['stream'] = {'y': density.tolist(), 'xs': [flow.tolist(), canopy.tolist()], 'names': ['flow', 'canopy']}
-data['stream']['reference'] = regression_reference(density, [flow, canopy])
+days = order_rng.integers(1, 31, n).astype(float)
+data['stream'] = {'y': density.tolist(), 'xs': [flow.tolist(), canopy.tolist()], 'names': ['flow', 'canopy'],
+                  'order': days.tolist()}
+data['stream']['reference'] = regression_reference(density, [flow, canopy], days)
 
 # Salt marsh transect: plant height (cm) against pore-water salinity (ppt), 25 plots, spread
 # growing with height (for the constant-variance check).
 n = 25
 salinity = np.round(rng.uniform(8, 35, n), 1)
 height = np.round(90 - 1.8 * salinity + rng.normal(0, 1, n) * (0.2 * (90 - 1.8 * salinity)), 1)
-data['marsh'] = {'y': height.tolist(), 'xs': [salinity.tolist()], 'names': ['salinity']}
-data['marsh']['reference'] = regression_reference(height, [salinity])
+days = order_rng.integers(1, 31, n).astype(float)
+data['marsh'] = {'y': height.tolist(), 'xs': [salinity.tolist()], 'names': ['salinity'], 'order': days.tolist()}
+data['marsh']['reference'] = regression_reference(height, [salinity], days)
 
 # Correlations. Soil cores: organic matter (%) against bulk density (g/cm³), 20 cores, no ties:
 # Kendall's exact p applies.
