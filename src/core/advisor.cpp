@@ -1,8 +1,12 @@
 #include "advisor.hpp"
 
 #include <algorithm>
+#include <cctype>
+#include <charconv>
 #include <cmath>
+#include <cstdio>
 #include <map>
+#include <optional>
 #include <set>
 
 #include "data.hpp"
@@ -81,7 +85,8 @@ struct NormalityFinding {
 NormalityFinding normality_of(std::span<const double> xs, const std::string& what) {
     NormalityFinding f;
     if (xs.size() > shapiro_wilk_max) {
-        f.words = what + ": n = " + std::to_string(xs.size()) + ", above Shapiro–Wilk's 5000; at this size the means are close to normal (central limit theorem)";
+        f.words = what + ": n = " + std::to_string(xs.size()) +
+                  ", above Shapiro–Wilk's 5000; at this size the means are close to normal whatever the data (central limit theorem)";
         return f;
     }
     if (xs.size() < 3) throw Refusal("too few values to advise (" + std::to_string(xs.size()) + "); collect at least 3");
@@ -92,7 +97,9 @@ NormalityFinding normality_of(std::span<const double> xs, const std::string& wha
     f.tested = true;
     f.p = sw.number("p");
     f.normal = f.p >= check_alpha;
-    f.words = what + (f.normal ? " look normal" : " are not normal") + " (Shapiro–Wilk " + format_p(f.p) + ")";
+    // A check that finds nothing is no proof of normality (FUNCTIONS.md, "Wording").
+    f.words = (f.normal ? "no clear sign of non-normality in " + what : what + " depart from normal") + " (Shapiro–Wilk " +
+              format_p(f.p) + ")";
     return f;
 }
 
@@ -136,6 +143,221 @@ std::string group_sizes(const Groups& g) {
 
 std::string quoted(const std::string& s) { return "'" + s + "'"; }
 
+// Values below a detection limit: "<0.5", "< 0.5", "<0,5" (FUNCTIONS.md, "Missing data"). Read
+// here only until the data layer reads censored cells itself; this one function is then swapped
+// for its reader.
+bool is_censored_text(const std::string& text) {
+    std::size_t i = text.find_first_not_of(' ');
+    if (i == std::string::npos || text[i] != '<') return false;
+    i = text.find_first_not_of(' ', i + 1);
+    if (i == std::string::npos) return false;
+    std::string number = text.substr(i);
+    while (!number.empty() && number.back() == ' ') number.pop_back();
+    std::replace(number.begin(), number.end(), ',', '.');
+    if (number.empty() || !(std::isdigit(static_cast<unsigned char>(number[0])) || number[0] == '.')) return false;
+    double limit = 0;  // from_chars: the same in every locale, unlike strtod
+    const auto [end, error] = std::from_chars(number.data(), number.data() + number.size(), limit);
+    return error == std::errc() && end == number.data() + number.size() && std::isfinite(limit) && limit >= 0;
+}
+
+struct Censoring {
+    std::size_t censored = 0, values = 0;  // cells below a limit; those plus the numbers
+    std::string first;                     // the first censored cell's text
+    double percent() const { return values ? 100.0 * static_cast<double>(censored) / static_cast<double>(values) : 0.0; }
+};
+
+Censoring censoring_of(const Range& r) {
+    Censoring c;
+    for (std::size_t row = 0; row < r.rows; ++row)
+        for (std::size_t col = 0; col < r.columns; ++col) {
+            const Cell& cell = r.at(row, col);
+            if (cell.kind == CellKind::number && std::isfinite(cell.number)) ++c.values;
+            if (cell.kind == CellKind::text && is_censored_text(cell.text)) {
+                if (c.censored++ == 0) c.first = cell.text;
+                ++c.values;
+            }
+        }
+    return c;
+}
+
+std::string censored_words(const Censoring& c) {
+    char percent[32];
+    std::snprintf(percent, sizeof percent, "%.0f%%", c.percent());
+    return std::to_string(c.censored) + " of " + std::to_string(c.values) + " values (" + percent +
+           ") are below a detection limit (such as " + c.first + ")";
+}
+
+// Values below detection limits: the censored family (Helsel 2006, Chemosphere 65, 2434–2439:
+// leaving them out or putting a fraction of the limit in their place biases every summary).
+void advise_censored(const Censoring& c, bool grouped, Advice& advice) {
+    advice.function = grouped ? "COMPARE.CENSORED" : "DESCRIBE.CENSORED";
+    advice.method = grouped ? "peto-prentice" : "kaplan-meier";
+    advice.transform = "none";
+    advice.steps.push_back({"detection limits", censored_words(c),
+                            "use methods for censored values: leaving them out or putting a fraction of the limit in "
+                            "their place would bias the result"});
+    if (c.percent() > 80)
+        advice.steps.push_back({"share censored", "more than 80% censored",
+                                "no method estimates a mean there: report how often the limit was exceeded"});
+    advice.steps.push_back({"test", grouped ? "groups with censored values" : "one column with censored values",
+                            grouped ? "generalized Wilcoxon test (Peto–Prentice) on the censored values"
+                                    : "Kaplan–Meier summary of the censored values"});
+}
+
+// The predictor is sampling time: a monotonic trend (Mann–Kendall with the Sen slope), which
+// needs neither normal residuals nor a straight line.
+void advise_trend(const Range& response, const Range& times, const Censoring& censoring, Advice& advice) {
+    const Frame f = read_frame({{&response, ColumnKind::numeric, "response"}, {&times, ColumnKind::numeric, "predictor"}});
+    std::set<double> distinct(f.numbers[1].begin(), f.numbers[1].end());
+    advice.function = "TRACK.TREND";
+    advice.method = "";
+    advice.transform = "none";
+    advice.steps.push_back({"variables",
+                            "response (n = " + std::to_string(f.n_used + censoring.censored) + ") against sampling time (" +
+                                std::to_string(distinct.size()) + " distinct times)",
+                            "test for a monotonic trend: Mann–Kendall with the Sen slope, which assumes neither normal "
+                            "residuals nor a straight line"});
+    if (censoring.censored)
+        advice.steps.push_back({"detection limits", censored_words(censoring),
+                                "TRACK.TREND compares them as below their limit"});
+    advice.steps.push_back({"seasons", "readings may follow the seasons",
+                            "give seasons (month or quarter) for the seasonal Kendall test if they do"});
+}
+
+// Index of each label in order of first appearance.
+std::vector<std::size_t> label_codes(const std::vector<std::string>& labels, std::vector<std::string>& names) {
+    std::map<std::string, std::size_t> index;
+    std::vector<std::size_t> codes;
+    codes.reserve(labels.size());
+    for (const auto& label : labels) {
+        const auto [it, added] = index.emplace(label, names.size());
+        if (added) names.push_back(label);
+        codes.push_back(it->second);
+    }
+    return codes;
+}
+
+// Groups compared within blocks (COMPARE.BLOCKS) or over sampling units nested in groups
+// (COMPARE.NESTED). Several readings of one group in one block are averaged first, as
+// COMPARE.BLOCKS does; a block missing a group is left out.
+void advise_structured(const Range& response, const Range& predictor, const Range& structure, bool nested,
+                       Advice& advice) {
+    const Frame f = read_frame({{&response, ColumnKind::numeric, "response"},
+                                {&predictor, ColumnKind::label, "predictor"},
+                                {&structure, ColumnKind::label, "structure"}});
+    std::vector<std::string> groups, units;
+    const std::vector<std::size_t> g = label_codes(f.labels[1], groups);
+    const std::vector<std::size_t> u = label_codes(f.labels[2], units);
+    const std::size_t k = groups.size(), b = units.size();
+    if (k < 2) throw Refusal("the predictor has " + std::to_string(k) + " group; a comparison needs 2 or more");
+    const std::string unit_word = nested ? "sampling units" : "blocks";
+    std::vector<std::vector<double>> sum(b, std::vector<double>(k, 0.0)), count(b, std::vector<double>(k, 0.0));
+    for (std::size_t i = 0; i < f.n_used; ++i) {
+        sum[u[i]][g[i]] += f.numbers[0][i];
+        count[u[i]][g[i]] += 1;
+    }
+    std::size_t averaged = 0;
+    for (std::size_t j = 0; j < b; ++j)
+        for (std::size_t i = 0; i < k; ++i) averaged += count[j][i] > 1 ? static_cast<std::size_t>(count[j][i]) : 0;
+
+    std::vector<double> residuals;
+    std::string checked;
+    if (nested) {
+        // Each unit belongs to one group; its mean is one replicate of that group.
+        std::vector<std::vector<double>> unit_means(k);
+        for (std::size_t j = 0; j < b; ++j) {
+            std::size_t owner = k;
+            for (std::size_t i = 0; i < k; ++i)
+                if (count[j][i] > 0) {
+                    if (owner != k)
+                        throw Refusal("sampling unit '" + units[j] + "' holds readings of groups '" + groups[owner] + "' and '" +
+                                      groups[i] + "'; in a nested design each unit belongs to one group (for units that "
+                                      "see every group use design 'blocks')");
+                    owner = i;
+                }
+            unit_means[owner].push_back(sum[j][owner] / count[j][owner]);
+        }
+        for (std::size_t i = 0; i < k; ++i)
+            if (unit_means[i].size() < 2)
+                throw Refusal("group '" + groups[i] + "' has " + std::to_string(unit_means[i].size()) +
+                              " sampling unit; each group needs at least 2 units to compare groups over units");
+        for (const auto& means : unit_means) {
+            const double centre = mean(means);
+            for (double m : means) residuals.push_back(m - centre);
+        }
+        advice.steps.push_back({"variables",
+                                "continuous response (n = " + std::to_string(f.n_used) + ") in " + std::to_string(k) +
+                                    " groups, from " + std::to_string(b) + " sampling units",
+                                "compare groups over the variation between units: the subsamples of a unit are not "
+                                "independent replicates"});
+        checked = "the unit means' residuals from their group means";
+    } else {
+        std::vector<std::size_t> complete;
+        for (std::size_t j = 0; j < b; ++j)
+            if (std::all_of(count[j].begin(), count[j].end(), [](double c) { return c > 0; })) complete.push_back(j);
+        if (complete.size() < 2)
+            throw Refusal("only " + std::to_string(complete.size()) + " of " + std::to_string(b) +
+                          " blocks hold every group; comparing within blocks needs at least 2 complete blocks");
+        // Residuals of the additive model on the complete blocks: m − group mean − block mean + grand mean;
+        // with two groups, the within-block differences (what the paired tests use).
+        const double nb = static_cast<double>(complete.size()), nk = static_cast<double>(k);
+        std::vector<double> group_mean(k, 0.0), block_mean(complete.size(), 0.0);
+        double grand = 0;
+        for (std::size_t c = 0; c < complete.size(); ++c)
+            for (std::size_t i = 0; i < k; ++i) {
+                const double m = sum[complete[c]][i] / count[complete[c]][i];
+                group_mean[i] += m / nb;
+                block_mean[c] += m / nk;
+                grand += m / (nb * nk);
+            }
+        for (std::size_t c = 0; c < complete.size(); ++c) {
+            if (k == 2) {
+                residuals.push_back(sum[complete[c]][0] / count[complete[c]][0] - sum[complete[c]][1] / count[complete[c]][1]);
+                continue;
+            }
+            for (std::size_t i = 0; i < k; ++i)
+                residuals.push_back(sum[complete[c]][i] / count[complete[c]][i] - group_mean[i] - block_mean[c] + grand);
+        }
+        const std::size_t dropped = b - complete.size();
+        advice.steps.push_back({"variables",
+                                "continuous response (n = " + std::to_string(f.n_used) + ") in " + std::to_string(k) +
+                                    " groups within " + std::to_string(complete.size()) + " complete blocks" +
+                                    (dropped ? " (" + std::to_string(dropped) + " missing a group, left out)" : std::string()),
+                                "compare groups within blocks, so that differences between blocks do not hide them"});
+        checked = k == 2 ? "the within-block differences" : "the residuals from the additive block model";
+    }
+    if (averaged)
+        advice.steps.push_back({"subsamples",
+                                std::to_string(averaged) + " readings share a group and " + (nested ? "unit" : "block") +
+                                    " with others",
+                                "they are averaged first: subsamples, not replicates"});
+    const NormalityFinding normal = normality_of(residuals, checked);
+    advice.transform = "none";
+    if (nested) {
+        if (normal.normal) {
+            advice.function = "COMPARE.NESTED";
+            advice.method = "";
+            advice.steps.push_back({"normality", normal.words, "nested ANOVA: F of groups over units within groups"});
+        } else {
+            // COMPARE.NESTED has no rank method: the units are the replicates, so their means are
+            // compared by ranks.
+            advice.function = "COMPARE.GROUPS";
+            advice.method = "ranks";
+            if (k > 2) advice.posthoc = "dunn";
+            advice.steps.push_back({"normality", normal.words,
+                                    "compare one mean per sampling unit by ranks (COMPARE.GROUPS, method 'ranks')"});
+        }
+        return;
+    }
+    advice.function = "COMPARE.BLOCKS";
+    advice.method = normal.normal ? "pooled" : "ranks";
+    advice.steps.push_back({"normality", normal.words,
+                            normal.normal ? (k == 2 ? "paired t-test matched by block (method 'pooled')"
+                                                    : "randomized block ANOVA (method 'pooled')")
+                                          : (k == 2 ? "Wilcoxon signed-rank test matched by block (method 'ranks')"
+                                                    : "Friedman test (method 'ranks')")});
+}
+
 // Continuous response across two or more groups.
 void advise_groups(const Range& values, const Range& labels, Advice& advice, const std::string& values_name,
                    const std::string& labels_name) {
@@ -174,44 +396,45 @@ void advise_groups(const Range& values, const Range& labels, Advice& advice, con
     Scale chosen = examine(g, "the");
     std::string transform = "none";
     if (!chosen.normal.normal) {
-        std::string candidate;
-        if (all_positive(g.values)) candidate = "log";
-        else if (counts_with_zeros(g.values)) candidate = "log1p";
-        if (!candidate.empty()) {
+        std::optional<Transform> candidate;
+        if (all_positive(g.values)) candidate = Transform::log;
+        else if (counts_with_zeros(g.values)) candidate = Transform::log1p;
+        if (candidate) {
+            const std::string keyword = transform_keyword(*candidate);
             Groups scaled = g;
-            apply_transform(parse_transform(candidate), scaled.values);
-            Scale after = examine(std::move(scaled), "the " + candidate + "-scale");
+            apply_transform(*candidate, scaled.values);
+            Scale after = examine(std::move(scaled), "the " + keyword + "-scale");
             if (after.normal.normal) {
-                transform = candidate;
-                advice.steps.push_back({"normality", chosen.normal.words + ", but they do after a " + candidate +
-                                                         " transform (Shapiro–Wilk " + format_p(after.normal.p) + ")",
-                                        "use transform " + quoted(candidate)});
+                transform = keyword;
+                advice.steps.push_back({"normality", chosen.normal.words + "; after a " + keyword + " transform, " +
+                                                         after.normal.words,
+                                        "use transform " + quoted(keyword)});
                 chosen = std::move(after);
             } else {
-                advice.steps.push_back({"normality", chosen.normal.words + ", nor after a " + candidate + " transform (" +
-                                                         format_p(after.normal.p) + ")",
+                advice.steps.push_back({"normality", chosen.normal.words + ", and still after a " + keyword +
+                                                         " transform (Shapiro–Wilk " + format_p(after.normal.p) + ")",
                                         "use a rank test"});
             }
         } else {
             advice.steps.push_back({"normality", chosen.normal.words + "; a log transform needs positive values", "use a rank test"});
         }
     } else {
-        advice.steps.push_back({"normality", chosen.normal.words, "a test of means fits"});
+        advice.steps.push_back({"normality", chosen.normal.words, "a test of means can be used"});
     }
     advice.transform = transform;
     const NormalityFinding& normal = chosen.normal;
     const double spread_p = chosen.spread_p;
     const bool equal_spread = spread_p >= check_alpha;
     const std::string scale = transform == "none" ? "" : " on the " + transform + " scale";
-    const std::string spread_words = std::string(equal_spread ? "spreads are similar" : "spreads differ") + scale +
-                                     " (Brown–Forsythe " + format_p(spread_p) + ")";
+    const std::string spread_words = std::string(equal_spread ? "no clear sign of unequal spread" : "clear sign of unequal spread") +
+                                     scale + " (Brown–Forsythe " + format_p(spread_p) + ")";
 
     if (!normal.normal) {
         advice.method = "ranks";
         advice.steps.push_back({"spread", spread_words,
                                 equal_spread ? "rank test compares locations"
                                              : "rank test compares whole distributions, not only medians"});
-        advice.steps.push_back({"test", k == 2 ? "2 groups, not normal" : std::to_string(k) + " groups, not normal",
+        advice.steps.push_back({"test", std::to_string(k) + " groups, clear sign of non-normality",
                                 k == 2 ? "Wilcoxon–Mann–Whitney (method 'ranks')" : "Kruskal–Wallis (method 'ranks'), then Dunn's pairs"});
         if (k > 2) advice.posthoc = "dunn";
         return;
@@ -260,7 +483,7 @@ void advise_paired(const Range& first, const Range* second, Advice& advice) {
         advice.steps.push_back({"variables", "one continuous column (n = " + std::to_string(c.n_used) + "), no predictor",
                                 "one-sample test against a target value: COMPARE.PAIRED(values; target)"});
     }
-    const std::string what = second ? "differences" : "values";
+    const std::string what = second ? "the differences" : "the values";
     const NormalityFinding normal = normality_of(differences, what);
     advice.transform = "none";
     if (normal.normal) {
@@ -269,7 +492,7 @@ void advise_paired(const Range& first, const Range* second, Advice& advice) {
         return;
     }
     if (positive && log_ratios.size() == differences.size()) {
-        const NormalityFinding after = normality_of(log_ratios, second ? "log ratios" : "log values");
+        const NormalityFinding after = normality_of(log_ratios, second ? "the log ratios" : "the log values");
         if (after.normal) {
             advice.method = "t";
             advice.transform = "log";
@@ -341,7 +564,7 @@ void advise_logistic(const Range& response, const Range& predictor, const Profil
 void advise_relationship(const Range& response, const Range& predictor, Advice& advice) {
     const RegressionData data = read_regression(response, predictor);
     const LinearModel model = fit_least_squares(data.y, data.predictors, data.names, true);
-    const ModelChecks checks = check_model(model, data);
+    const ModelChecks checks = check_regression(model, data);
     advice.function = "RELATE.CORRELATION";
     advice.transform = "none";
     advice.steps.push_back({"variables", "two continuous variables, n = " + std::to_string(model.n) + " pairs",
@@ -349,61 +572,114 @@ void advise_relationship(const Range& response, const Range& predictor, Advice& 
     const bool linearity_known = std::isfinite(checks.reset_p);
     const bool linear = !linearity_known || checks.reset_p >= check_alpha;
     advice.steps.push_back({"linearity",
-                            linearity_known ? std::string(linear ? "no sign of curvature" : "the relationship is curved") +
+                            linearity_known ? std::string(linear ? "no clear sign of curvature" : "clear sign of curvature") +
                                                   " (RESET " + format_p(checks.reset_p) + ")"
                                             : "RESET could not be computed: " + checks.linearity_note,
-                            linear ? "a straight line describes it" : "use a rank correlation, which needs only a monotone trend"});
+                            linear ? "a straight line may serve" : "use a rank correlation, which needs only a monotone trend"});
     const bool normality_known = std::isfinite(checks.normality_p);
     const bool normal = !normality_known || checks.normality_p >= check_alpha;
     advice.steps.push_back({"normality",
-                            normality_known ? std::string(normal ? "residuals look normal" : "residuals are not normal") +
+                            normality_known ? std::string(normal ? "no clear sign of non-normality in the residuals"
+                                                                 : "the residuals depart from normal") +
                                                   " (Shapiro–Wilk " + format_p(checks.normality_p) + ")"
                                             : "residual normality not tested: " + checks.normality_note,
-                            normal ? "Pearson's test is valid" : "Pearson's p would not be trustworthy"});
+                            normal ? "Pearson's test can be used" : "Pearson's p would not be trustworthy"});
     advice.method = linear && normal ? "pearson" : "spearman";
-    advice.steps.push_back({"test", advice.method == "pearson" ? "linear, normal residuals" : "assumptions of Pearson's test fail",
-                            advice.method == "pearson" ? "Pearson's r (method 'pearson'); FIT.LINEAR and CHECK.MODEL for the line itself"
+    advice.steps.push_back({"test",
+                            advice.method == "pearson" ? "no clear sign against a straight line with normal residuals"
+                                                       : "clear sign against an assumption of Pearson's test",
+                            advice.method == "pearson" ? "Pearson's r (method 'pearson'); FIT.LINEAR and CHECK.REGRESSION for the line itself"
                                                        : "Spearman's rank correlation (method 'spearman')"});
-}
-
-std::string method_words(const Advice& a) {
-    std::string s = "Suggested: " + a.function;
-    if (!a.method.empty()) s += ", method " + quoted(a.method);
-    if (a.transform != "none" && !a.transform.empty()) s += ", transform " + quoted(a.transform);
-    if (!a.posthoc.empty()) s += ", then COMPARE.POSTHOC with " + quoted(a.posthoc);
-    return s + ".";
 }
 
 }  // namespace
 
 Design parse_design(const std::string& keyword) {
-    const std::string k = match_keyword(keyword, {"auto", "groups", "paired", "relationship"}, "design");
+    const std::string k =
+        match_keyword(keyword, {"auto", "groups", "paired", "relationship", "trend", "blocks", "nested"}, "design");
     if (k == "groups") return Design::groups;
     if (k == "paired") return Design::paired;
     if (k == "relationship") return Design::relationship;
+    if (k == "trend") return Design::trend;
+    if (k == "blocks") return Design::blocks;
+    if (k == "nested") return Design::nested;
     return Design::automatic;
 }
+
+namespace {
+std::string design_keyword(Design d) {
+    switch (d) {
+        case Design::groups: return "groups";
+        case Design::paired: return "paired";
+        case Design::relationship: return "relationship";
+        case Design::trend: return "trend";
+        case Design::blocks: return "blocks";
+        case Design::nested: return "nested";
+        case Design::automatic: break;
+    }
+    return "auto";
+}
+}  // namespace
 
 Table Advice::table() const {
     Table t;
     t.push_back({std::string("step"), std::string("found"), std::string("decision")});
     for (const auto& s : steps) t.push_back({s.step, s.found, s.decision});
-    t.push_back({std::string("suggestion"), method_words(*this), std::string("A guide, not a verdict: check it against the study design.")});
+    t.push_back({std::string("suggestion"), render_suggestion(*this), std::string("A guide, not a verdict: check it against the study design.")});
     return t;
 }
 
-Advice advise_test(const Range& response, const Range& predictor, Design design) {
+Advice advise_test(const Range& response, const Range& predictor, Design design, const Range& structure) {
     if (response.empty()) throw Refusal("response is empty");
     if (response.columns != 1) throw Refusal("response must be one column");
     if (!predictor.empty() && predictor.columns != 1) throw Refusal("predictor must be one column");
+    if (!structure.empty() && structure.columns != 1) throw Refusal("structure must be one column");
+    // structure gives the blocks by default (FUNCTIONS.md, ADVISE.TEST).
+    if (!structure.empty() && design == Design::automatic) design = Design::blocks;
+    const bool structured = design == Design::blocks || design == Design::nested;
+    if (structured && structure.empty())
+        throw Refusal("design '" + design_keyword(design) + "' needs structure: the " +
+                      (design == Design::blocks ? "block of each row (site, transect, date)"
+                                                : "sampling unit each reading came from (plot, net, core)"));
+    if (!structure.empty() && !structured)
+        throw Refusal("structure is read with design 'blocks' or 'nested'; design '" + design_keyword(design) +
+                      "' does not use it");
+    if ((structured || design == Design::trend) && predictor.empty())
+        throw Refusal("design '" + design_keyword(design) + "' needs a predictor column (" +
+                      (design == Design::trend ? "the sampling times" : "the groups") + ")");
     Advice advice;
     const Profile y = profile_of(response);
-    if (y.values == 0) throw Refusal("response holds no values");
+    const Censoring censoring = censoring_of(response);
+    if (y.values == 0 && censoring.censored == 0) throw Refusal("response holds no values");
+
+    if (design == Design::trend) {
+        if (!profile_of(predictor).numeric)
+            throw Refusal("design 'trend' needs the sampling times in predictor (dates, times or numbers)");
+        advise_trend(response, predictor, censoring, advice);
+        advice.report = render_advice(advice);
+        return advice;
+    }
+    if (censoring.censored > 0) {
+        if (design == Design::automatic && !predictor.empty() && profile_of(predictor).numeric)
+            throw Refusal("response holds values below a detection limit (" + censored_words(censoring) +
+                          "): for a trend over time give design 'trend' (TRACK.TREND); to compare groups give design "
+                          "'groups' (COMPARE.CENSORED)");
+        if (design != Design::automatic && design != Design::groups)
+            throw Refusal("response holds values below a detection limit (" + censored_words(censoring) +
+                          "); only DESCRIBE.CENSORED, COMPARE.CENSORED and TRACK.TREND use them");
+        advise_censored(censoring, !predictor.empty(), advice);
+        advice.report = render_advice(advice);
+        return advice;
+    }
+    if (structured) {
+        if (!y.numeric) throw Refusal("design '" + design_keyword(design) + "' needs a response of numbers");
+        advise_structured(response, predictor, structure, design == Design::nested, advice);
+        advice.report = render_advice(advice);
+        return advice;
+    }
 
     if (predictor.empty()) {
-        if (design == Design::groups || design == Design::paired || design == Design::relationship)
-            throw Refusal("design '" + std::string(design == Design::groups ? "groups" : design == Design::paired ? "paired" : "relationship") +
-                          "' needs a predictor column");
+        if (design != Design::automatic) throw Refusal("design '" + design_keyword(design) + "' needs a predictor column");
         if (!y.numeric)
             throw Refusal("one column of labels: count each category and compare the counts with COMPARE.EXPECTED");
         advise_paired(response, nullptr, advice);
@@ -436,12 +712,7 @@ Advice advise_test(const Range& response, const Range& predictor, Design design)
             advise_counts(response, predictor, advice);
         }
     }
-    advice.report = method_words(advice) + " Why: ";
-    for (std::size_t i = 0; i < advice.steps.size(); ++i) {
-        if (i) advice.report += "; ";
-        advice.report += advice.steps[i].found + ", so " + advice.steps[i].decision;
-    }
-    advice.report += ". A guide, not a verdict: check it against the study design.";
+    advice.report = render_advice(advice);
     return advice;
 }
 

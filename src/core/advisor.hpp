@@ -14,7 +14,7 @@
 
 namespace quadrat {
 
-enum class Design { automatic, groups, paired, relationship };
+enum class Design { automatic, groups, paired, relationship, trend, blocks, nested };
 Design parse_design(const std::string& keyword);
 
 struct AdviceStep {
@@ -26,16 +26,20 @@ struct AdviceStep {
 struct Advice {
     std::string function;   // the cell function to use, e.g. COMPARE.GROUPS
     std::string method;     // its method keyword ("" where the function has none)
-    std::string transform;  // none, log, log1p
-    std::string posthoc;    // COMPARE.POSTHOC method for three or more groups, else ""
+    std::string transform;  // none, log, log(x+1)
+    std::string posthoc;    // the COMPARE.POSTHOC method that goes with the advice (tukey after
+                            // pooled, games-howell after welch, dunn after ranks), else ""
     std::vector<AdviceStep> steps;
-    std::string report;     // one paragraph with the reasons
+    std::string report;     // one paragraph with the reasons (report.hpp's render_advice)
 
     // header `step | found | decision`, then one row per step.
     Table table() const;
 };
 
-// `predictor` may be omitted (one column: a one-sample test against a target value).
-Advice advise_test(const Range& response, const Range& predictor, Design design);
+// `predictor` may be omitted (one column: a one-sample test against a target value). `structure`
+// (optional, a label column beside the response) gives the block or sampling unit of each row for
+// design `blocks` (the default when structure is given) and `nested`.
+Advice advise_test(const Range& response, const Range& predictor, Design design,
+                   const Range& structure = Range::omitted_argument());
 
 }  // namespace quadrat

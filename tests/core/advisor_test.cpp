@@ -98,7 +98,7 @@ TEST(Advisor, SkewedDataThatNoTransformMendsGetRanks) {
     EXPECT_EQ(a.transform, "none");
     EXPECT_EQ(a.posthoc, "dunn");
     // Never a test whose assumption was just seen to fail.
-    EXPECT_NE(a.report.find("not normal"), std::string::npos) << a.report;
+    EXPECT_NE(a.report.find("depart from normal"), std::string::npos) << a.report;
 }
 
 TEST(Advisor, TwoSkewedGroupsGetTheRankSumTestWithoutPosthoc) {
@@ -221,6 +221,140 @@ TEST(Advisor, LargeSamplesSkipShapiroWilkAndSaySo) {
     EXPECT_NE(a.report.find("central limit theorem"), std::string::npos) << a.report;
 }
 
+// ---------------------------------------------------------------- revision 2: trend, blocks, nested,
+// detection limits, and the wording rule
+
+TEST(Advisor, TrendDesignPointsToTrackTrend) {
+    std::vector<double> years, values;
+    for (int i = 0; i < 12; ++i) {
+        years.push_back(2010 + i);
+        values.push_back(normal_sample(12)[static_cast<std::size_t>((i * 5) % 12)]);
+    }
+    const Advice a = advise_test(Range::column(values), Range::column(years), Design::trend);
+    EXPECT_EQ(a.function, "TRACK.TREND");
+    EXPECT_EQ(a.method, "");
+    EXPECT_EQ(a.posthoc, "");
+    EXPECT_NE(a.report.find("12 distinct times"), std::string::npos) << a.report;
+    // Times must be numbers (dates are numbers in a sheet).
+    EXPECT_THROW(advise_test(Range::column(values), Range::text_column(std::vector<std::string>(12, "spring")), Design::trend),
+                 Refusal);
+}
+
+// Three treatments on eight transects: a block effect far larger than the treatment effect, and
+// residuals from normal quantiles (p close to 1) or from exponential ones (p ≪ 0.05).
+struct BlockSheet {
+    Range values, groups, blocks;
+};
+BlockSheet block_sheet(const std::vector<double>& noise) {
+    std::vector<double> v;
+    std::vector<std::string> g, b;
+    const char* treatment[] = {"control", "low", "high"};
+    for (std::size_t block = 0; block < 8; ++block)
+        for (std::size_t t = 0; t < 3; ++t) {
+            v.push_back(10.0 * static_cast<double>(block) + static_cast<double>(t) + noise[block * 3 + t]);
+            g.push_back(treatment[t]);
+            b.push_back("transect " + std::to_string(block + 1));
+        }
+    return {Range::column(v), Range::text_column(g), Range::text_column(b)};
+}
+
+TEST(Advisor, StructureGivesBlocksByDefault) {
+    const BlockSheet s = block_sheet(normal_sample(24, 0, 0.3));
+    const Advice a = advise_test(s.values, s.groups, Design::automatic, s.blocks);
+    EXPECT_EQ(a.function, "COMPARE.BLOCKS");
+    EXPECT_EQ(a.method, "pooled");
+    EXPECT_EQ(a.posthoc, "");
+    EXPECT_NE(a.report.find("8 complete blocks"), std::string::npos) << a.report;
+    const BlockSheet skewed = block_sheet(skewed_sample(24, 0, 3));
+    EXPECT_EQ(advise_test(skewed.values, skewed.groups, Design::blocks, skewed.blocks).method, "ranks");
+    // blocks without structure, and structure with another design, are refused.
+    EXPECT_THROW(advise_test(s.values, s.groups, Design::blocks), Refusal);
+    EXPECT_THROW(advise_test(s.values, s.groups, Design::groups, s.blocks), Refusal);
+}
+
+TEST(Advisor, NestedDesignComparesUnitsNotSubsamples) {
+    // Two zones, four plots each, three cores per plot.
+    std::vector<double> v;
+    std::vector<std::string> zone, plot;
+    const std::vector<double> plot_effect = normal_sample(8, 0, 1);
+    for (std::size_t p = 0; p < 8; ++p)
+        for (std::size_t core = 0; core < 3; ++core) {
+            v.push_back(20 + (p < 4 ? 0 : 2) + plot_effect[(p * 3) % 8] + 0.1 * static_cast<double>(core));
+            zone.push_back(p < 4 ? "upper" : "lower");
+            plot.push_back("plot " + std::to_string(p + 1));
+        }
+    const Advice a = advise_test(Range::column(v), Range::text_column(zone), Design::nested, Range::text_column(plot));
+    EXPECT_EQ(a.function, "COMPARE.NESTED");
+    EXPECT_NE(a.report.find("8 sampling units"), std::string::npos) << a.report;
+    EXPECT_NE(a.report.find("averaged first"), std::string::npos) << a.report;
+    // A plot holding both zones is not nested.
+    std::vector<std::string> crossed = plot;
+    crossed[0] = "plot 8";
+    EXPECT_THROW(advise_test(Range::column(v), Range::text_column(zone), Design::nested, Range::text_column(crossed)), Refusal);
+}
+
+TEST(Advisor, DetectionLimitsPointToTheCensoredFunctions) {
+    // Invented: zinc (mg/L) at two outfalls, 3 of 12 readings below the 0.5 limit.
+    Range zinc = Range::column({0.8, 1.2, 0.9, 0, 1.5, 0.7, 2.1, 0, 1.1, 0, 0.6, 1.9});
+    zinc.cells[3] = Cell::make_text("<0.5");
+    zinc.cells[7] = Cell::make_text("< 0.5");
+    zinc.cells[9] = Cell::make_text("<0,5");
+    const Range outfall = Range::text_column({"east", "east", "east", "east", "east", "east", "west", "west", "west", "west",
+                                              "west", "west"});
+    const Advice grouped = advise_test(zinc, outfall, Design::automatic);
+    EXPECT_EQ(grouped.function, "COMPARE.CENSORED");
+    EXPECT_EQ(grouped.method, "peto-prentice");
+    // The share censored, 3 of 12 = 25%, is in the reason.
+    EXPECT_NE(grouped.report.find("3 of 12 values (25%)"), std::string::npos) << grouped.report;
+    const Advice alone = advise_test(zinc, Range::omitted_argument(), Design::automatic);
+    EXPECT_EQ(alone.function, "DESCRIBE.CENSORED");
+    // Texts that are not a limit ("<DL", "dry") are not censored values.
+    Range other = zinc;
+    other.cells[3] = Cell::make_text("<DL");
+    other.cells[7] = Cell::make_text("dry");
+    other.cells[9] = Cell::make_number(0.4);
+    EXPECT_EQ(advise_test(other, outfall, Design::automatic).function, "COMPARE.GROUPS");
+}
+
+// FUNCTIONS.md, "Wording": a check that finds nothing is never shown as proof of the opposite.
+TEST(Advisor, NoTextClaimsWhatACheckDidNotFind) {
+    const std::vector<std::string> forbidden = {"look normal", "are normal", "is normal", "similar", "valid", "are equal",
+                                                "is linear", "describes it", "but they do"};
+    std::vector<Advice> advice;
+    const auto two = long_table({{"upstream", normal_sample(20, 8)}, {"downstream", normal_sample(25, 7, 3)}});
+    advice.push_back(advise_test(two.values, two.labels, Design::automatic));
+    const auto three = long_table({{"a", normal_sample(20, 8)}, {"b", normal_sample(20, 9)}, {"c", normal_sample(20, 10)}});
+    advice.push_back(advise_test(three.values, three.labels, Design::automatic));
+    const auto logs = long_table({{"pool", log_normal_sample(30, 1, 0.8)}, {"run", log_normal_sample(30, 1.5, 0.8)}});
+    advice.push_back(advise_test(logs.values, logs.labels, Design::automatic));
+    std::vector<double> x, y;
+    for (int i = 0; i < 30; ++i) {
+        x.push_back(i);
+        y.push_back(2 * i + normal_sample(30)[static_cast<std::size_t>((i * 7) % 30)]);
+    }
+    advice.push_back(advise_test(Range::column(y), Range::column(x), Design::relationship));
+    advice.push_back(advise_test(Range::column(normal_sample(25)), Range::omitted_argument(), Design::automatic));
+    for (const Advice& a : advice) {
+        std::string all = a.report;
+        for (const auto& row : a.table())
+            for (const auto& cell : row)
+                if (const auto* text = std::get_if<std::string>(&cell)) all += " | " + *text;
+        for (const auto& phrase : forbidden) EXPECT_EQ(all.find(phrase), std::string::npos) << phrase << " in: " << all;
+    }
+    // The log-transform step says both findings in order, without the broken "but they do".
+    EXPECT_NE(advice[2].report.find("after a log transform, no clear sign of non-normality"), std::string::npos)
+        << advice[2].report;
+}
+
+TEST(Advisor, PosthocGoesWithTheMethod) {
+    const auto equal = long_table({{"a", normal_sample(20, 8)}, {"b", normal_sample(20, 9)}, {"c", normal_sample(20, 10)}});
+    EXPECT_EQ(advise_test(equal.values, equal.labels, Design::automatic).posthoc, "tukey");
+    const auto unequal = long_table({{"a", normal_sample(20, 8, 1)}, {"b", normal_sample(20, 9, 4)}, {"c", normal_sample(20, 10, 9)}});
+    const Advice welch = advise_test(unequal.values, unequal.labels, Design::automatic);
+    EXPECT_EQ(welch.method, "welch");
+    EXPECT_EQ(welch.posthoc, "games-howell");
+}
+
 TEST(Advisor, RefusesWhatItCannotAdvise) {
     const Range one_group = Range::text_column({"a", "a", "a"});
     EXPECT_THROW(advise_test(Range::column({1, 2, 3}), one_group, Design::automatic), Refusal);
@@ -259,12 +393,13 @@ TEST(AdvisorCell, OutputsAndTableThroughTheRegistry) {
     EXPECT_EQ(std::get<std::string>(call("method")[0][0]), "welch");
     EXPECT_EQ(std::get<std::string>(call("transform")[0][0]), "none");
     EXPECT_EQ(std::get<std::string>(call("function")[0][0]), "COMPARE.GROUPS");
+    EXPECT_EQ(std::get<std::string>(call("posthoc")[0][0]), "");
     const Table table = call("table");
     EXPECT_EQ(std::get<std::string>(table[0][0]), "step");
     EXPECT_GE(table.size(), 4u);
     const std::string report = std::get<std::string>(call("")[0][0]);
     EXPECT_EQ(report.rfind("Suggested: COMPARE.GROUPS, method 'welch'.", 0), 0u) << report;
-    EXPECT_EQ(std::get<std::string>(call("verdict")[0][0]), "unknown output 'verdict'; valid: report, method, transform, function, table");
+    EXPECT_EQ(std::get<std::string>(call("verdict")[0][0]), "unknown output 'verdict'; valid: report, method, transform, posthoc, function, table");
 }
 
 }  // namespace
