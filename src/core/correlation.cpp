@@ -67,6 +67,8 @@ void add_t_test(TestResult& result, double r, double n) {
     result.add("statistic", t);
     result.add("df", df);
     result.add("p", p);
+    result.words.statistic_symbol = "t";
+    result.words.statistic_df = true;
 }
 
 // Inversions of v (pairs i < j with v[i] > v[j]), counted while merge-sorting v in place.
@@ -141,7 +143,7 @@ TestResult pearson_correlation(std::span<const double> x, std::span<const double
     const double n = static_cast<double>(x.size());
     const double r = pearson_r(x, y);
     TestResult result;
-    result.test = "Pearson correlation";
+    result.test = "Pearson's correlation";
     add_t_test(result, r, n);
     result.add("estimate", r);
     // Fisher's z: atanh(r) is near normal with SE 1/√(n − 3); needs n ≥ 4.
@@ -155,11 +157,10 @@ TestResult pearson_correlation(std::span<const double> x, std::span<const double
     }
     result.add("ci-low", low);
     result.add("ci-high", high);
-    result.report = "Pearson correlation: r = " + format_number(r);
-    if (std::isfinite(low))
-        result.report += " (" + format_level(level) + " CI " + format_number(low) + " to " + format_number(high) + ")";
-    result.report += ", t(" + format_df(n - 2) + ") = " + format_number(result.number("statistic")) + ", " +
-                     format_p(result.number("p"));
+    result.words.lead_symbol = "r";
+    result.words.lead_quantity = "estimate";
+    result.words.lead_interval = true;
+    result.words.level = level;
     return result;
 }
 
@@ -169,11 +170,11 @@ TestResult spearman_correlation(std::span<const double> x, std::span<const doubl
     const double r = pearson_r(rx.ranks, ry.ranks);
     const double n = static_cast<double>(x.size());
     TestResult result;
-    result.test = "Spearman rank correlation";
+    result.test = "Spearman's rank correlation";
     add_t_test(result, r, n);
     result.add("estimate", r);
-    result.report = "Spearman rank correlation: ρ = " + format_number(r) + ", t(" + format_df(n - 2) +
-                    ") = " + format_number(result.number("statistic")) + ", " + format_p(result.number("p"));
+    result.words.lead_symbol = "ρ";
+    result.words.lead_quantity = "estimate";
     return result;
 }
 
@@ -240,8 +241,12 @@ TestResult kendall_correlation(std::span<const double> x, std::span<const double
     }
     result.add("p", p);
     result.add("estimate", tau);
-    result.report = result.test + ": τ = " + format_number(tau) +
-                    (exact ? std::string(", ") : ", z = " + format_number(result.number("statistic")) + ", ") + format_p(p);
+    result.words.lead_symbol = "τ";
+    result.words.lead_quantity = "estimate";
+    if (exact)
+        result.words.statistic_form = ReportWords::Statistic::none;  // the statistic is τ itself
+    else
+        result.words.statistic_symbol = "z";
     return result;
 }
 
@@ -256,7 +261,8 @@ TestResult relate_correlation(const Range& x, const Range& y, const std::string&
                                         : pearson_correlation(f.numbers[0], f.numbers[1]);
     r.add("n", static_cast<double>(f.n_used));
     r.add("n dropped", static_cast<double>(f.n_dropped));
-    r.report += ", n = " + std::to_string(f.n_used);
+    r.words.shown = true;
+    r.words.n_after_p = true;
     return r;
 }
 

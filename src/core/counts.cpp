@@ -13,7 +13,6 @@
 #include "data.hpp"
 #include "keywords.hpp"
 #include "refusal.hpp"
-#include "report.hpp"
 #include "summary.hpp"
 
 namespace quadrat {
@@ -370,15 +369,15 @@ TestResult compare_counts(const ContingencyTable& table, const std::string& meth
     TestResult r;
     double statistic = std::numeric_limits<double>::quiet_NaN(), p;
     if (method == "chi-square") {
-        r.test = "Pearson's chi-square test of association";
+        r.test = "Pearson's chi-square test";
         statistic = pearson;
         p = chi_square_upper_tail(statistic, df);
     } else if (method == "yates") {
-        r.test = "Chi-square test of association with Yates' continuity correction";
+        r.test = "Chi-square test with Yates' continuity correction";
         statistic = pearson_statistic(table.counts, m, true);
         p = chi_square_upper_tail(statistic, df);
     } else if (method == "g") {
-        r.test = "G-test of association (likelihood ratio)";
+        r.test = "G-test (likelihood ratio)";
         statistic = g_statistic(table.counts, m);
         p = chi_square_upper_tail(statistic, df);
     } else if (two_by_two) {
@@ -394,13 +393,12 @@ TestResult compare_counts(const ContingencyTable& table, const std::string& meth
     r.add("p", p).add("n", m.total).add("n dropped", double(table.n_dropped)).add("effect", effect);
     r.add("smallest expected count", small.smallest).add("cells expected below 5", small.below_five);
 
-    const std::string effect_text = (two_by_two ? "φ = " : "Cramér's V = ") + format_number(effect);
-    const std::string n_text = "n = " + count_text(m.total);
-    if (method == "fisher")
-        r.report = r.test + ": " + format_p(p) + ", " + n_text + "; " + effect_text;
-    else
-        r.report = r.test + ": " + (method == "g" ? "G(" : "χ²(") + format_df(df) + ") = " + format_number(statistic) +
-                   ", " + format_p(p) + ", " + n_text + "; " + effect_text;
+    r.words.shown = true;
+    r.words.statistic_form = method == "fisher" ? ReportWords::Statistic::none : ReportWords::Statistic::number;
+    r.words.statistic_symbol = method == "g" ? "G" : "χ²";
+    r.words.statistic_df = true;
+    r.words.n_after_p = true;
+    r.words.effect = two_by_two ? "φ" : "Cramér's V";
     return r;
 }
 
@@ -439,8 +437,10 @@ TestResult compare_expected(const std::vector<double>& observed, const std::vect
     r.test = "Chi-square goodness-of-fit test";
     r.add("statistic", statistic).add("df", df).add("p", p).add("n", n).add("n dropped", double(n_dropped));
     r.add("smallest expected count", small.smallest).add("cells expected below 5", small.below_five);
-    r.report = r.test + ": χ²(" + format_df(df) + ") = " + format_number(statistic) + ", " + format_p(p) +
-               ", n = " + count_text(n);
+    r.words.shown = true;
+    r.words.statistic_symbol = "χ²";
+    r.words.statistic_df = true;
+    r.words.n_after_p = true;
     return r;
 }
 

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include <boost/math/distributions/students_t.hpp>
 
@@ -28,9 +29,11 @@ std::string mean_header(Transform t) {
 Table describe_groups(const Groups& groups, Transform transform, double level) {
     if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     Table table;
-    table.push_back({std::string("group"), std::string("n"), mean_header(transform), std::string("SD"),
-                     std::string("SE"), std::string("ci-low"), std::string("ci-high"), std::string("median"),
-                     std::string("minimum"), std::string("maximum")});
+    table.push_back({std::string("group"), std::string("n"), mean_header(transform), std::string("ci-low"),
+                     std::string("ci-high"), std::string("SD"), std::string("SE"), std::string("CV %"),
+                     std::string("minimum"), std::string("q1"), std::string("median"), std::string("q3"),
+                     std::string("maximum")});
+    const std::size_t columns = table.front().size();
 
     // The transform's domain is checked over all groups at once, so the refusal counts every cell.
     std::vector<std::vector<double>> transformed = groups.values;
@@ -43,7 +46,7 @@ Table describe_groups(const Groups& groups, Transform transform, double level) {
         std::vector<CellValue> row{groups.names[g], static_cast<double>(n)};
         if (n == 0) {
             // A wide-format column with no numbers: a row of its own, so the table keeps one row per column.
-            row.resize(10, std::monostate{});
+            row.resize(columns, std::monostate{});
             table.push_back(std::move(row));
             continue;
         }
@@ -52,6 +55,9 @@ Table describe_groups(const Groups& groups, Transform transform, double level) {
 
         const double sd = standard_deviation(raw);  // NaN for n = 1 → blank
         const double se = sd / std::sqrt(static_cast<double>(n));
+        // CV % = 100 · SD / |arithmetic mean| on the data's scale, whatever the transform; blank at a zero mean.
+        const double raw_mean = mean(raw);
+        const double cv = raw_mean != 0 ? 100.0 * sd / std::fabs(raw_mean) : std::numeric_limits<double>::quiet_NaN();
         const double centre = mean(scaled);
         double low = std::numeric_limits<double>::quiet_NaN();
         double high = low;
@@ -63,12 +69,17 @@ Table describe_groups(const Groups& groups, Transform transform, double level) {
             high = back_transform(transform, centre + t * scaled_se);
         }
         row.push_back(back_transform(transform, centre));
-        row.push_back(number_or_blank(sd));
-        row.push_back(number_or_blank(se));
         row.push_back(number_or_blank(low));
         row.push_back(number_or_blank(high));
-        row.push_back(median_of_sorted(sorted));
+        row.push_back(number_or_blank(sd));
+        row.push_back(number_or_blank(se));
+        row.push_back(number_or_blank(cv));
         row.push_back(sorted.front());
+        // Quartiles as Calc's QUARTILE.INC (position (n − 1)p, linear interpolation), so a user can
+        // check them in the sheet.
+        row.push_back(quantile_of_sorted(sorted, 0.25));
+        row.push_back(median_of_sorted(sorted));
+        row.push_back(quantile_of_sorted(sorted, 0.75));
         row.push_back(sorted.back());
         table.push_back(std::move(row));
     }

@@ -431,8 +431,8 @@ RegressionData read_regression(const Range& y, const Range& xs) {
 }
 
 const std::vector<std::string>& linear_outputs() {
-    static const std::vector<std::string> keys = {"coefficients", "model", "r2",    "p",
-                                                  "slope",        "intercept", "sigma", "report"};
+    static const std::vector<std::string> keys = {"coefficients", "model",     "r-squared",   "p",
+                                                  "slope",        "intercept", "residual-sd", "report"};
     return keys;
 }
 
@@ -446,7 +446,7 @@ CellValue number_or_blank(double x) {
 Table coefficient_table(const LinearModel& m, double level) {
     Table t;
     t.reserve(m.parameters + 1);
-    t.push_back({std::string("term"), std::string("estimate"), std::string("std. error"), std::string("t"),
+    t.push_back({std::string("variable"), std::string("coefficient"), std::string("SE"), std::string("t"),
                  std::string("p"), std::string("ci-low"), std::string("ci-high"), std::string("VIF")});
     for (std::size_t j = 0; j < m.parameters; ++j)
         t.push_back({m.terms[j], m.estimate[j], m.std_error[j], number_or_blank(m.t[j]), number_or_blank(m.p[j]),
@@ -456,34 +456,40 @@ Table coefficient_table(const LinearModel& m, double level) {
 
 TestResult model_summary(const LinearModel& m, std::size_t n_dropped, double level) {
     TestResult r;
-    r.test = m.intercept ? "linear regression (ordinary least squares)"
-                         : "linear regression through the origin (ordinary least squares)";
-    r.add("r2", m.r2);
-    r.add("adj-r2", m.adj_r2);
+    r.test = m.intercept ? "Linear regression (ordinary least squares)"
+                         : "Linear regression through the origin (ordinary least squares)";
+    r.add("r-squared", m.r2);
+    r.add("r-squared-adjusted", m.adj_r2);
     r.add("statistic", m.f_statistic);
     r.add("df", m.df_model);
     r.add("df2", m.df_residual);
     r.add("p", m.f_p);
-    r.add("sigma", m.sigma);
+    r.add("residual-sd", m.sigma);
     r.add("aic", m.aic);
     r.add("bic", m.bic);
     r.add("n", static_cast<double>(m.n));
     r.add("n dropped", static_cast<double>(n_dropped));
 
-    const bool one_predictor = m.intercept && m.parameters == 2;
-    std::string s = "Linear regression: ";
-    if (m.perfect_fit) {
-        s += "perfect fit (R² = 1, residual SD 0, n = " + std::to_string(m.n) +
-             "): the coefficients are exact; standard errors are 0, and t, F and p are not defined";
-        if (one_predictor) s += "; slope " + format_number(m.estimate[1]);
-    } else {
-        s += "R² = " + format_number(m.r2) + ", F(" + format_df(m.df_model) + ", " + format_df(m.df_residual) +
-             ") = " + format_number(m.f_statistic) + ", " + format_p(m.f_p) + ", n = " + std::to_string(m.n);
-        if (one_predictor)
-            s += "; slope " + format_number(m.estimate[1]) + " (" + format_level(level) + " CI " +
-                 format_number(m.ci_low(1, level)) + " to " + format_number(m.ci_high(1, level)) + ")";
+    r.words.shown = true;
+    r.words.level = level;
+    r.words.statistic_symbol = "F";
+    r.words.statistic_df = true;
+    r.words.n_after_p = true;
+    if (m.perfect_fit)
+        r.words.note = "perfect fit (R² = 1, residual SD 0): the coefficients are exact; standard errors are 0, and t, F "
+                       "and p are not defined";
+    else
+        r.words.lead_symbol = "R²", r.words.lead_quantity = "r-squared";
+    // With one predictor the sentence ends with the slope and its interval (not rows of the table).
+    if (m.intercept && m.parameters == 2) {
+        r.words.estimate = "slope";
+        r.words.estimate_quantity = "slope";
+        r.unlisted.push_back({"slope", m.estimate[1]});
+        if (!m.perfect_fit) {
+            r.unlisted.push_back({"slope ci-low", m.ci_low(1, level)});
+            r.unlisted.push_back({"slope ci-high", m.ci_high(1, level)});
+        }
     }
-    r.report = s;
     return r;
 }
 
@@ -507,7 +513,7 @@ Table linear_output(const LinearModel& m, std::size_t n_dropped, const std::stri
     }
     if (m.perfect_fit && output == "p")
         throw Refusal("the fit is perfect (residual SD 0): the F test's p is not defined");
-    return select_output(summary, output, {"r2", "p", "sigma", "report"});
+    return select_output(summary, output, {"r-squared", "p", "residual-sd", "report"});
 }
 
 }  // namespace quadrat

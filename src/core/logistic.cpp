@@ -367,10 +367,16 @@ Table logistic_coefficients(const LogisticFit& fit, double level) {
     const boost::math::normal_distribution<double> normal;
     const double z_crit = boost::math::quantile(boost::math::complement(normal, (1 - level) / 2));
     Table t;
-    t.push_back({std::string("term"), std::string("estimate"), std::string("std. error"), std::string("z"), std::string("p"),
-                 std::string("odds ratio"), std::string("OR ci-low"), std::string("OR ci-high")});
+    t.push_back({std::string("variable"), std::string("coefficient"), std::string("SE"), std::string("z"), std::string("p"),
+                 std::string("odds ratio"), std::string("ci-low"), std::string("ci-high")});
     for (std::size_t j = 0; j < fit.terms.size(); ++j) {
         const double b = fit.estimate[j], se = fit.std_error[j];
+        // The intercept's odds (all predictors at zero) is rarely a quantity anyone reports
+        // (FUNCTIONS.md, FIT.LOGISTIC): its odds-ratio cells stay blank.
+        if (j == 0) {
+            t.push_back({fit.terms[j], b, se, fit.z[j], fit.p[j], std::monostate{}, std::monostate{}, std::monostate{}});
+            continue;
+        }
         t.push_back({fit.terms[j], b, se, fit.z[j], fit.p[j], std::exp(b), std::exp(b - z_crit * se), std::exp(b + z_crit * se)});
     }
     return t;
@@ -378,7 +384,7 @@ Table logistic_coefficients(const LogisticFit& fit, double level) {
 
 Table logistic_model(const LogisticFit& fit) {
     TestResult r;
-    r.test = "logistic regression (logit link, maximum likelihood)";
+    r.test = "Logistic regression (logit link, maximum likelihood)";
     r.add("event", fit.event)
         .add("deviance", fit.deviance)
         .add("null deviance", fit.null_deviance)
@@ -386,7 +392,7 @@ Table logistic_model(const LogisticFit& fit) {
         .add("df", fit.df)
         .add("p", fit.lr_p)
         .add("aic", fit.aic)
-        .add("pseudo-r2", fit.pseudo_r2)
+        .add("pseudo-r-squared", fit.pseudo_r2)
         .add("n", fit.n)
         .add("n dropped", fit.n_dropped)
         .add("iterations", double(fit.iterations));

@@ -12,7 +12,6 @@
 
 #include "keywords.hpp"
 #include "refusal.hpp"
-#include "report.hpp"
 #include "summary.hpp"
 
 namespace quadrat {
@@ -170,7 +169,9 @@ TestResult finish(std::string test, const std::string& symbol, double statistic,
     TestResult r;
     r.test = std::move(test);
     r.add("statistic", statistic).add("p", p).add("n", static_cast<double>(n));
-    r.report = r.test + ": " + symbol + " = " + format_number(statistic) + ", " + format_p(p) + ", n = " + std::to_string(n);
+    r.words.shown = true;
+    r.words.statistic_symbol = symbol;
+    r.words.n_after_p = true;
     return r;
 }
 
@@ -366,7 +367,7 @@ TestResult dagostino(std::span<const double> values) {
     const double term = std::cbrt((1 - 2 / a) / denominator);
     const double z_kurt = (1 - 2 / (9 * a) - term) / std::sqrt(2 / (9 * a));
     const double k2 = z_skew * z_skew + z_kurt * z_kurt;
-    TestResult r = finish("D'Agostino K² omnibus normality test", "K²", k2, upper_chi_squared(k2, 2), s.n);
+    TestResult r = finish("D'Agostino–Pearson normality test", "K²", k2, upper_chi_squared(k2, 2), s.n);
     r.quantities.insert(r.quantities.begin() + 1, Quantity{"df", 2.0});
     return r;
 }
@@ -433,7 +434,6 @@ TestResult check_normal(const Groups& groups, const std::string& method) {
         throw Refusal("the values are equal within every group: no spread to test");
     r = normality_test(residuals, m);
     const std::string of_residuals = " of the residuals from " + std::to_string(filled) + " group means";
-    r.report.insert(r.test.size(), of_residuals);
     r.test += of_residuals;
     r.add("n dropped", static_cast<double>(groups.n_dropped));
     for (std::size_t i = 0; i < groups.group_count(); ++i) {

@@ -9,7 +9,6 @@
 #include "keywords.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
-#include "report.hpp"
 #include "summary.hpp"
 #include "two_groups.hpp"
 
@@ -54,12 +53,6 @@ std::vector<double> group_medians(std::span<const std::vector<double>> groups) {
     std::vector<double> medians;
     for (const auto& g : groups) medians.push_back(median(g));
     return medians;
-}
-
-// Largest minus smallest of the group locations.
-double location_range(const std::vector<double>& locations) {
-    const auto [lowest, highest] = std::minmax_element(locations.begin(), locations.end());
-    return *highest - *lowest;
 }
 
 std::size_t total_count(std::span<const std::vector<double>> groups) {
@@ -121,14 +114,16 @@ Interval omega_squared_interval(const AnovaTable& t, double n) {
 TestResult classic_one_way_anova(std::span<const std::vector<double>> groups) {
     const AnovaTable t = one_way_anova_table(groups);
     TestResult r;
-    r.test = "Classic one-way ANOVA";
+    r.test = "One-way ANOVA";
     r.add("statistic", t.f)
         .add("df", t.df_between)
         .add("df2", t.df_within)
         .add("p", t.p)
         .add("n", static_cast<double>(total_count(groups)))
-        .add("estimate", location_range(group_means(groups)))
         .add("effect", omega_squared(t));
+    r.words.statistic_symbol = "F";
+    r.words.statistic_df = true;
+    r.words.effect = "ω²";
     const Interval omega = omega_squared_interval(t, r.number("n"));
     r.add("effect ci-low", omega.low).add("effect ci-high", omega.high);
     return r;
@@ -186,8 +181,10 @@ TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) 
         .add("df2", df2)
         .add("p", cdf(complement(dist, f)))
         .add("n", static_cast<double>(total_count(raw_groups)))
-        .add("estimate", location_range(group_means(raw_groups)))
         .add("effect", omega_squared(classic));
+    r.words.statistic_symbol = "F";
+    r.words.statistic_df = true;
+    r.words.effect = "ω²";
     const Interval omega = omega_squared_interval(classic, r.number("n"));
     r.add("effect ci-low", omega.low).add("effect ci-high", omega.high);
     return r;
@@ -223,8 +220,10 @@ TestResult kruskal_wallis_test(std::span<const std::vector<double>> groups) {
         .add("df", df)
         .add("p", cdf(complement(dist, h)))
         .add("n", n)
-        .add("estimate", location_range(group_medians(groups)))
         .add("effect", h / (n - 1));
+    r.words.statistic_symbol = "H";
+    r.words.statistic_df = true;
+    r.words.effect = "ε²";
     return r;
 }
 
@@ -243,16 +242,6 @@ void replace_number(TestResult& r, const std::string& label, double value) {
 
 std::string scale_words(Transform t) {
     return t == Transform::log1p ? "the log(x+1) scale" : "the " + transform_keyword(t) + " scale";
-}
-
-// "0.12 (95% CI 0.05 to 0.19)" parts, or the text the interval cells hold.
-std::string interval_words(const TestResult& r, double level) {
-    const CellValue* low = r.find("ci-low");
-    const CellValue* high = r.find("ci-high");
-    if (!low || !high) return {};
-    if (std::holds_alternative<std::string>(*low)) return "; " + std::get<std::string>(*low);
-    return "; " + format_level(level) + " CI " + format_number(std::get<double>(*low)) + " to " +
-           format_number(std::get<double>(*high));
 }
 
 }  // namespace
@@ -289,36 +278,38 @@ TestResult compare_groups(const Groups& g, const std::string& method_given, Tran
         if (ranks) r = kruskal_wallis_test(values);
     }
     insert_after(r, "n", {"n dropped", static_cast<double>(g.n_dropped)});
+    r.words.shown = true;
+    r.words.level = level;
 
-    // Which groups the estimate compares: first and second, or the largest and smallest location.
-    const std::vector<double> locations = ranks ? group_medians(values) : group_means(values);
-    std::size_t high = 0, low = 1;
-    if (k > 2) {
-        high = static_cast<std::size_t>(std::max_element(locations.begin(), locations.end()) - locations.begin());
-        low = static_cast<std::size_t>(std::min_element(locations.begin(), locations.end()) - locations.begin());
-    }
     const bool ratio = is_ratio_scale(transform);
-    const std::string direction = g.names[high] + (ratio ? " ÷ " : " − ") + g.names[low];
-
-    // Back to the data's scale: a log difference becomes a ratio; log1p and sqrt differences stay.
-    if (ratio)
-        for (const char* label : {"estimate", "ci-low", "ci-high"}) replace_number(r, label, back_transform(transform, r.number(label)));
-    if (transform != Transform::none) {
-        std::string note = transform_keyword(transform) + ": the test ran on transformed values; ";
-        const std::string subject = k == 2 ? (ranks ? "the estimate and interval are the Hodges–Lehmann shift"
-                                                    : "the estimate and interval are the mean difference")
-                                           : (ranks ? "the estimate is the largest minus smallest median"
-                                                    : "the estimate is the largest minus smallest mean");
+    if (k == 2) {
+        // Back to the data's scale: a log difference becomes a ratio; log(x+1) and sqrt differences stay.
         if (ratio)
-            note += k == 2 ? "the estimate and interval are a ratio (" + direction + ")" + (ranks ? "" : " of geometric means")
-                           : "the estimate is the ratio of the largest to the smallest " +
-                                 std::string(ranks ? "median" : "geometric mean") + " (" + direction + ")";
-        else
-            note += subject + " on " + scale_words(transform);
+            for (const char* label : {"estimate", "ci-low", "ci-high"})
+                replace_number(r, label, back_transform(transform, r.number(label)));
+        r.words.direction = g.names[0] + (ratio ? " ÷ " : " − ") + g.names[1];
+        const std::string on_scale = (!ratio && transform != Transform::none) ? " on " + scale_words(transform) : "";
+        r.words.estimate = ratio ? (ranks ? "Hodges–Lehmann ratio" : "ratio of geometric means")
+                                 : (ranks ? "Hodges–Lehmann shift" : "mean difference") + on_scale;
+    } else {
+        // FUNCTIONS.md, COMPARE.GROUPS: one difference chosen by the data (largest minus smallest)
+        // would be reported without an honest interval; the pairs belong to COMPARE.POSTHOC.
+        const std::string refusal = std::to_string(k) + " groups: a single difference picked by the data has no honest "
+                                    "interval; COMPARE.POSTHOC gives every pair's difference with its interval";
+        for (const char* label : {"estimate", "ci-low", "ci-high"}) r.unlisted.push_back({label, refusal});
+    }
+    if (transform != Transform::none) {
+        std::string note = transform_keyword(transform) + ": the test ran on transformed values";
+        if (k == 2)
+            note += ratio ? "; the estimate and interval are a ratio (" + r.words.direction + ")" +
+                                (ranks ? "" : " of geometric means")
+                          : std::string("; the estimate and interval are ") +
+                                (ranks ? "the Hodges–Lehmann shift" : "the mean difference") + " on " + scale_words(transform);
         r.add("transform", note);
     }
 
     // Per-group rows on the data's scale.
+    const std::vector<double> locations = ranks ? group_medians(values) : group_means(values);
     const std::string location_name = ranks                                ? "median"
                                       : ratio                             ? "geometric mean"
                                       : transform == Transform::none      ? "mean"
@@ -329,31 +320,6 @@ TestResult compare_groups(const Groups& g, const std::string& method_given, Tran
         r.add(g.names[i] + ": n", static_cast<double>(g.values[i].size()));
         r.add(g.names[i] + ": " + location_name, ranks ? median(g.values[i]) : back_transform(transform, locations[i]));
     }
-
-    // The report sentence.
-    const double statistic = r.number("statistic");
-    std::string s = r.test + ": ";
-    if (k == 2 && !ranks) s += "t(" + format_df(r.number("df")) + ") = " + format_number(statistic);
-    if (k == 2 && ranks) s += "U = " + format_df(statistic);
-    if (k > 2 && !ranks) s += "F(" + format_df(r.number("df")) + ", " + format_df(r.number("df2")) + ") = " + format_number(statistic);
-    if (k > 2 && ranks) s += "H(" + format_df(r.number("df")) + ") = " + format_number(statistic);
-    s += ", " + format_p(r.number("p")) + "; ";
-    const std::string on_scale = (!ratio && transform != Transform::none) ? " on " + scale_words(transform) : "";
-    const double estimate = r.number("estimate");
-    if (k == 2) {
-        s += ratio ? (ranks ? "Hodges–Lehmann ratio " : "ratio of geometric means ")
-                   : (ranks ? "Hodges–Lehmann shift" + on_scale + " " : "mean difference" + on_scale + " ");
-        s += format_number(estimate) + " (" + direction + interval_words(r, level) + "), ";
-        s += ranks ? "rank-biserial r = " : "Hedges' g = ";
-    } else {
-        const std::string what = ranks ? "median" : "mean";
-        s += ratio ? "ratio of largest to smallest " + std::string(ranks ? "median " : "geometric mean ")
-                   : "largest minus smallest " + what + on_scale + " ";
-        s += format_number(estimate) + " (" + direction + "), ";
-        s += ranks ? "ε² = " : "ω² = ";
-    }
-    s += format_number(r.number("effect"));
-    r.report = s;
     mark_non_finite(r);
     return r;
 }

@@ -93,7 +93,7 @@ std::vector<double> signed_rank_null_distribution(std::size_t n) {
     return counts;
 }
 
-TestResult paired_t_test(std::span<const double> differences_raw, double level) {
+TestResult paired_t_test(std::span<const double> differences_raw, double level, bool one_sample) {
     if (differences_raw.size() < 2)
         throw Refusal("needs at least 2 pairs, found " + std::to_string(differences_raw.size()));
     const std::span<const double> views[] = {differences_raw};
@@ -112,7 +112,7 @@ TestResult paired_t_test(std::span<const double> differences_raw, double level) 
     const Interval delta = noncentral_t_interval(t, n - 1, level);
 
     TestResult r;
-    r.test = "Paired t-test";
+    r.test = one_sample ? "One-sample t-test" : "Paired t-test";
     r.add("statistic", t)
         .add("df", n - 1)
         .add("p", std::min(1.0, 2 * cdf(complement(dist, std::fabs(t)))))
@@ -123,10 +123,14 @@ TestResult paired_t_test(std::span<const double> differences_raw, double level) 
         .add("effect", m / sd)
         .add("effect ci-low", delta.low / std::sqrt(n))
         .add("effect ci-high", delta.high / std::sqrt(n));
+    r.words.statistic_symbol = "t";
+    r.words.statistic_df = true;
+    r.words.estimate = "mean difference";
+    r.words.effect = "Cohen's d";
     return r;
 }
 
-TestResult signed_rank_test(std::span<const double> differences, double level) {
+TestResult signed_rank_test(std::span<const double> differences, double level, bool one_sample) {
     const NonZeroDifferences d = non_zero_differences(differences);
     const std::size_t count = d.sorted.size();
     const double n = static_cast<double>(count);
@@ -158,15 +162,20 @@ TestResult signed_rank_test(std::span<const double> differences, double level) {
         high = walsh_average_order_statistic(d.sorted, total + 1 - k);
     }
     TestResult r;
-    r.test = exact ? "Wilcoxon signed-rank test (exact p)" : "Wilcoxon signed-rank test (normal approximation)";
+    r.test = std::string(one_sample ? "Wilcoxon one-sample signed-rank test" : "Wilcoxon signed-rank test") +
+             (exact ? " (exact p)" : " (normal approximation)");
     r.add("statistic", s.t_plus).add("p", p).add("n", n).add("zero differences", static_cast<double>(d.zeros));
     r.add("estimate", hodges_lehmann_pseudo_median(d.sorted));
     add_interval(r, low, high, level);
     r.add("effect", matched_pairs_rank_biserial(s.t_plus, n));
+    r.words.statistic_form = ReportWords::Statistic::whole;
+    r.words.statistic_symbol = "T⁺";
+    r.words.estimate = "Hodges–Lehmann pseudo-median";
+    r.words.effect = "matched-pairs rank-biserial r";
     return r;
 }
 
-TestResult sign_test(std::span<const double> differences, double level) {
+TestResult sign_test(std::span<const double> differences, double level, bool one_sample) {
     const NonZeroDifferences d = non_zero_differences(differences);
     const std::size_t count = d.sorted.size();
     const double n = static_cast<double>(count);
@@ -194,11 +203,14 @@ TestResult sign_test(std::span<const double> differences, double level) {
         high = d.sorted[count - k];
     }
     TestResult r;
-    r.test = "Sign test (exact binomial)";
+    r.test = one_sample ? "One-sample sign test (exact binomial)" : "Sign test (exact binomial)";
     r.add("statistic", positive).add("p", p).add("n", n).add("zero differences", static_cast<double>(d.zeros));
     r.add("estimate", median_of_sorted(d.sorted));
     add_interval(r, low, high, level);
     r.add("effect", matched_pairs_rank_biserial(signed_ranks(d.sorted).t_plus, n));
+    r.words.statistic_form = ReportWords::Statistic::positive_count;
+    r.words.estimate = "median difference";
+    r.words.effect = "matched-pairs rank-biserial r";
     return r;
 }
 
@@ -207,11 +219,6 @@ namespace {
 void replace_number(TestResult& r, const std::string& label, double value) {
     for (auto& q : r.quantities)
         if (q.label == label && std::holds_alternative<double>(q.value)) q.value = value;
-}
-
-std::string upper_first(std::string s) {
-    if (!s.empty() && s[0] >= 'a' && s[0] <= 'z') s[0] = static_cast<char>(s[0] - 'a' + 'A');
-    return s;
 }
 
 }  // namespace
@@ -247,14 +254,9 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
     }
 
     TestResult r;
-    if (method == "t") r = paired_t_test(differences, level);
-    if (method == "signed-rank") r = signed_rank_test(differences, level);
-    if (method == "sign") r = sign_test(differences, level);
-    if (readings.one_sample) {
-        if (method == "t") r.test = "One-sample t-test";
-        if (method == "signed-rank") r.test.insert(std::string("Wilcoxon").size(), " one-sample");
-        if (method == "sign") r.test = "One-sample sign test (exact binomial)";
-    }
+    if (method == "t") r = paired_t_test(differences, level, readings.one_sample);
+    if (method == "signed-rank") r = signed_rank_test(differences, level, readings.one_sample);
+    if (method == "sign") r = sign_test(differences, level, readings.one_sample);
     // n dropped follows n (rows with a missing reading).
     auto n_at = std::find_if(r.quantities.begin(), r.quantities.end(), [](const Quantity& q) { return q.label == "n"; });
     r.quantities.insert(n_at + 1, Quantity{"n dropped", static_cast<double>(readings.n_dropped)});
@@ -264,16 +266,17 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
     const std::string direction = readings.first_name + (ratio ? " ÷ " : " − ") + second_name;
     if (ratio)
         for (const char* label : {"estimate", "ci-low", "ci-high"}) replace_number(r, label, back_transform(transform, r.number(label)));
-    const std::string estimate_name = method == "t"             ? "mean difference"
-                                      : method == "signed-rank" ? "Hodges–Lehmann pseudo-median"
-                                                                : "median difference";
-    const std::string ratio_name = method == "t"             ? "ratio of geometric means"
-                                   : method == "signed-rank" ? "Hodges–Lehmann ratio"
-                                                             : "median ratio";
     const std::string scale = transform == Transform::log1p ? "the log(x+1) scale" : "the " + transform_keyword(transform) + " scale";
     if (transform != Transform::none)
         r.add("transform", transform_keyword(transform) + ": the test ran on transformed values; the estimate and interval are " +
-                               (ratio ? "a ratio (" + direction + ")" : "the " + estimate_name + " on " + scale));
+                               (ratio ? "a ratio (" + direction + ")" : "the " + r.words.estimate + " on " + scale));
+    r.words.shown = true;
+    r.words.level = level;
+    r.words.direction = direction;
+    if (ratio)
+        r.words.estimate = method == "t" ? "ratio of geometric means" : method == "signed-rank" ? "Hodges–Lehmann ratio" : "median ratio";
+    else if (transform != Transform::none)
+        r.words.estimate += " on " + scale;
 
     // Each side's location on the data's scale.
     const bool ranks = method != "t";
@@ -284,21 +287,6 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
     else
         r.add(readings.second_name + ": " + location, ranks ? median(readings.second) : back_transform(transform, mean(second)));
 
-    // The report sentence.
-    std::string s = upper_first(r.test) + ": ";
-    const double statistic = r.number("statistic");
-    if (method == "t") s += "t(" + format_df(r.number("df")) + ") = " + format_number(statistic);
-    if (method == "signed-rank") s += "T⁺ = " + format_df(statistic);
-    if (method == "sign") s += format_df(statistic) + " of " + format_df(r.number("n")) + " differences positive";
-    s += ", " + format_p(r.number("p")) + "; ";
-    s += ratio ? ratio_name : estimate_name + (transform == Transform::none ? "" : " on " + scale);
-    s += " " + format_number(r.number("estimate")) + " (" + direction + "; ";
-    if (const CellValue* low = r.find("ci-low"); low && std::holds_alternative<std::string>(*low))
-        s += std::get<std::string>(*low);
-    else
-        s += format_level(level) + " CI " + format_number(r.number("ci-low")) + " to " + format_number(r.number("ci-high"));
-    s += "), " + std::string(method == "t" ? "Cohen's d = " : "matched-pairs rank-biserial r = ") + format_number(r.number("effect"));
-    r.report = s;
     mark_non_finite(r);
     return r;
 }

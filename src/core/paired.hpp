@@ -14,7 +14,7 @@ namespace quadrat {
 
 // Paired t-test (Student 1908, Biometrika 6, 1–25) on the differences: t = d̄/(s_d/√n) on n − 1 df.
 // estimate: mean difference with its t interval; effect: Cohen's d of the differences, d̄/s_d.
-TestResult paired_t_test(std::span<const double> differences, double level);
+TestResult paired_t_test(std::span<const double> differences, double level, bool one_sample = false);
 
 // Wilcoxon signed-rank test (Wilcoxon 1945, Biometrics Bull. 1, 80–83). Differences are rounded to
 // 10 significant digits and zeros dropped first; n is what remains. statistic T⁺, the sum of the
@@ -22,12 +22,12 @@ TestResult paired_t_test(std::span<const double> differences, double level);
 // approximation with tie and continuity corrections. estimate: Hodges–Lehmann pseudo-median (median
 // of the Walsh averages) with its interval from their order statistics at the critical values of
 // T⁺; effect: matched-pairs rank-biserial r = (T⁺ − T⁻)/(T⁺ + T⁻) (Kerby 2014, Compr. Psychol. 3, 11.IT.3.1).
-TestResult signed_rank_test(std::span<const double> differences, double level);
+TestResult signed_rank_test(std::span<const double> differences, double level, bool one_sample = false);
 
 // Sign test: exact binomial (n, ½) on the number of positive differences, zeros dropped first.
 // estimate: median difference with its interval from the order statistics of the differences at the
 // binomial critical values; effect: matched-pairs rank-biserial r as for the signed-rank test.
-TestResult sign_test(std::span<const double> differences, double level);
+TestResult sign_test(std::span<const double> differences, double level, bool one_sample = false);
 
 // Exact null distribution of T⁺ without ties: P(T⁺ = t), t = 0..n(n+1)/2. Bounded: called for n < 50
 // (1226 values, about 30 000 additions); the counts are below 2⁴⁹ and exact in a double.

@@ -2,6 +2,9 @@
 
 #include <cmath>
 #include <cstdio>
+#include <variant>
+
+#include "advisor.hpp"
 
 namespace quadrat {
 
@@ -48,6 +51,105 @@ std::string format_level(double level) {
     const double percent = level * 100.0;
     if (std::fabs(percent - std::round(percent)) < 1e-9) return printf_string("%.0f", percent) + "%";
     return printf_string("%.1f", percent) + "%";
+}
+
+namespace {
+
+double number_of(const TestResult& r, const std::string& label) { return r.number(label); }
+
+// "95% CI 0.05 to 0.19" from `<prefix>ci-low`/`<prefix>ci-high`, or the text those cells hold
+// ("too few values for a 95% interval"); empty when the result has no interval.
+std::string interval_words(const TestResult& r, const std::string& low_label, const std::string& high_label, double level) {
+    const CellValue* low = r.find(low_label);
+    const CellValue* high = r.find(high_label);
+    if (!low || !high) return {};
+    if (const auto* text = std::get_if<std::string>(low)) return *text;
+    const double lo = number_of(r, low_label), hi = number_of(r, high_label);
+    if (!std::isfinite(lo) || !std::isfinite(hi)) return {};
+    return format_level(level) + " CI " + format_number(lo) + " to " + format_number(hi);
+}
+
+std::string statistic_words(const TestResult& r, const ReportWords& w) {
+    const double x = number_of(r, "statistic");
+    switch (w.statistic_form) {
+        case ReportWords::Statistic::none: return {};
+        case ReportWords::Statistic::positive_count:
+            return format_df(x) + " of " + format_df(number_of(r, "n")) + " differences positive";
+        case ReportWords::Statistic::whole: return w.statistic_symbol + " = " + format_df(x);
+        case ReportWords::Statistic::number: break;
+    }
+    std::string s = w.statistic_symbol;
+    if (w.statistic_df) {
+        s += "(" + format_df(number_of(r, "df"));
+        if (r.find("df2")) s += ", " + format_df(number_of(r, "df2"));
+        s += ")";
+    }
+    return s + " = " + format_number(x);
+}
+
+}  // namespace
+
+std::string render_report(const TestResult& r) {
+    const ReportWords& w = r.words;
+    std::string s = r.test + ": ";
+    std::string part;  // the comma-separated run before the first semicolon
+    const auto then = [&part](const std::string& piece) {
+        if (piece.empty()) return;
+        if (!part.empty()) part += ", ";
+        part += piece;
+    };
+    if (!w.note.empty()) {
+        then(w.note);
+    } else {
+        if (!w.lead_symbol.empty()) {
+            std::string lead = w.lead_symbol + " = " + format_number(number_of(r, w.lead_quantity));
+            if (w.lead_interval) {
+                const std::string ci = interval_words(r, "ci-low", "ci-high", w.level);
+                if (!ci.empty()) lead += " (" + ci + ")";
+            }
+            then(lead);
+        }
+        then(statistic_words(r, w));
+        then(format_p(number_of(r, "p")));
+    }
+    if (w.n_after_p) then("n = " + format_df(number_of(r, "n")));
+    s += part;
+    if (!w.estimate.empty()) {
+        const std::string& q = w.estimate_quantity;
+        const bool plain = q == "estimate";
+        const std::string ci =
+            interval_words(r, plain ? "ci-low" : q + " ci-low", plain ? "ci-high" : q + " ci-high", w.level);
+        std::string inside = w.direction;
+        if (!ci.empty()) inside += (inside.empty() ? "" : "; ") + ci;
+        s += "; " + w.estimate + " " + format_number(number_of(r, q));
+        if (!inside.empty()) s += " (" + inside + ")";
+    }
+    if (!w.effect.empty()) s += (w.estimate.empty() ? "; " : ", ") + w.effect + " = " + format_number(number_of(r, "effect"));
+    if (!w.extra.empty()) {
+        const CellValue* v = r.find(w.extra_quantity);
+        std::string value = "undefined";
+        if (const double* x = v ? std::get_if<double>(v) : nullptr) value = format_number(*x);
+        if (const std::string* text = v ? std::get_if<std::string>(v) : nullptr) value = *text;
+        s += "; " + w.extra + " " + value;
+    }
+    return s;
+}
+
+std::string render_suggestion(const Advice& a) {
+    std::string s = "Suggested: " + a.function;
+    if (!a.method.empty()) s += ", method '" + a.method + "'";
+    if (a.transform != "none" && !a.transform.empty()) s += ", transform '" + a.transform + "'";
+    if (!a.posthoc.empty()) s += ", then COMPARE.POSTHOC with '" + a.posthoc + "'";
+    return s + ".";
+}
+
+std::string render_advice(const Advice& a) {
+    std::string s = render_suggestion(a) + " Why: ";
+    for (std::size_t i = 0; i < a.steps.size(); ++i) {
+        if (i) s += "; ";
+        s += a.steps[i].found + ", so " + a.steps[i].decision;
+    }
+    return s + ". A guide, not a verdict: check it against the study design.";
 }
 
 }  // namespace quadrat

@@ -5,7 +5,11 @@
 
 #include <string>
 
+#include "result.hpp"
+
 namespace quadrat {
+
+struct Advice;
 
 // "p = 0.034", "p = 0.002", "p < 0.001".
 std::string format_p(double p);
@@ -15,5 +19,16 @@ std::string format_number(double x);
 std::string format_df(double df);
 // "95%" from 0.95; "99.9%" from 0.999.
 std::string format_level(double level);
+
+// The one place where report sentences are built: the result's test name, its named numbers and
+// the words of ReportWords, in the form of the catalogue's illustration
+// ("Welch's t-test (two groups): t(37.4) = 3.41, p = 0.002; mean difference 0.12 (95% CI 0.05 to
+// 0.19), Hedges' g = 0.82"). No statistics file builds or edits a sentence.
+std::string render_report(const TestResult& result);
+
+// ADVISE.TEST's paragraph: the suggestion, then each step's finding and decision, then the caution.
+std::string render_advice(const Advice& advice);
+// The suggestion alone ("Suggested: COMPARE.GROUPS, method 'welch'."), also the advice table's last row.
+std::string render_suggestion(const Advice& advice);
 
 }  // namespace quadrat

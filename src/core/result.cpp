@@ -5,6 +5,7 @@
 
 #include "keywords.hpp"
 #include "refusal.hpp"
+#include "report.hpp"
 
 namespace quadrat {
 
@@ -20,6 +21,8 @@ TestResult& TestResult::add(std::string label, std::string text) {
 
 const CellValue* TestResult::find(const std::string& label) const {
     for (const auto& q : quantities)
+        if (q.label == label) return &q.value;
+    for (const auto& q : unlisted)
         if (q.label == label) return &q.value;
     return nullptr;
 }
@@ -43,8 +46,8 @@ Table select_output(const TestResult& result, const std::string& output, const s
     const std::string key = match_keyword(output, allowed, "output");
     if (key == "table") return result.table();
     if (key == "report") {
-        if (result.report.empty()) throw Refusal("output 'report' is not available for " + result.test);
-        return single(result.report);
+        if (!result.words.shown) throw Refusal("output 'report' is not available for " + result.test);
+        return single(render_report(result));
     }
     const CellValue* v = result.find(key);
     if (!v) throw Refusal("output '" + key + "' is not available for " + result.test);

@@ -87,7 +87,7 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
     const EffectWithInterval g = hedges_g(first, second, level);
 
     TestResult r;
-    r.test = pooled ? "Student's two-sample t-test (pooled variance)" : "Welch two-sample t-test";
+    r.test = pooled ? "Student's t-test (two groups, pooled variance)" : "Welch's t-test (two groups)";
     r.add("statistic", t)
         .add("df", df)
         .add("p", two_sided_t_p(t, df))
@@ -98,6 +98,10 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
         .add("effect", g.value)
         .add("effect ci-low", g.low)
         .add("effect ci-high", g.high);
+    r.words.statistic_symbol = "t";
+    r.words.statistic_df = true;
+    r.words.estimate = "mean difference";
+    r.words.effect = "Hedges' g";
     return r;
 }
 
@@ -235,6 +239,10 @@ TestResult rank_sum_test(std::span<const double> first, std::span<const double> 
         r.add("ci-low", text).add("ci-high", text);
     }
     r.add("effect", 2 * u1 / pairs - 1);
+    r.words.statistic_form = ReportWords::Statistic::whole;
+    r.words.statistic_symbol = "U";
+    r.words.estimate = "Hodges–Lehmann shift";
+    r.words.effect = "rank-biserial r";
     return r;
 }
 

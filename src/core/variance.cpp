@@ -13,7 +13,6 @@
 #include "keywords.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
-#include "report.hpp"
 #include "summary.hpp"
 
 namespace quadrat {
@@ -159,17 +158,17 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
     };
 
     TestResult r;
-    std::string symbol_and_df;
+    std::string symbol;
     double statistic = 0, p = 0;
     if (m == "brown-forsythe" || m == "levene") {
         const bool from_median = m == "brown-forsythe";
         const AnovaF a = deviation_anova(rescaled_groups(groups), from_median, m);
-        r.test = from_median ? "Brown–Forsythe test of equal variances (deviations from group medians)"
-                             : "Levene test of equal variances (deviations from group means)";
+        r.test = from_median ? "Brown–Forsythe test (deviations from group medians)"
+                             : "Levene's test (deviations from group means)";
         statistic = a.f;
         p = upper_f(a.f, a.df1, a.df2);
         r.add("statistic", statistic).add("df", a.df1).add("df2", a.df2);
-        symbol_and_df = "F(" + format_df(a.df1) + ", " + format_df(a.df2) + ")";
+        symbol = "F";
     } else if (m == "bartlett") {
         zero_spread("bartlett (which takes logarithms of the variances) is undefined; try brown-forsythe");
         // Bartlett (1937): T = [(N − k) ln s²p − Σ(nᵢ − 1) ln s²ᵢ] / C, C = 1 + (Σ 1/(nᵢ − 1) − 1/(N − k)) / (3(k − 1)),
@@ -189,9 +188,9 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
         const double c = 1 + (reciprocals.sum() - 1 / (n - kk)) / (3 * (kk - 1));
         statistic = std::max(0.0, ((n - kk) * log_pooled - log_terms.sum()) / c);
         p = upper_chi_squared(statistic, kk - 1);
-        r.test = "Bartlett test of equal variances";
+        r.test = "Bartlett's test";
         r.add("statistic", statistic).add("df", kk - 1);
-        symbol_and_df = "χ²(" + format_df(kk - 1) + ")";
+        symbol = "χ²";
     } else if (m == "fligner") {
         // Conover, Johnson & Johnson (1981): scores aᵢⱼ = Φ⁻¹(1/2 + rᵢⱼ/(2(N + 1))) of the mid-ranks of
         // |x − group median| over all N values; X² = Σ nᵢ(āᵢ − ā)² / V², V² the variance of all scores.
@@ -219,9 +218,9 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
         const double kk = static_cast<double>(k);
         statistic = between.sum() / score_variance;
         p = upper_chi_squared(statistic, kk - 1);
-        r.test = "Fligner–Killeen test of equal variances (median-centred)";
+        r.test = "Fligner–Killeen test (median-centred)";
         r.add("statistic", statistic).add("df", kk - 1);
-        symbol_and_df = "χ²(" + format_df(kk - 1) + ")";
+        symbol = "χ²";
     } else {  // f-ratio
         zero_spread("the variance ratio is undefined");
         const double df1 = static_cast<double>(groups.values[0].size()) - 1;
@@ -232,9 +231,9 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
         const boost::math::fisher_f f(df1, df2);
         // Two-sided: twice the smaller tail, at most 1.
         p = std::min(1.0, 2 * std::min(boost::math::cdf(f, statistic), boost::math::cdf(boost::math::complement(f, statistic))));
-        r.test = "F-test of equal variances (two-sided; first group over second)";
+        r.test = "F-test of two variances (two-sided; first group over second)";
         r.add("statistic", statistic).add("df", df1).add("df2", df2);
-        symbol_and_df = "F(" + format_df(df1) + ", " + format_df(df2) + ")";
+        symbol = "F";
     }
     r.add("p", p);
     r.add("n", static_cast<double>(groups.n_used));
@@ -257,8 +256,12 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
         r.add("variance ratio", std::string("undefined: group " + quoted(groups.names[smallest - log_variances.begin()]) +
                                             " has zero variance"));
     // n after p, as in CHECK.NORMAL's sentence: χ² df (Bartlett, Fligner) do not show it.
-    r.report = r.test + ": " + symbol_and_df + " = " + format_number(statistic) + ", " + format_p(p) +
-               ", n = " + std::to_string(groups.n_used) + "; largest variance over smallest " + (*smallest > -HUGE_VAL ? format_number(ratio) : std::string("undefined"));
+    r.words.shown = true;
+    r.words.statistic_symbol = symbol;
+    r.words.statistic_df = true;
+    r.words.n_after_p = true;
+    r.words.extra = "largest variance over smallest";
+    r.words.extra_quantity = "variance ratio";
     return r;
 }
 

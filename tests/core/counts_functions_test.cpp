@@ -51,11 +51,11 @@ TEST(CompareCountsFunction, BlockWithNamesAndMethod) {
               "output 'statistic' is not available for Fisher's exact test");
     const Table table = call("compareCounts", {tea, omitted, omitted, keyword("table")});
     ASSERT_EQ(table.size(), 10u);
-    EXPECT_EQ(std::get<std::string>(table[1][1]), "Pearson's chi-square test of association");
+    EXPECT_EQ(std::get<std::string>(table[1][1]), "Pearson's chi-square test");
     EXPECT_EQ(std::get<std::string>(table[8][0]), "smallest expected count");
     EXPECT_EQ(std::get<double>(table[9][1]), 4.0);  // all four expected counts are 2
     EXPECT_EQ(text_of(call("compareCounts", {tea, omitted, omitted, keyword("report")})),
-              "Pearson's chi-square test of association: χ²(1) = 2.00, p = 0.157, n = 8; φ = 0.50");
+              "Pearson's chi-square test: χ²(1) = 2.00, p = 0.157, n = 8; φ = 0.50");
     EXPECT_EQ(text_of(call("compareCounts", {tea, omitted, keyword("exact"), omitted})),
               "unknown method 'exact'; valid: chi-square, yates, g, fisher");
 }
@@ -93,7 +93,10 @@ TEST(FitLogisticFunction, CoefficientsModelAndRefusals) {
     const Table coefficients = call("fitLogistic", {y, depth, omitted, omitted});
     ASSERT_EQ(coefficients.size(), 3u);
     ASSERT_EQ(coefficients[0].size(), 8u);
-    EXPECT_EQ(std::get<std::string>(coefficients[0][6]), "OR ci-low");
+    // FUNCTIONS.md, FIT.LOGISTIC: variable, coefficient, SE, z, p, odds ratio, ci-low, ci-high.
+    const std::vector<std::string> header = {"variable", "coefficient", "SE", "z", "p", "odds ratio", "ci-low", "ci-high"};
+    for (std::size_t c = 0; c < header.size(); ++c) EXPECT_EQ(std::get<std::string>(coefficients[0][c]), header[c]);
+    EXPECT_TRUE(std::holds_alternative<std::monostate>(coefficients[1][5]));  // no intercept odds ratio
     EXPECT_EQ(std::get<std::string>(coefficients[1][0]), "intercept");
     EXPECT_EQ(std::get<std::string>(coefficients[2][0]), "depth");
     // Common practice, no source: the odds ratio is e^estimate; tolerance 1e-12 relative.

@@ -36,22 +36,41 @@ TEST(DescribeGroups, MatchesNumPyAndMpmath) {
             // Closed forms on a few values: agreement to 1e-12 relative (rounding only).
             EXPECT_EQ(number_at(table, i + 1, 1), r["n"].get<double>());
             expect_relative(number_at(table, i + 1, 2), r["centre"], 1e-12, what + " centre");
-            expect_relative(number_at(table, i + 1, 7), r["median"], 1e-12, what + " median");
+            // Columns (FUNCTIONS.md): group, n, mean, ci-low, ci-high, SD, SE, CV %, minimum, q1, median, q3, maximum.
             expect_relative(number_at(table, i + 1, 8), r["minimum"], 0, what + " minimum");
-            expect_relative(number_at(table, i + 1, 9), r["maximum"], 0, what + " maximum");
+            // Quartiles as QUARTILE.INC (numpy.percentile, method "linear"): 1e-12 relative, rounding only.
+            expect_relative(number_at(table, i + 1, 9), r["q1"], 1e-12, what + " q1");
+            expect_relative(number_at(table, i + 1, 10), r["median"], 1e-12, what + " median");
+            expect_relative(number_at(table, i + 1, 11), r["q3"], 1e-12, what + " q3");
+            expect_relative(number_at(table, i + 1, 12), r["maximum"], 0, what + " maximum");
             if (r.contains("sd")) {
-                expect_relative(number_at(table, i + 1, 3), r["sd"], 1e-12, what + " SD");
-                expect_relative(number_at(table, i + 1, 4), r["se"], 1e-12, what + " SE");
+                expect_relative(number_at(table, i + 1, 5), r["sd"], 1e-12, what + " SD");
+                expect_relative(number_at(table, i + 1, 6), r["se"], 1e-12, what + " SE");
+                expect_relative(number_at(table, i + 1, 7), r["cv"], 1e-12, what + " CV %");
                 // Student t quantile from Boost.Math against mpmath at 40 digits: rounding only, 1e-12.
-                expect_relative(number_at(table, i + 1, 5), r["ci_low"], 1e-12, what + " ci-low");
-                expect_relative(number_at(table, i + 1, 6), r["ci_high"], 1e-12, what + " ci-high");
+                expect_relative(number_at(table, i + 1, 3), r["ci_low"], 1e-12, what + " ci-low");
+                expect_relative(number_at(table, i + 1, 4), r["ci_high"], 1e-12, what + " ci-high");
             } else {
                 // A single value has no SD: the cells are blank, not 0 and not an error.
-                EXPECT_TRUE(std::holds_alternative<std::monostate>(table[i + 1][3])) << what;
-                EXPECT_TRUE(std::holds_alternative<std::monostate>(table[i + 1][5])) << what;
+                for (std::size_t col : {3, 4, 5, 6, 7}) EXPECT_TRUE(std::holds_alternative<std::monostate>(table[i + 1][col])) << what;
             }
         }
     }
+}
+
+TEST(DescribeGroups, HeaderFollowsTheCatalogue) {
+    Groups g;
+    g.names = {"a"};
+    g.values = {{1, 2, 4}};
+    g.n_used = 3;
+    const std::vector<std::string> header = {"group",   "n",  "mean",   "ci-low", "ci-high", "SD",     "SE",
+                                             "CV %",    "minimum", "q1", "median", "q3",     "maximum"};
+    const Table t = describe_groups(g, Transform::none, 0.95);
+    ASSERT_EQ(t[0].size(), header.size());
+    for (std::size_t c = 0; c < header.size(); ++c) EXPECT_EQ(std::get<std::string>(t[0][c]), header[c]);
+    // QUARTILE.INC by hand: positions 0.5 and 1.5 of (1, 2, 4) → 1.5 and 3.
+    EXPECT_DOUBLE_EQ(std::get<double>(t[1][9]), 1.5);
+    EXPECT_DOUBLE_EQ(std::get<double>(t[1][11]), 3.0);
 }
 
 TEST(DescribeGroups, HeaderNamesTheGeometricMeanUnderLog) {

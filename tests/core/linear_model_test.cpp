@@ -76,14 +76,16 @@ TEST(LinearModel, OutputsFollowTheCatalogue) {
     const Table coefficients = linear_output(m, 2, "coefficients", 0.95);
     ASSERT_EQ(coefficients.size(), 4u);
     ASSERT_EQ(coefficients[0].size(), 8u);
-    EXPECT_EQ(std::get<std::string>(coefficients[0][2]), "std. error");
+    // FUNCTIONS.md, FIT.LINEAR: variable | coefficient | SE | t | p | ci-low | ci-high | VIF.
+    const std::vector<std::string> header = {"variable", "coefficient", "SE", "t", "p", "ci-low", "ci-high", "VIF"};
+    for (std::size_t c = 0; c < header.size(); ++c) EXPECT_EQ(std::get<std::string>(coefficients[0][c]), header[c]);
     EXPECT_EQ(std::get<std::string>(coefficients[1][0]), "intercept");
     EXPECT_EQ(std::get<std::string>(coefficients[2][0]), "flow");
     EXPECT_TRUE(std::holds_alternative<std::monostate>(coefficients[1][7]));  // no VIF for the intercept
 
     const Table model = linear_output(m, 2, "model", 0.95);
-    const std::vector<std::string> labels = {"quantity", "model", "r2",   "adj-r2", "statistic", "df", "df2",
-                                             "p",        "sigma", "aic", "bic",    "n",         "n dropped"};
+    const std::vector<std::string> labels = {"quantity", "model", "r-squared", "r-squared-adjusted", "statistic", "df",
+                                             "df2",      "p",     "residual-sd", "aic", "bic",       "n",  "n dropped"};
     ASSERT_EQ(model.size(), labels.size());
     for (std::size_t i = 0; i < labels.size(); ++i) EXPECT_EQ(std::get<std::string>(model[i][0]), labels[i]);
     EXPECT_EQ(std::get<double>(model[12][1]), 2.0);

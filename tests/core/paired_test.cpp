@@ -8,6 +8,7 @@
 
 #include "core/paired.hpp"
 #include "core/refusal.hpp"
+#include "core/report.hpp"
 #include "reference.hpp"
 
 using namespace quadrat::test_support;
@@ -108,15 +109,15 @@ TEST(Paired, ZerosDroppedAndTable) {
     EXPECT_EQ(r.number("zero differences"), 2);
     EXPECT_EQ(r.number("n dropped"), 2);
     ASSERT_NE(r.find("before: median"), nullptr);
-    EXPECT_EQ(r.report.rfind("Wilcoxon signed-rank test (", 0), 0u) << r.report;
-    EXPECT_NE(r.report.find("(before − after; "), std::string::npos) << r.report;
+    EXPECT_EQ(render_report(r).rfind("Wilcoxon signed-rank test (", 0), 0u) << render_report(r);
+    EXPECT_NE(render_report(r).find("(before − after; "), std::string::npos) << render_report(r);
     const TestResult t = compare_paired(s, "t", Transform::none);
-    EXPECT_EQ(t.report.rfind("Paired t-test: t(6) = ", 0), 0u) << t.report;
-    EXPECT_NE(t.report.find("Cohen's d = "), std::string::npos) << t.report;
+    EXPECT_EQ(render_report(t).rfind("Paired t-test: t(6) = ", 0), 0u) << render_report(t);
+    EXPECT_NE(render_report(t).find("Cohen's d = "), std::string::npos) << render_report(t);
     const TestResult sign = compare_paired(s, "sign", Transform::none);
     // 5 of 5 positive: exact two-sided p = 2·(1/2)⁵ = 0.0625 (by hand).
     EXPECT_NEAR(sign.number("p"), 0.0625, 1e-15);
-    EXPECT_NE(sign.report.find("5 of 5 differences positive"), std::string::npos) << sign.report;
+    EXPECT_NE(render_report(sign).find("5 of 5 differences positive"), std::string::npos) << render_report(sign);
 }
 
 // One sample against a number, with log: the estimate is the geometric mean over the number
@@ -129,7 +130,7 @@ TEST(Paired, OneSampleAndLog) {
     const TestResult r = compare_paired(s, "t", Transform::log);
     EXPECT_NEAR(r.number("estimate"), 2.0, 1e-12);
     EXPECT_EQ(r.test, "One-sample t-test");
-    EXPECT_NE(r.report.find("ratio of geometric means 2.00 (first ÷ 2; "), std::string::npos) << r.report;
+    EXPECT_NE(render_report(r).find("ratio of geometric means 2.00 (first ÷ 2; "), std::string::npos) << render_report(r);
     s.reference_value = 0;
     EXPECT_THROW(compare_paired(s, "t", Transform::log), Refusal);
 }

@@ -10,6 +10,7 @@
 #include "core/oneway.hpp"
 #include "core/ranks.hpp"
 #include "core/refusal.hpp"
+#include "core/report.hpp"
 #include "core/two_groups.hpp"
 #include "reference.hpp"
 
@@ -86,7 +87,7 @@ TEST(TwoGroups, TransformsBackToRatioOrStayOnScale) {
     expect_relative(sq.number("estimate"), c["welch_sqrt"]["estimate"].get<double>(), 1e-10, "sqrt estimate", 1.0);
     ASSERT_NE(sq.find("transform"), nullptr);
     EXPECT_NE(std::get<std::string>(*sq.find("transform")).find("sqrt scale"), std::string::npos);
-    EXPECT_NE(log.report.find("ratio of geometric means"), std::string::npos) << log.report;
+    EXPECT_NE(render_report(log).find("ratio of geometric means"), std::string::npos) << render_report(log);
 }
 
 // Table layout (FUNCTIONS.md "Scalars and tables"): header, test, then the quantities, n dropped
@@ -101,12 +102,12 @@ TEST(TwoGroups, TableAndReport) {
                                              "upstream: mean", "downstream: n", "downstream: mean"};
     ASSERT_EQ(t.size(), labels.size());
     for (std::size_t i = 0; i < labels.size(); ++i) EXPECT_EQ(std::get<std::string>(t[i][0]), labels[i]);
-    EXPECT_EQ(std::get<std::string>(t[1][1]), "Welch two-sample t-test");
+    EXPECT_EQ(std::get<std::string>(t[1][1]), "Welch's t-test (two groups)");
     EXPECT_EQ(r.number("n dropped"), 3);
     EXPECT_EQ(r.number("upstream: n"), 12);
     // Report in the catalogue's form; values from the scipy reference above, rounded by hand.
-    EXPECT_EQ(r.report,
-              "Welch two-sample t-test: t(26.4) = 1.85, p = 0.075; mean difference 0.29 (upstream − downstream; "
+    EXPECT_EQ(render_report(r),
+              "Welch's t-test (two groups): t(26.4) = 1.85, p = 0.075; mean difference 0.29 (upstream − downstream; "
               "95% CI -0.0319 to 0.62), Hedges' g = 0.62");
 }
 

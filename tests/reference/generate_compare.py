@@ -201,15 +201,15 @@ def k_reference(groups):
     omega = (ssb - (k - 1) * msw) / (ssb + ssw + msw)
     lam_lo, lam_hi = f_effect_interval(float(classic.statistic), k - 1, N - k)
     omega_ci = {"effect ci-low": lam_lo / (lam_lo + N), "effect ci-high": lam_hi / (lam_hi + N)}
-    means = [g.mean() for g in arrays]
-    medians = [float(np.median(g)) for g in arrays]
+    # No estimate for 3 or more groups: COMPARE.GROUPS refuses one (a difference picked by the data
+    # has no honest interval; FUNCTIONS.md, revision 2).
     return {
         "classic": {"statistic": float(classic.statistic), "p": float(classic.pvalue), "df": k - 1,
-                    "df2": N - k, "estimate": max(means) - min(means), "effect": omega, **omega_ci},
+                    "df2": N - k, "effect": omega, **omega_ci},
         "welch": {"statistic": float(welch.statistic), "p": float(welch.pvalue), "df": float(welch.df[0]),
-                  "df2": float(welch.df[1]), "estimate": max(means) - min(means), "effect": omega, **omega_ci},
+                  "df2": float(welch.df[1]), "effect": omega, **omega_ci},
         "ranks": {"statistic": float(kw.statistic), "p": float(kw.pvalue), "df": k - 1,
-                  "estimate": max(medians) - min(medians), "effect": float(kw.statistic) / (N - 1)},
+                  "effect": float(kw.statistic) / (N - 1)},
     }
 
 

@@ -2,7 +2,10 @@
 """Reference values for DESCRIBE.GROUPS, computed with Debian's NumPy and mpmath (see t_quantile).
 
 Run from the repository root:  /usr/bin/python3 tests/reference/generate_describe.py
-Writes tests/reference/describe.json. The data are invented (dissolved oxygen in mg/L at three
+Writes tests/reference/describe.json. Quartiles: numpy.percentile(method="linear"), Hyndman & Fan's
+type 7 — position (n − 1)p, linear interpolation —, which is how LibreOffice Calc's QUARTILE.INC
+and PERCENTILE.INC are defined (Calc's help; the office test workbook checks them against the
+sheet's own QUARTILE.INC). CV % = 100 · SD / |mean| on the data's scale. The data are invented (dissolved oxygen in mg/L at three
 reaches of an imaginary stream) so the fixture can be regenerated and read by anyone.
 """
 import json
@@ -48,11 +51,13 @@ def summary(values, level, transform):
     }[transform]
     y = f(x)
     row = {"n": n, "centre": float(back(y.mean())), "median": float(np.median(x)),
+           "q1": float(np.percentile(x, 25, method="linear")), "q3": float(np.percentile(x, 75, method="linear")),
            "minimum": float(x.min()), "maximum": float(x.max())}
     if n >= 2:
         sd = float(x.std(ddof=1))
         row["sd"] = sd
         row["se"] = sd / np.sqrt(n)
+        row["cv"] = 100 * sd / abs(x.mean())
         se_y = y.std(ddof=1) / np.sqrt(n)
         t = t_quantile(0.5 + level / 2.0, n - 1)
         row["ci_low"] = float(back(y.mean() - t * se_y))
