@@ -303,7 +303,8 @@ TestResult compare_blocks(const BlockReadings& readings, const std::string& meth
         insert_after(r, "n dropped", {"blocks used", static_cast<double>(l.block_count())});
         insert_after(r, "blocks used", {"blocks dropped", static_cast<double>(l.blocks_dropped)});
         insert_after(r, "blocks dropped", {"readings averaged", static_cast<double>(l.readings_averaged)});
-        r.report += " (pairs matched by block: " + design_clause(l) + ")";
+        r.words.title = r.test.substr(0, r.test.find(", pairs matched by block"));
+        r.words.closing = "pairs matched by block: " + design_clause(l);
         return r;
     }
     r = method == "pooled" ? randomized_block_anova(l) : friedman_test(l);
@@ -314,15 +315,12 @@ TestResult compare_blocks(const BlockReadings& readings, const std::string& meth
     auto at = std::find_if(r.quantities.begin(), r.quantities.end(), [](const Quantity& q) { return q.label == "effect"; });
     r.quantities.insert(at + 1, design.quantities.begin(), design.quantities.end());
 
-    // The report sentence.
-    std::string s = r.test.substr(0, r.test.find(" (")) + ": ";
-    if (method == "pooled")
-        s += "F(" + format_df(r.number("df")) + ", " + format_df(r.number("df2")) + ") = " + format_number(r.number("statistic")) +
-             ", " + format_p(r.number("p")) + "; partial η² = " + format_number(r.number("effect"));
-    else
-        s += "χ²(" + format_df(r.number("df")) + ") = " + format_number(r.number("statistic")) + ", " +
-             format_p(r.number("p")) + "; Kendall's W = " + format_number(r.number("effect"));
-    r.report = s + " (" + std::to_string(l.group_count()) + " groups; " + design_clause(l) + ")";
+    r.words.shown = true;
+    r.words.title = r.test.substr(0, r.test.find(" ("));
+    r.words.statistic_symbol = method == "pooled" ? "F" : "χ²";
+    r.words.statistic_df = true;
+    r.words.effect = method == "pooled" ? "partial η²" : "Kendall's W";
+    r.words.closing = std::to_string(l.group_count()) + " groups; " + design_clause(l);
     mark_non_finite(r);
     return r;
 }

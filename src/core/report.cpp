@@ -91,7 +91,8 @@ std::string statistic_words(const TestResult& r, const ReportWords& w) {
 
 std::string render_report(const TestResult& r) {
     const ReportWords& w = r.words;
-    std::string s = r.test + ": ";
+    if (!w.shown) return r.report;
+    std::string s = (w.title.empty() ? r.test : w.title) + ": ";
     std::string part;  // the comma-separated run before the first semicolon
     const auto then = [&part](const std::string& piece) {
         if (piece.empty()) return;
@@ -132,6 +133,7 @@ std::string render_report(const TestResult& r) {
         if (const std::string* text = v ? std::get_if<std::string>(v) : nullptr) value = *text;
         s += "; " + w.extra + " " + value;
     }
+    if (!w.closing.empty()) s += " (" + w.closing + ")";
     return s;
 }
 

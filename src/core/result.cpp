@@ -46,7 +46,8 @@ Table select_output(const TestResult& result, const std::string& output, const s
     const std::string key = match_keyword(output, allowed, "output");
     if (key == "table") return result.table();
     if (key == "report") {
-        if (!result.words.shown) throw Refusal("output 'report' is not available for " + result.test);
+        if (!result.words.shown && result.report.empty())
+            throw Refusal("output 'report' is not available for " + result.test);
         return single(render_report(result));
     }
     const CellValue* v = result.find(key);

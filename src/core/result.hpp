@@ -37,6 +37,8 @@ struct ReportWords {
     std::string effect;            // "Hedges' g", "ω²", "φ"; empty: none
     std::string extra, extra_quantity;  // "largest variance over smallest", "variance ratio"
     std::string note;              // in place of the statistic part when the numbers are not defined
+    std::string closing;           // design words in parentheses at the end: "(4 groups; 4 blocks used)"
+    std::string title;             // the sentence's title when it is shorter than the test's name
     double level = 0.95;
 };
 
@@ -45,6 +47,9 @@ struct TestResult {
     std::vector<Quantity> quantities;  // in table order
     std::vector<Quantity> unlisted;    // named numbers the sentence uses that the table does not list
     ReportWords words;                 // the report sentence's words
+    // A whole sentence built by a family that is not yet on ReportWords (COMPARE.NESTED,
+    // *.CENSORED, LIMIT.*, CHECK.OUTLIERS); render_report uses it only when `words` is not shown.
+    std::string report;
 
     TestResult& add(std::string label, double value);
     TestResult& add(std::string label, std::string text);

@@ -100,7 +100,7 @@ TEST(Blocks, MontgomeryHardnessTesting) {
     // Partial η² by hand: 0.385/(0.385 + 0.080) = 0.82796.
     EXPECT_NEAR(r.number("effect"), 0.385 / 0.465, 1e-12);
     EXPECT_NEAR(r.number("tip 4: mean"), 9.875, 1e-12);
-    EXPECT_EQ(r.report, "Randomized complete block ANOVA: F(3, 9) = 14.44, p < 0.001; partial η² = 0.83 (4 groups; 4 blocks used)");
+    EXPECT_EQ(render_report(r), "Randomized complete block ANOVA: F(3, 9) = 14.44, p < 0.001; partial η² = 0.83 (4 groups; 4 blocks used)");
 }
 
 // Conover, Practical Nonparametric Statistics (3rd ed., 1999), section 5.8: twelve homeowners rank
@@ -122,7 +122,7 @@ TEST(Blocks, ConoverGrassFriedman) {
     // scipy.stats.friedmanchisquare 1.10 (tie-corrected) and scipy.stats.f for the Iman–Davenport p
     // (generate_blocks.py); W = χ²/(b(k − 1)). Tolerance 1e-12 relative.
     expect_quantities(r, c["ranks"], {"statistic", "p", "effect", "Iman–Davenport F", "Iman–Davenport p"}, 1e-12);
-    EXPECT_EQ(r.report, "Friedman test: χ²(3) = 8.10, p = 0.044; Kendall's W = 0.22 (4 groups; 12 blocks used)");
+    EXPECT_EQ(render_report(r), "Friedman test: χ²(3) = 8.10, p = 0.044; Kendall's W = 0.22 (4 groups; 12 blocks used)");
 }
 
 // Conover (1999), section 5.8, eq. 8, computed in generate_blocks.py from the formula (ranks from
@@ -196,7 +196,7 @@ TEST(Blocks, SubsamplesAreAveraged) {
     EXPECT_NEAR(a.number("statistic"), b.number("statistic"), 1e-12 * a.number("statistic"));
     EXPECT_EQ(b.number("n"), 10);
     EXPECT_EQ(b.number("readings averaged"), 2);
-    EXPECT_NE(b.report.find("2 readings averaged within their cells"), std::string::npos);
+    EXPECT_NE(render_report(b).find("2 readings averaged within their cells"), std::string::npos);
     // A block missing a group is dropped whole (and only counted): adding block w without c changes nothing.
     Sheet three = one;
     for (auto [v, g] : {std::pair{14.0, "a"}, std::pair{22.0, "b"}}) {
@@ -236,7 +236,7 @@ TEST(Blocks, TwoGroupsAreCompareBlocksOfPairs) {
         EXPECT_EQ(r.number("blocks dropped"), 1);
         EXPECT_EQ(r.number("readings averaged"), 3);
         EXPECT_EQ(r.test, p.test + ", pairs matched by block");
-        EXPECT_EQ(r.report, p.report + " (pairs matched by block: 13 blocks used, 1 dropped for a missing group, 3 readings averaged within their cells)");
+        EXPECT_EQ(render_report(r), render_report(p) + " (pairs matched by block: 13 blocks used, 1 dropped for a missing group, 3 readings averaged within their cells)");
         // The one pair is the same test.
         const PosthocResult pairs = compare_blocks_pairs(s.readings(), method, std::nullopt);
         ASSERT_EQ(pairs.pairs.size(), 1u);
