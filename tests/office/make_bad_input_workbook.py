@@ -382,8 +382,7 @@ case(N, "whole column", "values", "ROWS(%s([$data.B:.B]))" % N, "=ROWS([$data.B1
 N = "CHECK.MODEL"
 NO_ROWS = "needs more complete rows than terms: found %d rows for 2 terms; add rows or remove predictors"
 NO_ROWS_ONE = "needs more complete rows than terms: found 1 row for 2 terms; add rows or remove predictors"
-SRC_DW = SRC_GEN % ("Durbin-Watson from numpy lstsq residuals", "1e-9 relative")
-DW = "INDEX(%s(%%s;%%s);4;2)" % N   # the independence row's statistic
+RULE = "INDEX(%s(%%s;%%s);4;4)" % N   # the independence row's rule
 for kind in NO_NUMBERS:
     refusal(N, kind, "y", "%s(%s;%s)" % (N, VALUE_KINDS[kind], P), NO_ROWS % 0)
 refusal(N, "error cell #DIV/0!", "y", "%s(%s;%s)" % (N, col("E"), P), E4)
@@ -396,8 +395,11 @@ for kind, c, largest in (("sum overflows", "H", "1.63e+308"), ("+-1e308", "I", "
     case(N, kind, "y", "%s(%s;%s)" % (N, col(c), P),
          "y holds numbers too %s to fit (largest %s); rescale y, e.g. into other units" % (
              "small" if "e-" in largest else "large", largest), None, SRC_SCALE_REFUSAL)
-case(N, "logicals", "y", DW % (col("K"), P), REF["durbin-watson, logicals on distance"], 1e-9,
-     "logicals are 1/0; " + SRC_DW)
+# Without `order` the independence row has no statistic (FUNCTIONS.md), so these read cases check
+# that the fit goes through by the row's rule text; Durbin–Watson in order is checked in the core tests.
+NO_ORDER = ("no verdict: rows in no particular order cannot be judged; give order (dates, times or distances) "
+            "for Durbin–Watson")
+case(N, "logicals", "y", RULE % (col("K"), P), NO_ORDER, None, "logicals are 1/0; FUNCTIONS.md, CHECK.REGRESSION")
 refusal(N, "all cells blank", "xs", "%s(%s;%s)" % (N, V, col("C")), NO_ROWS % 0)
 refusal(N, "all text", "xs", "%s(%s;%s)" % (N, V, col("D")), NO_ROWS % 0)
 refusal(N, "error cell #DIV/0!", "xs", "%s(%s;%s)" % (N, V, col("E")), E4)
@@ -409,9 +411,9 @@ refusal(N, "collinear predictors", "xs", "%s(%s;[$data.P2:.Q13])" % (N, V),
         "x2 is a linear combination of x1 and the intercept (collinear predictors); remove one of them")
 refusal(N, "mismatched lengths", "xs", "%s(%s;[$data.P2:.P10])" % (N, V), MISMATCH % ("y", "xs"))
 refusal(N, "n = 2 complete rows", "y", "%s([$few.B1:.B3];[$few.A1:.A3])" % N, NO_ROWS % 2)
-case(N, "whole columns", "y", DW % ("[$data.B:.B]", "[$data.P:.P]"), REF["durbin-watson, depth on distance"], 1e-9, SRC_DW)
+case(N, "whole columns", "y", RULE % ("[$data.B:.B]", "[$data.P:.P]"), NO_ORDER, None, "FUNCTIONS.md, CHECK.REGRESSION")
 keyword_cases(N, [V, P], "output",
-              "table, normality, variance, independence, linearity, collinearity, influence, outliers")
+              "table, normality, spread, independence, linearity, collinearity, influence, outliers")
 
 # ================================== COMPARE.GROUPS(values; groups; [method]; [output]; [transform])
 N = "COMPARE.GROUPS"
@@ -668,33 +670,33 @@ X_CONSTANT = ("x1 is constant (every used row holds 4.00); a constant predictor 
               "intercept")
 COLLINEAR = "x2 is a linear combination of x1 and the intercept (collinear predictors); remove one of them"
 for kind in NO_NUMBERS:
-    refusal(N, kind, "y", '%s(%s;%s;"r2")' % (N, VALUE_KINDS[kind], P), NO_ROWS % 0)
-refusal(N, "error cell #DIV/0!", "y", '%s(%s;%s;"r2")' % (N, col("E"), P), E4)
-refusal(N, "error cell #N/A", "y", '%s(%s;%s;"r2")' % (N, col("F"), P), F9)
-refusal(N, "zero spread", "y", '%s(%s;%s;"r2")' % (N, col("G"), P), Y_CONSTANT)
+    refusal(N, kind, "y", '%s(%s;%s;"r-squared")' % (N, VALUE_KINDS[kind], P), NO_ROWS % 0)
+refusal(N, "error cell #DIV/0!", "y", '%s(%s;%s;"r-squared")' % (N, col("E"), P), E4)
+refusal(N, "error cell #N/A", "y", '%s(%s;%s;"r-squared")' % (N, col("F"), P), F9)
+refusal(N, "zero spread", "y", '%s(%s;%s;"r-squared")' % (N, col("G"), P), Y_CONSTANT)
 for kind, c, largest in (("sum overflows", "H", "1.63e+308"), ("+-1e308", "I", "1e+308"), ("denormal", "J", "1.81e-310")):
-    case(N, kind, "y", '%s(%s;%s;"r2")' % (N, col(c), P),
+    case(N, kind, "y", '%s(%s;%s;"r-squared")' % (N, col(c), P),
          "y holds numbers too %s to fit (largest %s); rescale y, e.g. into other units" % (
              "small" if "e-" in largest else "large", largest), None, SRC_SCALE_REFUSAL)
-case(N, "logicals", "y", '%s(%s;%s;"r2")' % (N, col("K"), P), "=RSQ(%s;%s)" % (col("K"), P), 1e-9,
+case(N, "logicals", "y", '%s(%s;%s;"r-squared")' % (N, col("K"), P), "=RSQ(%s;%s)" % (col("K"), P), 1e-9,
      "logicals are 1/0; " + SRC_RSQ)
-refusal(N, "all cells blank", "xs", '%s(%s;%s;"r2")' % (N, V, col("C")), NO_ROWS % 0)
-refusal(N, "all text", "xs", '%s(%s;%s;"r2")' % (N, V, col("D")), NO_ROWS % 0)
-refusal(N, "error cell #DIV/0!", "xs", '%s(%s;%s;"r2")' % (N, V, col("E")), E4)
-refusal(N, "constant predictor", "xs", '%s(%s;%s;"r2")' % (N, V, col("R")), X_CONSTANT)
+refusal(N, "all cells blank", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("C")), NO_ROWS % 0)
+refusal(N, "all text", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("D")), NO_ROWS % 0)
+refusal(N, "error cell #DIV/0!", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("E")), E4)
+refusal(N, "constant predictor", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("R")), X_CONSTANT)
 for kind, c, largest in (("denormal", "AE", "1.2e-310"), ("sum overflows", "AF", "1.08e+308")):
-    case(N, kind, "xs", '%s(%s;%s;"r2")' % (N, V, col(c)),
+    case(N, kind, "xs", '%s(%s;%s;"r-squared")' % (N, V, col(c)),
          "x1 holds numbers too %s to fit (largest %s); rescale x1, e.g. into other units" % (
              "small" if "e-" in largest else "large", largest), None, SRC_SCALE_REFUSAL)
-refusal(N, "collinear predictors", "xs", '%s(%s;[$data.P2:.Q13];"r2")' % (N, V), COLLINEAR)
-refusal(N, "mismatched lengths", "xs", '%s(%s;[$data.P2:.P10];"r2")' % (N, V), MISMATCH % ("y", "xs"))
+refusal(N, "collinear predictors", "xs", '%s(%s;[$data.P2:.Q13];"r-squared")' % (N, V), COLLINEAR)
+refusal(N, "mismatched lengths", "xs", '%s(%s;[$data.P2:.P10];"r-squared")' % (N, V), MISMATCH % ("y", "xs"))
 case(N, "whole columns", "y", '%s([$data.B:.B];[$data.P:.P];"slope")' % N, "=SLOPE(%s;%s)" % (V, P), 1e-9,
      "Calc's SLOPE on the used rows; 1e-9 relative")
-refusal(N, "1x1 range", "y", '%s([$data.B2];[$data.P2];"r2")' % N, NO_ROWS_ONE)
+refusal(N, "1x1 range", "y", '%s([$data.B2];[$data.P2];"r-squared")' % N, NO_ROWS_ONE)
 refusal(N, "n = 2 (no residual df)", "y", '%s([$few.A1:.A2];[$few.L1:.L2];"slope")' % N, NO_ROWS % 2)
 case(N, "n = 3", "y", '%s([$few.B1:.B3];[$few.F1:.F3];"slope")' % N, "=SLOPE([$few.B1:.B3];[$few.F1:.F3])", 1e-9,
      "Calc's SLOPE; 1e-9 relative")
-keyword_cases(N, [V, P], "output", "coefficients, model, r2, p, slope, intercept, sigma, report")
+keyword_cases(N, [V, P], "output", "coefficients, model, r-squared, p, slope, intercept, residual-sd, report")
 level_cases(N, '%s;%s;"coefficients"' % (V, P))
 case(N, "level 99 (percent)", "level", 'INDEX(%s(%s;%s;"coefficients";99);3;6)' % (N, V, P),
      "=SLOPE(%s;%s)-T.INV.2T(0.01;10)*STEYX(%s;%s)/SQRT(DEVSQ(%s))" % (V, P, V, P, P), 1e-9,

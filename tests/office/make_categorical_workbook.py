@@ -41,9 +41,9 @@ counts.formula("E8", 'COMPARE.COUNTS([.A1:.C3];;;"table")', array=(10, 2))
 counts.rows("A20", [["expected"], ["=SUM($B2:$C2)*SUM(B$2:B$3)/SUM($B$2:$C$3)", "=SUM($B2:$C2)*SUM(C$2:C$3)/SUM($B$2:$C$3)"],
                          ["=SUM($B3:$C3)*SUM(B$2:B$3)/SUM($B$2:$C$3)", "=SUM($B3:$C3)*SUM(C$2:C$3)/SUM($B$2:$C$3)"]])
 chi = mayfly["chi-square"]
-report = "Pearson's chi-square test of association: χ²(1) = %s, %s, n = %d; φ = %s" % (
+report = "Pearson's chi-square test: χ²(1) = %s, %s, n = %d; φ = %s" % (
     fmt_number(chi["statistic"]), fmt_p(chi["p"]), mayfly["n"], fmt_number(mayfly["effect"]))
-expected_table = [["quantity", "value"], ["test", "Pearson's chi-square test of association"],
+expected_table = [["quantity", "value"], ["test", "Pearson's chi-square test"],
                   ["statistic", chi["statistic"]], ["df", 1], ["p", chi["p"]], ["n", mayfly["n"]], ["n dropped", 0],
                   ["effect", mayfly["effect"]], ["smallest expected count", mayfly["smallest expected count"]],
                   ["cells expected below 5", mayfly["cells expected below 5"]]]
@@ -126,15 +126,16 @@ n = len(mussel["y"])
 lg.formula("D1", "FIT.LOGISTIC([.A1:.A%d];[.B1:.B%d];;0.9)" % (n + 1, n + 1), array=(3, 8))
 lg.formula("D6", 'FIT.LOGISTIC([.A:.A];[.B:.B];"model")', array=(13, 2))
 lg.formula("D21", 'FIT.LOGISTIC([.A1:.A%d];[.B1:.B%d];"r2")' % (n + 1, n + 1))
-coef = [["term", "estimate", "std. error", "z", "p", "odds ratio", "OR ci-low", "OR ci-high"]]
+coef = [["variable", "coefficient", "SE", "z", "p", "odds ratio", "ci-low", "ci-high"]]
 import math  # noqa: E402
 for j, term in enumerate(["intercept", "depth"]):
-    coef.append([term, mussel["estimate"][j], mussel["std_error"][j], mussel["z"][j], mussel["p"][j],
-                 math.exp(mussel["estimate"][j]), mussel["or_low"][j], mussel["or_high"][j]])
+    # The intercept's odds-ratio cells stay blank (FUNCTIONS.md, FIT.LOGISTIC).
+    odds = [None, None, None] if j == 0 else [math.exp(mussel["estimate"][j]), mussel["or_low"][j], mussel["or_high"][j]]
+    coef.append([term, mussel["estimate"][j], mussel["std_error"][j], mussel["z"][j], mussel["p"][j]] + odds)
 lg.rows("D25", coef)
-model = [["quantity", "value"], ["model", "logistic regression (logit link, maximum likelihood)"], ["event", "1"],
+model = [["quantity", "value"], ["model", "Logistic regression (logit link, maximum likelihood)"], ["event", "1"],
          ["deviance", mussel["deviance"]], ["null deviance", mussel["null_deviance"]], ["statistic", mussel["statistic"]],
-         ["df", mussel["df"]], ["p", mussel["lr_p"]], ["aic", mussel["aic"]], ["pseudo-r2", mussel["pseudo_r2"]],
+         ["df", mussel["df"]], ["p", mussel["lr_p"]], ["aic", mussel["aic"]], ["pseudo-r-squared", mussel["pseudo_r2"]],
          ["n", mussel["n"]], ["n dropped", 0], ["iterations", "=[$logistic.E18]"]]
 lg.rows("D30", model)
 checks_rows += [

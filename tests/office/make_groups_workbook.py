@@ -58,7 +58,7 @@ check("nitrate.D7", s["p"], 1e-9, SRC_T)
 check("nitrate.D8", len(nitrate["first"]) + len(nitrate["second"]), None, "count of the data rows, exact")
 check("nitrate.D9", "unknown method 'anova'; valid: welch, pooled, ranks", None, SRC_TEXT)
 check("nitrate.D10",
-      "Welch two-sample t-test: t(26.4) = 1.85, p = 0.075; mean difference 0.29 (upstream − downstream; "
+      "Welch's t-test (two groups): t(26.4) = 1.85, p = 0.075; mean difference 0.29 (upstream − downstream; "
       "95% CI -0.0319 to 0.62), Hedges' g = 0.62",
       None, "the catalogue's report form with the scipy values above rounded by hand, exact")
 

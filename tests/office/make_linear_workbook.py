@@ -54,7 +54,7 @@ expected = book.sheet("expected")
 
 # Coefficients table (array 4 × 8).
 sheet.formula("E1", "FIT.LINEAR(%s;%s)" % (Y, XS), array=(4, 8))
-coef = [["term", "estimate", "std. error", "t", "p", "ci-low", "ci-high", "VIF"]]
+coef = [["variable", "coefficient", "SE", "t", "p", "ci-low", "ci-high", "VIF"]]
 for j, term in enumerate(["intercept"] + stream["names"]):
     coef.append([term, ref["estimate"][j], ref["std_error"][j], ref["t"][j], ref["p"][j],
                  ref["ci"]["0.95"][j][0], ref["ci"]["0.95"][j][1], None if j == 0 else ref["vif"][j - 1]])
@@ -63,28 +63,29 @@ check("stream.E1:L4", "block expected.A1:H4", TOL_P, SRC_SM + "; p and limits at
 
 # Model table (array 13 × 2).
 sheet.formula("E7", 'FIT.LINEAR(%s;%s;"model")' % (Y, XS), array=(13, 2))
-model = [["quantity", "value"], ["model", "linear regression (ordinary least squares)"],
-         ["r2", ref["r2"]], ["adj-r2", ref["adj_r2"]], ["statistic", ref["f"]], ["df", ref["df"]],
-         ["df2", ref["df2"]], ["p", ref["f_p"]], ["sigma", ref["sigma"]], ["aic", ref["aic"]],
+model = [["quantity", "value"], ["model", "Linear regression (ordinary least squares)"],
+         ["r-squared", ref["r2"]], ["r-squared-adjusted", ref["adj_r2"]], ["statistic", ref["f"]], ["df", ref["df"]],
+         ["df2", ref["df2"]], ["p", ref["f_p"]], ["residual-sd", ref["sigma"]], ["aic", ref["aic"]],
          ["bic", ref["bic"]], ["n", 40], ["n dropped", 2]]
 expected.block("A7", model)
 check("stream.E7:F19", "block expected.A7:B19", TOL_P,
       SRC_SM + "; AIC/BIC from its llf with σ² counted as a parameter; n and n dropped by count")
 
-sheet.formula("E21", 'FIT.LINEAR(%s;%s;"r2")' % (Y, XS))
+sheet.formula("E21", 'FIT.LINEAR(%s;%s;"r-squared")' % (Y, XS))
 check("stream.E21", ref["r2"], TOL_EST, SRC_SM)
-sheet.formula("E22", 'FIT.LINEAR([.A:.A];[.B:.C];"sigma")')
+sheet.formula("E22", 'FIT.LINEAR([.A:.A];[.B:.C];"residual-sd")')
 check("stream.E22", ref["sigma"], TOL_EST, SRC_SM + "; whole-column references")
 sheet.formula("E23", 'FIT.LINEAR(%s;%s;"slope")' % (Y, XS))
 check("stream.E23", "output 'slope' needs exactly one predictor (xs has 2 columns); "
       "use output 'coefficients' for the whole table", None, SRC_TEXT)
 sheet.formula("E25", 'FIT.LINEAR(%s;%s;"slopes")' % (Y, XS))
-check("stream.E25", "unknown output 'slopes'; valid: coefficients, model, r2, p, slope, intercept, sigma, report",
+check("stream.E25", "unknown output 'slopes'; valid: coefficients, model, r-squared, p, slope, intercept, residual-sd, report",
       None, SRC_TEXT)
 
 # FIT.POINTS: all six columns in place of the header row (array 43 × 6), and one column.
 sheet.formula("N1", "FIT.POINTS(%s;%s)" % (Y, XS), array=(last, 6))
-expected.row("D21", ["fitted", "residual", "standardized", "studentized", "leverage", "cooks"])
+expected.row("D21", ["fitted value", "residual", "standardized residual", "studentized residual", "leverage",
+                     "Cook's distance"])
 for i, r in enumerate(data_rows):
     expected.row("D%d" % (20 + r), [ref["fitted"][i], ref["residual"][i], ref["standardized"][i],
                                     ref["studentized"][i], ref["leverage"][i], ref["cooks"][i]])
@@ -99,8 +100,9 @@ check("stream.U1:U%d" % last, "block expected.K21:K%d" % (20 + last), TOL_EST,
 # CHECK.MODEL: one number per check, and verdicts read from the table.
 c = ref["checks"]
 for address, output, value, tol, source in [
-        ("E27", "variance", c["breusch_pagan_p"], TOL_P, SRC_SM + " het_breuschpagan(robust=True)"),
-        ("E28", "independence", c["durbin_watson"], TOL_EST, SRC_SM + " durbin_watson"),
+        ("E27", "spread", c["breusch_pagan_p"], TOL_P, SRC_SM + " het_breuschpagan(robust=True)"),
+        ("E28", "independence", "independence needs the sampling order: give order (a column of dates, times or "
+         "distances); rows in no particular order cannot be judged", None, "FUNCTIONS.md: no order, no Durbin–Watson"),
         ("E29", "linearity", c["reset_p"], TOL_P, SRC_SM + " linear_reset(power=3, fitted, F)"),
         ("E30", "collinearity", c["max_vif"], TOL_EST, SRC_SM + " variance_inflation_factor"),
         ("E31", "influence", c["max_cooks"], TOL_EST, SRC_SM + " OLSInfluence.cooks_distance"),
@@ -110,8 +112,9 @@ for address, output, value, tol, source in [
     check("stream." + address, value, tol, source)
 sheet.formula("E34", "INDEX(CHECK.MODEL(%s;%s);3;5)" % (Y, XS))
 check("stream.E34", "look", None, "BP p = 0.027 < 0.05 (" + SRC_SM + "); verdict rule of FUNCTIONS.md")
-sheet.formula("E35", "INDEX(CHECK.MODEL(%s;%s);4;5)" % (Y, XS))
-check("stream.E35", "ok", None, "Durbin–Watson 2.31 within 1.5 to 2.5 (" + SRC_SM + ")")
+sheet.formula("E35", "INDEX(CHECK.MODEL(%s;%s);4;4)" % (Y, XS))
+check("stream.E35", "no verdict: rows in no particular order cannot be judged; give order (dates, times or distances) "
+      "for Durbin–Watson", None, "FUNCTIONS.md: without order the independence row gives no verdict")
 sheet.formula("E36", "INDEX(CHECK.MODEL(%s;%s);1;5)" % (Y, XS))
 check("stream.E36", "verdict", None, SRC_TEXT)
 
@@ -130,14 +133,14 @@ msheet.formula("D3", 'FIT.LINEAR(%s;%s;"p")' % (MY, MX))
 check("marsh.D3", mref["f_p"], TOL_P, SRC_SM)
 msheet.formula("D4", 'FIT.LINEAR(%s;%s;"report")' % (MY, MX))
 lo, hi = mref["ci"]["0.95"][1]
-report = "Linear regression: R² = %s, F(1, %d) = %s, %s, n = %d; slope %s (95%% CI %s to %s)" % (
+report = "Linear regression (ordinary least squares): R² = %s, F(1, %d) = %s, %s, n = %d; slope %s (95%% CI %s to %s)" % (
     fmt_number(mref["r2"]), n - 2, fmt_number(mref["f"]), fmt_p(mref["f_p"]), n,
     fmt_number(mref["estimate"][1]), fmt_number(lo), fmt_number(hi))
 check("marsh.D4", report, None, SRC_SM + " numbers, formatted by the catalogue's report rules; exact")
 msheet.formula("D5", "ROWS(FIT.POINTS(%s;%s))" % (MY, MX))
 check("marsh.D5", n + 1, None, "no header in the input: the header row goes on top, one row more (FUNCTIONS.md)")
 msheet.formula("D6", "INDEX(FIT.POINTS(%s;%s);1;6)" % (MY, MX))
-check("marsh.D6", "cooks", None, SRC_TEXT)
+check("marsh.D6", "Cook's distance", None, SRC_TEXT)
 msheet.formula("D7", 'ROWS(FIT.POINTS(%s;%s;"leverage"))' % (MY, MX))
 check("marsh.D7", n, None, "one column: exactly the input's rows (FUNCTIONS.md)")
 

@@ -45,24 +45,25 @@ def long_sheet(name, value_header, groups):
 
 oxygen, n = long_sheet("oxygen", "oxygen", [("riffle", data.RIFFLE), ("pool", data.POOL)])
 reported(oxygen, "D1", 'COMPARE.GROUPS([.B1:.B%d];[.A1:.A%d];"welch";"report")' % (n, n),
-         "Welch two-sample t-test: t(10.7) = 3.00, p = 0.012; mean difference 0.66 "
+         "Welch's t-test (two groups): t(10.7) = 3.00, p = 0.012; mean difference 0.66 "
          "(riffle − pool; 95% CI 0.17 to 1.15), Hedges' g = 1.50", "oxygen welch none")
 reported(oxygen, "D2", 'COMPARE.GROUPS([.B1:.B%d];[.A1:.A%d];"welch";"report";"log")' % (n, n),
-         "Welch two-sample t-test: t(10.2) = 3.00, p = 0.013; ratio of geometric means 1.08 "
+         "Welch's t-test (two groups): t(10.2) = 3.00, p = 0.013; ratio of geometric means 1.08 "
          "(riffle ÷ pool; 95% CI 1.02 to 1.14), Hedges' g = 1.50", "oxygen welch log")
 reported(oxygen, "D3", 'CHECK.NORMAL([.B1:.B%d];[.A1:.A%d];;"report")' % (n, n),
          "Shapiro–Wilk normality test of the residuals from 2 group means: W = 0.98, p = 0.941, n = 15",
          "oxygen residuals shapiro-wilk")
 reported(oxygen, "D4", 'ADVISE.TEST([.B1:.B%d];[.A1:.A%d])' % (n, n),
          "Suggested: COMPARE.GROUPS, method 'welch'. Why: continuous response (n = 15), predictor with 2 groups "
-         "(sizes 7 to 8), so compare two groups; the residuals from the group means look normal (Shapiro–Wilk "
-         "p = 0.941), so a test of means fits; spreads are similar (Brown–Forsythe p = 0.485), so Welch's t-test, "
-         "which does not assume equal spreads. A guide, not a verdict: check it against the study design.", "advisor oxygen")
+         "(sizes 7 to 8), so compare two groups; no clear sign of non-normality in the residuals from the group "
+         "means (Shapiro–Wilk p = 0.941), so a test of means can be used; no clear sign of unequal spread "
+         "(Brown–Forsythe p = 0.485), so Welch's t-test, which does not assume equal spreads. A guide, not a verdict: "
+         "check it against the study design.", "advisor oxygen")
 
 nitrate, n = long_sheet("nitrate", "nitrate", [("forest", data.FOREST), ("pasture", data.PASTURE),
                                                ("cropland", data.CROPLAND)])
 reported(nitrate, "D1", 'CHECK.VARIANCE([.B1:.B%d];[.A1:.A%d];;"report")' % (n, n),
-         "Brown–Forsythe test of equal variances (deviations from group medians): F(2, 20) = 8.07, p = 0.003, "
+         "Brown–Forsythe test (deviations from group medians): F(2, 20) = 8.07, p = 0.003, "
          "n = 23; largest variance over smallest 56.50", "nitrate brown-forsythe")
 
 culvert = book.sheet("culvert")
@@ -93,7 +94,7 @@ reported(springs, "C2", 'CHECK.NORMAL([.A1:.A%d];;"anderson-darling";"report")' 
 counts = book.sheet("counts")
 counts.block("A1", [["mayfly", "riffle", "pool"], ["found"] + data.MAYFLY[0], ["not found"] + data.MAYFLY[1]])
 reported(counts, "E1", 'COMPARE.COUNTS([.A1:.C3];;"chi-square";"report")',
-         "Pearson's chi-square test of association: χ²(1) = 9.03, p = 0.003, n = 44; φ = 0.45", "mayfly chi-square")
+         "Pearson's chi-square test: χ²(1) = 9.03, p = 0.003, n = 44; φ = 0.45", "mayfly chi-square")
 counts.column("A6", data.NEWTS)
 reported(counts, "E2", 'COMPARE.EXPECTED([.A6:.A7];;"report")',
          "Chi-square goodness-of-fit test: χ²(1) = 2.57, p = 0.109, n = 56", "newts")
@@ -105,11 +106,11 @@ reaches.column("C1", ["traps"] + data.TRAPS)
 reaches.column("D1", ["crayfish"] + data.CRAYFISH)
 m = len(data.WIDTH) + 1
 reported(reaches, "F1", 'RELATE.CORRELATION([.A2:.A%d];[.B2:.B%d];"pearson";"report")' % (m, m),
-         "Pearson correlation: r = -0.46 (95% CI -0.82 to 0.16), t(10) = -1.63, p = 0.133, n = 12", "width pearson")
+         "Pearson's correlation: r = -0.46 (95% CI -0.82 to 0.16), t(10) = -1.63, p = 0.133, n = 12", "width pearson")
 reported(reaches, "F2", 'RELATE.CORRELATION([.C2:.C%d];[.D2:.D%d];"kendall";"report")' % (m, m),
          "Kendall's tau-b (normal approximation): τ = 0.82, z = 3.55, p < 0.001, n = 12", "crayfish kendall")
 reported(reaches, "F3", 'FIT.LINEAR([.B1:.B%d];[.A1:.A%d];"report")' % (m, m),
-         "Linear regression: R² = 0.21, F(1, 10) = 2.67, p = 0.133, n = 12; slope -4.55 (95% CI -10.74 to 1.65)",
+         "Linear regression (ordinary least squares): R² = 0.21, F(1, 10) = 2.67, p = 0.133, n = 12; slope -4.55 (95% CI -10.74 to 1.65)",
          "canopy on width")
 
 book.sheet("checks").rows("A1", checks)

@@ -19,7 +19,7 @@ from quadrat_sheets.fods import Workbook
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 
-HEADER = ["group", "n", "mean", "SD", "SE", "ci-low", "ci-high", "median", "minimum", "maximum"]
+HEADER = ["group", "n", "mean", "ci-low", "ci-high", "SD", "SE", "CV %", "minimum", "q1", "median", "q3", "maximum"]
 
 # Sources and tolerances, stated once.
 SRC_CALC = ("Calc's AVERAGE, STDEV, MEDIAN, MIN, MAX and TINV over the kept cells (independent "
@@ -49,16 +49,16 @@ field.block("A1", [
 KEPT = {"upstream": ["B2", "B3", "B9"], "downstream": ["B4", "B6", "B8", "B12", "B13"], "tributary": ["B10"]}
 ALL_NUMBERS = ["B2", "B3", "B4", "B6", "B8", "B9", "B10", "B11", "B12", "B13", "B14"]
 
-field.formula("D1", "DESCRIBE.GROUPS([.B1:.B14];[.A1:.A14])", array=(4, 10))
-field.formula("D6", "DESCRIBE.GROUPS([.B:.B];[.A:.A])", array=(4, 10))
-field.formula("D11", "DESCRIBE.GROUPS([.B1:.B14])", array=(2, 10))
-field.formula("D14", 'DESCRIBE.GROUPS([.B2:.B4];{"a"|"b"|"a"})', array=(3, 10))
+field.formula("D1", "DESCRIBE.GROUPS([.B1:.B14];[.A1:.A14])", array=(4, 13))
+field.formula("D6", "DESCRIBE.GROUPS([.B:.B];[.A:.A])", array=(4, 13))
+field.formula("D11", "DESCRIBE.GROUPS([.B1:.B14])", array=(2, 13))
+field.formula("D14", 'DESCRIBE.GROUPS([.B2:.B4];{"a"|"b"|"a"})', array=(3, 13))
 field.formula("D18", "DESCRIBE.GROUPS([.B1:.B14])")
 field.formula("D19", "INDEX(DESCRIBE.GROUPS([.B1:.B14]);2;3)")
 field.formula("D20", 'INDEX(DESCRIBE.GROUPS([.B1:.B14];;"log");2;3)')
-field.formula("D21", 'INDEX(DESCRIBE.GROUPS([.B1:.B14];;"LOG";99);2;6)')
-field.formula("D22", "INDEX(DESCRIBE.GROUPS([.B1:.B14];[.A1:.A14];;0.9);3;7)")
-field.formula("D24", "DESCRIBE.GROUPS([.B1:.B40];[.A1:.A40])", array=(4, 10))
+field.formula("D21", 'INDEX(DESCRIBE.GROUPS([.B1:.B14];;"LOG";99);2;4)')
+field.formula("D22", "INDEX(DESCRIBE.GROUPS([.B1:.B14];[.A1:.A14];;0.9);3;5)")
+field.formula("D24", "DESCRIBE.GROUPS([.B1:.B40];[.A1:.A40])", array=(4, 13))
 
 # --- wide: one column per group, header names them -----------------------------------------------
 wide = book.sheet("wide")
@@ -71,8 +71,8 @@ wide.block("A1", [
     [None, 5.9],
 ])
 WIDE_KEPT = {"upstream": ["A2", "A3", "A5"], "downstream": ["B2", "B3", "B4", "B6"]}
-wide.formula("D1", "DESCRIBE.GROUPS([.A1:.B6])", array=(3, 10))
-wide.formula("D5", "DESCRIBE.GROUPS([.A:.B])", array=(3, 10))
+wide.formula("D1", "DESCRIBE.GROUPS([.A1:.B6])", array=(3, 13))
+wide.formula("D5", "DESCRIBE.GROUPS([.A:.B])", array=(3, 13))
 
 # --- errors: a data cell holding a formula error is named ---------------------------------------
 errors = book.sheet("errors")
@@ -112,15 +112,18 @@ def refs(sheet, cells):
 
 
 def summary_row(name, sheet, cells, level=0.95):
-    """Calc formulas for one DESCRIBE.GROUPS row over the listed cells."""
+    """Calc formulas for one DESCRIBE.GROUPS row over the listed cells; the quartiles by Calc's own
+    QUARTILE.INC over the union of the cells (FUNCTIONS.md: quartiles as Calc computes them)."""
     r = refs(sheet, cells)
+    union = "(" + "~".join("[$%s.%s]" % (sheet, c) for c in cells) + ")"
     n = len(cells)
+    q1, q3 = "=QUARTILE.INC(%s;1)" % union, "=QUARTILE.INC(%s;3)" % union
     if n == 1:
-        return [name, 1, "=%s" % r, None, None, None, None, "=%s" % r, "=%s" % r, "=%s" % r]
+        return [name, 1, "=%s" % r, None, None, None, None, None, "=%s" % r, q1, "=%s" % r, q3, "=%s" % r]
     half = "TINV(%r;%d)*STDEV(%s)/SQRT(%d)" % (1 - level, n - 1, r, n)
-    return [name, n, "=AVERAGE(%s)" % r, "=STDEV(%s)" % r, "=STDEV(%s)/SQRT(%d)" % (r, n),
-            "=AVERAGE(%s)-%s" % (r, half), "=AVERAGE(%s)+%s" % (r, half),
-            "=MEDIAN(%s)" % r, "=MIN(%s)" % r, "=MAX(%s)" % r]
+    return [name, n, "=AVERAGE(%s)" % r, "=AVERAGE(%s)-%s" % (r, half), "=AVERAGE(%s)+%s" % (r, half),
+            "=STDEV(%s)" % r, "=STDEV(%s)/SQRT(%d)" % (r, n), "=100*STDEV(%s)/ABS(AVERAGE(%s))" % (r, r),
+            "=MIN(%s)" % r, q1, "=MEDIAN(%s)" % r, q3, "=MAX(%s)" % r]
 
 
 expected = book.sheet("expected")
@@ -133,15 +136,15 @@ expected.rows("A13", [HEADER] + [summary_row(g, "wide", WIDE_KEPT[g]) for g in (
 checks = book.sheet("checks")
 rows = [
     ["result", "expected", "tolerance", "source"],
-    ["field.D1:M4", "block expected.A1:J4", 1e-9,
+    ["field.D1:P4", "block expected.A1:M4", 1e-9,
      "long format, header row inside the range, blank, n/a and missing labels dropped, a group of one "
      "with blank SD/SE/interval. " + SRC_CALC],
-    ["field.D6:M9", "block expected.A1:J4", 1e-9,
+    ["field.D6:P9", "block expected.A1:M4", 1e-9,
      "whole columns B:B and A:A (A:A reaches the `any` argument whole and is cut to B:B's used rows): "
      "the same answer as the bounded range. " + SRC_CALC],
-    ["field.D11:M12", "block expected.A10:J11", 1e-9,
+    ["field.D11:P12", "block expected.A10:M11", 1e-9,
      "one column without groups: named by its header, text and blanks left out. " + SRC_CALC],
-    ["field.D14:M16", "block expected.A6:J8", 1e-9,
+    ["field.D14:P16", "block expected.A6:M8", 1e-9,
      "groups typed as an inline array {\"a\"|\"b\"|\"a\"} (an `any` argument). " + SRC_CALC],
     ["field.D18", "group", None,
      "a table function entered in one cell shows the table's top-left cell (Calc's rule for arrays)"],
@@ -155,11 +158,11 @@ rows = [
      "between: the geometric mean's 99% lower limit from Calc's LN, AVERAGE, STDEV, TINV; 1e-9 for TINV's iteration"],
     ["field.D22", "=AVERAGE(%s)+TINV(0.1;4)*STDEV(%s)/SQRT(5)" % (refs("field", KEPT["downstream"]), refs("field", KEPT["downstream"])),
      1e-9, "level typed as the fraction 0.9: downstream ci-high from Calc's AVERAGE, STDEV, TINV"],
-    ["field.D24:M27", "block expected.A1:J4", 1e-9,
+    ["field.D24:P27", "block expected.A1:M4", 1e-9,
      "a range reaching below the data (B1:B40): its empty rows are neither used nor dropped. " + SRC_CALC],
-    ["wide.D1:M3", "block expected.A13:J15", 1e-9,
+    ["wide.D1:P3", "block expected.A13:M15", 1e-9,
      "wide format: one column per group named by the header row; n/a dropped, blanks at a column's end. " + SRC_CALC],
-    ["wide.D5:M7", "block expected.A13:J15", 1e-9, "wide format over whole columns A:B. " + SRC_CALC],
+    ["wide.D5:P7", "block expected.A13:M15", 1e-9, "wide format over whole columns A:B. " + SRC_CALC],
     ["errors.F1", "A3 holds an error (#DIV/0!)", None, "an error cell in a reference is named with its error. " + SRC_TEXT],
     ["errors.F2", "B2 holds an error (#N/A)", None, "=NA() in the data. " + SRC_TEXT],
     ["errors.F3", "C3 holds an error (Err:502)", None, "=SQRT(-1) gives Calc's Err:502 (invalid argument). " + SRC_TEXT],
