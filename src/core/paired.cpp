@@ -208,6 +208,7 @@ TestResult sign_test(std::span<const double> differences, double level, bool one
     r.add("estimate", median_of_sorted(d.sorted));
     add_interval(r, low, high, level);
     r.add("effect", matched_pairs_rank_biserial(signed_ranks(d.sorted).t_plus, n));
+    r.unlisted.push_back({"differences used", n});  // "4 of 12 differences positive", whatever `n` counts later
     r.words.statistic_form = ReportWords::Statistic::positive_count;
     r.words.estimate = "median difference";
     r.words.effect = "matched-pairs rank-biserial r";

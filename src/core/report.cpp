@@ -74,7 +74,7 @@ std::string statistic_words(const TestResult& r, const ReportWords& w) {
     switch (w.statistic_form) {
         case ReportWords::Statistic::none: return {};
         case ReportWords::Statistic::positive_count:
-            return format_df(x) + " of " + format_df(number_of(r, "n")) + " differences positive";
+            return format_df(x) + " of " + format_df(number_of(r, "differences used")) + " differences positive";
         case ReportWords::Statistic::whole: return w.statistic_symbol + " = " + format_df(x);
         case ReportWords::Statistic::number: break;
     }
