@@ -770,7 +770,7 @@ refusal(N, "n = 2", "y", '%s([$few.A1:.A2];[$few.L1:.L2];"leverage")' % N, NO_RO
 case(N, "whole columns", "y", "ROWS(%s([$data.B:.B];[$data.P:.P]))" % N, "=ROWS([$data.B1:.B13])", None,
      "a whole column is read down to the used rows (13 here); the header row takes the column names "
      "(FUNCTIONS.md FIT.POINTS)")
-keyword_cases(N, [V, P], "what", "fitted, residual, standardized, studentized, leverage, cooks")
+keyword_cases(N, [V, P], "what", "fitted, residual, standardized, studentized, leverage, cook")
 
 # ================================== FIT.FACTORIAL(values; factor1; factor2; [output]; [sstype]) ==
 N = "FIT.FACTORIAL"
@@ -851,7 +851,7 @@ case(N, "empty name (wide)", "values", "INDEX(%s([$wide.D1:.E7]);3;1)" % N, "col
 keyword_cases(N, [V, G], "transform", "none, log, log10, log1p, sqrt")
 transform_cases(N, G + ";")
 level_cases(N, "%s;%s;" % (V, G))
-case(N, "level 99 (percent)", "level", "INDEX(%s(%s;%s;;99);2;6)" % (N, V, G),
+case(N, "level 99 (percent)", "level", "INDEX(%s(%s;%s;;99);2;4)" % (N, V, G),
      "=AVERAGE(%s)-T.INV.2T(0.01;5)*STDEV(%s)/SQRT(6)" % (MARSH, MARSH), 1e-9,
      "99 read as 99%: marsh's lower limit by Calc's AVERAGE, STDEV, T.INV.2T; 1e-9 relative")
 
@@ -885,8 +885,8 @@ case(N, "whole columns", "response", '%s([$data.B:.B];[$data.A:.A];"function")' 
      SRC_ADV % "a measurement in two groups")
 refusal(N, "paired with mismatched lengths", "design", '%s(%s;[$data.O2:.O10];"function";"paired")' % (N, V),
         MISMATCH % ("response", "predictor"))
-keyword_cases(N, [V, G], "output", "report, method, transform, function, table")
-keyword_cases(N, [V, G, '"function"'], "design", "auto, groups, paired, relationship")
+keyword_cases(N, [V, G], "output", "report, method, transform, posthoc, function, table")
+keyword_cases(N, [V, G, '"function"'], "design", "auto, groups, paired, relationship, trend, blocks, nested")
 
 # --- checks and findings --------------------------------------------------------------------------
 unused = set(FINDINGS) - seen_findings

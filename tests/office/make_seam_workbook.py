@@ -117,7 +117,8 @@ def summary_row(name, sheet, cells, level=0.95):
     r = refs(sheet, cells)
     union = "(" + "~".join("[$%s.%s]" % (sheet, c) for c in cells) + ")"
     n = len(cells)
-    q1, q3 = "=QUARTILE.INC(%s;1)" % union, "=QUARTILE.INC(%s;3)" % union
+    # QUARTILE is stored as such in OpenFormula; Calc computes it as QUARTILE.INC.
+    q1, q3 = "=QUARTILE(%s;1)" % union, "=QUARTILE(%s;3)" % union
     if n == 1:
         return [name, 1, "=%s" % r, None, None, None, None, None, "=%s" % r, q1, "=%s" % r, q3, "=%s" % r]
     half = "TINV(%r;%d)*STDEV(%s)/SQRT(%d)" % (1 - level, n - 1, r, n)
