@@ -43,7 +43,7 @@ namespace {
 using quadrat::Cell;
 using quadrat::Range;
 using quadrat::addin::Arguments;
-using quadrat::addin::FunctionInfo;
+using quadrat::addin::Function;
 using Clock = std::chrono::steady_clock;
 
 std::string data_dir;
@@ -104,12 +104,12 @@ Range text(const char* s) { return Range::scalar(Cell::make_text(s)); }
 const Range omitted = Range::omitted_argument();
 
 struct Case {
-    const FunctionInfo* function;
+    const Function* function;
     Arguments arguments;
 };
 
-const FunctionInfo& function(const char* method) {
-    const FunctionInfo* f = quadrat::addin::find_function(method);
+const Function& function(const char* method) {
+    const Function* f = quadrat::addin::find_function(method);
     if (!f || !f->handler) {
         std::fprintf(stderr, "%s has no handler\n", method);
         std::exit(1);

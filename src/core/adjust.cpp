@@ -10,18 +10,12 @@
 
 namespace quadrat {
 
-const std::vector<std::string>& adjustment_keywords() {
-    static const std::vector<std::string> keys = {"holm", "bonferroni", "hochberg", "hommel", "bh", "by", "sidak"};
-    return keys;
-}
-
+// Adjustment keeps the order of the keyword table adjustment_methods().
 Adjustment parse_adjustment(const std::string& keyword) {
-    const std::string key = match_keyword(keyword, adjustment_keywords(), "adjust");
-    const auto& keys = adjustment_keywords();
-    return static_cast<Adjustment>(std::find(keys.begin(), keys.end(), key) - keys.begin());
+    return static_cast<Adjustment>(adjustment_methods().index(keyword, "adjust"));
 }
 
-std::string adjustment_keyword(Adjustment method) { return adjustment_keywords()[static_cast<std::size_t>(method)]; }
+std::string adjustment_keyword(Adjustment method) { return adjustment_methods().words()[static_cast<std::size_t>(method)].word; }
 
 std::string adjustment_name(Adjustment method) {
     switch (method) {
@@ -29,8 +23,8 @@ std::string adjustment_name(Adjustment method) {
         case Adjustment::bonferroni: return "Bonferroni";
         case Adjustment::hochberg: return "Hochberg";
         case Adjustment::hommel: return "Hommel";
-        case Adjustment::bh: return "Benjamini–Hochberg";
-        case Adjustment::by: return "Benjamini–Yekutieli";
+        case Adjustment::benjamini_hochberg: return "Benjamini–Hochberg";
+        case Adjustment::benjamini_yekutieli: return "Benjamini–Yekutieli";
         case Adjustment::sidak: return "Šidák";
     }
     return {};
@@ -115,10 +109,10 @@ std::vector<double> adjust_p(std::span<const double> p, Adjustment method) {
             }
             break;
         }
-        case Adjustment::bh:
-        case Adjustment::by: {
+        case Adjustment::benjamini_hochberg:
+        case Adjustment::benjamini_yekutieli: {
             double factor = 1.0;  // Benjamini–Yekutieli's c(m) = Σ 1/i for arbitrary dependence
-            if (method == Adjustment::by) {
+            if (method == Adjustment::benjamini_yekutieli) {
                 factor = 0.0;
                 for (std::size_t i = m; i >= 1; --i) factor += 1.0 / static_cast<double>(i);
             }

@@ -7,10 +7,9 @@
 
 namespace quadrat {
 
-enum class Adjustment { holm, bonferroni, hochberg, hommel, bh, by, sidak };
+enum class Adjustment { holm, bonferroni, hochberg, hommel, benjamini_hochberg, benjamini_yekutieli, sidak };
 
 // The catalogue's keywords in its order; the first (holm) is the default.
-const std::vector<std::string>& adjustment_keywords();
 Adjustment parse_adjustment(const std::string& keyword);  // blank is holm; unknown is a refusal
 std::string adjustment_keyword(Adjustment method);
 std::string adjustment_name(Adjustment method);  // "Holm", "Benjamini–Hochberg", … for reports

@@ -54,7 +54,8 @@ Profile profile_of(const Range& r) {
     std::size_t numbers = 0, texts = 0;
     std::set<double> numeric_values;
     std::set<std::string> labels;
-    const std::size_t first = (r.rows > 1 && r.at(0, 0).kind == CellKind::text) ? 1 : 0;  // a header
+    // The data layer's header rule: a value column's header, or a label column's.
+    const std::size_t first = numeric_column_has_header(r, 0) || label_column_has_header(r, 0) ? 1 : 0;
     for (std::size_t row = first; row < r.rows; ++row)
         for (std::size_t col = 0; col < r.columns; ++col) {
             const Cell& c = r.at(row, col);
@@ -398,7 +399,7 @@ void advise_groups(const Range& values, const Range& labels, Advice& advice, con
     if (!chosen.normal.normal) {
         std::optional<Transform> candidate;
         if (all_positive(g.values)) candidate = Transform::log;
-        else if (counts_with_zeros(g.values)) candidate = Transform::log1p;
+        else if (counts_with_zeros(g.values)) candidate = Transform::log_plus_one;
         if (candidate) {
             const std::string keyword = transform_keyword(*candidate);
             Groups scaled = g;

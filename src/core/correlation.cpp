@@ -255,9 +255,11 @@ TestResult relate_correlation(const Range& x, const Range& y, const std::string&
     if (y.empty()) throw Refusal("y is empty");
     if (x.columns != 1) throw Refusal("x must be one column (found " + std::to_string(x.columns) + ")");
     if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
+    // An unknown method is a refusal that lists the valid ones, never a silent Pearson.
+    const std::string m = correlation_methods().match(method, "method", "pearson");
     const Frame f = read_frame({{&x, ColumnKind::numeric, "x"}, {&y, ColumnKind::numeric, "y"}});
-    TestResult r = method == "spearman" ? spearman_correlation(f.numbers[0], f.numbers[1])
-                 : method == "kendall"  ? kendall_correlation(f.numbers[0], f.numbers[1])
+    TestResult r = m == "spearman" ? spearman_correlation(f.numbers[0], f.numbers[1])
+                 : m == "kendall"  ? kendall_correlation(f.numbers[0], f.numbers[1])
                                         : pearson_correlation(f.numbers[0], f.numbers[1]);
     r.add("n", static_cast<double>(f.n_used));
     r.add("n dropped", static_cast<double>(f.n_dropped));

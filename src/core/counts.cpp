@@ -33,8 +33,6 @@ constexpr double largest_fisher_total = 1073741824.0;
 // scipy.stats.fisher_exact 1.10 uses, so the two agree on ties).
 constexpr double fisher_relative_tolerance = 1e-7;
 
-bool is_header_text(const Cell& c) { return c.kind == CellKind::text && !is_missing_marker(c.text); }
-
 std::string where(const Range& r, std::size_t row, std::size_t column, const std::string& argument) {
     if (r.is_reference) return cell_address(r, row, column);
     return argument + " row " + std::to_string(row + 1) + " column " + std::to_string(column + 1);
@@ -322,23 +320,8 @@ double fisher_exact_rxc(const std::vector<std::vector<double>>& counts, double m
 // ---------------------------------------------------------------------------------------------
 // The tests
 
-const std::vector<std::string>& count_methods() {
-    static const std::vector<std::string> methods = {"chi-square", "yates", "g", "fisher"};
-    return methods;
-}
-
-const std::vector<std::string>& count_outputs() {
-    static const std::vector<std::string> outputs = {"p", "statistic", "df", "n", "effect", "table", "report"};
-    return outputs;
-}
-
-const std::vector<std::string>& expected_outputs() {
-    static const std::vector<std::string> outputs = {"p", "statistic", "df", "n", "table", "report"};
-    return outputs;
-}
-
 TestResult compare_counts(const ContingencyTable& table, const std::string& method_keyword) {
-    const std::string method = match_keyword(method_keyword, count_methods(), "method");
+    const std::string method = count_methods().match(method_keyword, "method", "chi-square");
     const std::size_t R = table.counts.size(), C = R ? table.counts.front().size() : 0;
     if (R < 2 || C < 2)
         throw Refusal("needs at least 2 rows and 2 columns of categories, found " + std::to_string(R) + "x" +

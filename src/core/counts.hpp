@@ -30,10 +30,7 @@ ContingencyTable read_count_block(const Range& block);
 ContingencyTable cross_tabulate(const Range& labels1, const Range& labels2);
 
 // The methods of COMPARE.COUNTS, default first.
-const std::vector<std::string>& count_methods();
 // The outputs COMPARE.COUNTS and COMPARE.EXPECTED accept.
-const std::vector<std::string>& count_outputs();
-const std::vector<std::string>& expected_outputs();
 
 // Test of association on an r×c table by `method`: chi-square, yates, g, fisher.
 TestResult compare_counts(const ContingencyTable& table, const std::string& method);

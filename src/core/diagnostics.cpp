@@ -101,10 +101,9 @@ Table fit_points_table(const LinearModel& m, const RegressionData& data, const s
     const Influence inf = influence_measures(m);
     const std::vector<const std::vector<double>*> columns = {&m.fitted,      &m.residuals, &inf.standardized,
                                                              &inf.studentized, &m.leverage, &inf.cooks};
-    const auto& keys = point_columns();
-    if (!what.empty()) {
-        const std::size_t c = static_cast<std::size_t>(std::find(keys.begin(), keys.end(), what) - keys.begin());
-        if (c >= keys.size()) throw Refusal("unknown what '" + what + "'; valid: " + join(keys));
+    if (!output.empty()) {
+        // The columns above keep the order of the keyword table point_outputs().
+        const std::size_t c = point_outputs().index(output, "output");
         Table t(data.rows, std::vector<CellValue>(1));
         for (std::size_t i = 0; i < m.n; ++i) t[data.used_rows[i]][0] = number_or_blank((*columns[c])[i]);
         return t;

@@ -28,7 +28,7 @@ const std::vector<std::string>& point_headers();
 // FIT.POINTS: `what` empty gives all six columns under a header row (in place of the input's
 // header row when it has one, else on top); a keyword gives that column alone with exactly the
 // input's rows. Rows not used stay blank.
-Table fit_points_table(const LinearModel& model, const RegressionData& data, const std::string& what);
+Table fit_points_table(const LinearModel& model, const RegressionData& data, const std::string& output);
 
 // The numbers behind CHECK.REGRESSION's rows (NaN where a check could not be computed; `*_note`
 // then says why).

@@ -130,8 +130,8 @@ FactorialData read_factorial_data(const Range& values, const Range& factor1, con
     return d;
 }
 
-FactorialAnova fit_factorial(const FactorialData& d, int sstype) {
-    if (sstype != 2 && sstype != 3) throw Refusal("sstype must be 2 (Type II) or 3 (Type III)");
+FactorialAnova fit_factorial(const FactorialData& d, int sums) {
+    if (sums != 2 && sums != 3) throw Refusal("sums must be type-2 or type-3");
     const std::size_t n = d.y.size(), a = d.first_levels.size(), b = d.second_levels.size();
     if (n == 0) throw Refusal("no row has a value and both factor labels");
     auto one_level = [](const std::string& argument, const std::vector<std::string>& levels) {
@@ -160,10 +160,10 @@ FactorialAnova fit_factorial(const FactorialData& d, int sstype) {
         for (std::size_t j = 0; j < b; ++j) {
             if (!cell_values[i * b + j].empty()) continue;
             ++empty_cells;
-            if (sstype == 3)
+            if (sums == 3)
                 throw Refusal("no observations for " + d.first_name + " = " + d.first_levels[i] + " with " + d.second_name +
                               " = " + d.second_levels[j] +
-                              "; Type III sums of squares compare means of every combination, so each needs data (use sstype 2)");
+                              "; Type III sums of squares compare means of every combination, so each needs data (use sums type-2)");
         }
     const std::size_t cells = a * b - empty_cells;
     std::vector<std::size_t> cell_first, cell_second;
@@ -183,7 +183,7 @@ FactorialAnova fit_factorial(const FactorialData& d, int sstype) {
         }
 
     FactorialAnova anova;
-    anova.sstype = sstype;
+    anova.sums = sums;
     anova.n = double(n);
     anova.n_dropped = double(d.n_dropped);
     anova.residual.source = "residual";
@@ -211,7 +211,7 @@ FactorialAnova fit_factorial(const FactorialData& d, int sstype) {
     const LeastSquares additive = fit({&A, &B});
 
     const std::string interaction = d.first_name + " × " + d.second_name;
-    if (sstype == 2) {
+    if (sums == 2) {
         // Type II: SS(A | B), SS(B | A), SS(AB | A, B) (Langsrud 2003, Statistics and Computing 13, 163–167).
         const LeastSquares only_first = fit({&A});
         const LeastSquares only_second = fit({&B});
@@ -231,11 +231,6 @@ FactorialAnova fit_factorial(const FactorialData& d, int sstype) {
     finish(anova.second, anova.residual);
     finish(anova.interaction, anova.residual);
     return anova;
-}
-
-const std::vector<std::string>& factorial_outputs() {
-    static const std::vector<std::string> outputs = {"table", "p-first", "p-second", "p-interaction"};
-    return outputs;
 }
 
 Table factorial_table(const FactorialAnova& anova) {

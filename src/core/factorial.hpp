@@ -28,18 +28,17 @@ struct AnovaRow {
 
 struct FactorialAnova {
     AnovaRow first, second, interaction, residual;
-    int sstype = 2;
+    int sums = 2;  // type of the sums of squares: 2 or 3
     double n = 0, n_dropped = 0;
 };
 
-// `sstype` 2 (Type II: each main effect adjusted for the other, the interaction for both) or 3
+// `sums` 2 (`type-2`, Type II: each main effect adjusted for the other, the interaction for both) or 3
 // (Type III: each effect adjusted for all others, sum-to-zero contrasts). Type III refuses a design
 // with an empty combination of levels; both refuse a factor with one level, no replication, and no
 // spread within the combinations.
-FactorialAnova fit_factorial(const FactorialData& data, int sstype);
+FactorialAnova fit_factorial(const FactorialData& data, int sums);
 
 // The outputs of FIT.FACTORIAL: table (default), p-first, p-second, p-interaction.
-const std::vector<std::string>& factorial_outputs();
 // Header source | SS | df | MS | F | p | partial η², then the first factor, the second, their
 // interaction and the residual (SS, df and MS only).
 Table factorial_table(const FactorialAnova& anova);

@@ -123,8 +123,9 @@ Table LettersResult::table() const {
     return t;
 }
 
-LettersResult compare_letters(const Groups& groups, PosthocMethod method, double level, Transform transform) {
-    const PosthocResult pairs = compare_posthoc(groups, method, std::nullopt, transform, level);
+LettersResult compare_letters(const Groups& groups, PosthocMethod method, std::optional<Adjustment> adjust,
+                              Transform transform, double level) {
+    const PosthocResult pairs = compare_posthoc(groups, method, adjust, transform, level);
     const std::size_t k = groups.group_count();
     LettersResult r;
     r.groups = groups.names;

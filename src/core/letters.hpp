@@ -31,8 +31,9 @@ struct LettersResult {
     Table table() const;
 };
 
-// The post-hoc `method` at `level` with its default adjustment; a pair differs when its adjusted
+// The post-hoc `method` at `level` with `adjust` (its default when empty); a pair differs when its adjusted
 // p is below 1 − level.
-LettersResult compare_letters(const Groups& groups, PosthocMethod method, double level, Transform transform);
+LettersResult compare_letters(const Groups& groups, PosthocMethod method, std::optional<Adjustment> adjust,
+                              Transform transform, double level);
 
 }  // namespace quadrat

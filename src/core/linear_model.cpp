@@ -430,12 +430,6 @@ RegressionData read_regression(const Range& y, const Range& xs) {
     return d;
 }
 
-const std::vector<std::string>& linear_outputs() {
-    static const std::vector<std::string> keys = {"coefficients", "model",     "r-squared",   "p",
-                                                  "slope",        "intercept", "residual-sd", "report"};
-    return keys;
-}
-
 namespace {
 CellValue number_or_blank(double x) {
     if (std::isfinite(x)) return x;

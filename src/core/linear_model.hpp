@@ -88,7 +88,6 @@ struct RegressionData {
 RegressionData read_regression(const Range& y, const Range& xs);
 
 // FIT.LINEAR's output keywords, default first.
-const std::vector<std::string>& linear_outputs();
 
 // The `coefficients` table: header, then one row per term.
 Table coefficient_table(const LinearModel& model, double level);
@@ -97,7 +96,7 @@ Table coefficient_table(const LinearModel& model, double level);
 // report sentence.
 TestResult model_summary(const LinearModel& model, std::size_t n_dropped, double level);
 
-// What FIT.LINEAR shows for `output` (already matched against linear_outputs()).
+// What FIT.LINEAR shows for `output` (already matched against the keyword table linear_outputs()).
 Table linear_output(const LinearModel& model, std::size_t n_dropped, const std::string& output, double level);
 
 }  // namespace quadrat

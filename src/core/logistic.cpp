@@ -358,11 +358,6 @@ LogisticFit fit_logistic(const LogisticData& d) {
     return fit;
 }
 
-const std::vector<std::string>& logistic_outputs() {
-    static const std::vector<std::string> outputs = {"coefficients", "model"};
-    return outputs;
-}
-
 Table logistic_coefficients(const LogisticFit& fit, double level) {
     const boost::math::normal_distribution<double> normal;
     const double z_crit = boost::math::quantile(boost::math::complement(normal, (1 - level) / 2));

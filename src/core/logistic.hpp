@@ -49,7 +49,6 @@ struct LogisticFit {
 LogisticFit fit_logistic(const LogisticData& data);
 
 // The outputs of FIT.LOGISTIC.
-const std::vector<std::string>& logistic_outputs();
 // `coefficients`: header row, then term, estimate, std. error, z, p, odds ratio, OR ci-low,
 // OR ci-high (Wald interval at `level`) for the intercept and each predictor.
 Table logistic_coefficients(const LogisticFit& fit, double level);

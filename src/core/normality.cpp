@@ -382,19 +382,13 @@ TestResult jarque_bera(std::span<const double> values) {
     return r;
 }
 
-const std::vector<std::string>& normality_methods() {
-    static const std::vector<std::string> methods = {"shapiro-wilk", "shapiro-francia", "anderson-darling",
-                                                     "lilliefors",   "dagostino",       "jarque-bera"};
-    return methods;
-}
-
 TestResult normality_test(std::span<const double> values, const std::string& method) {
-    const std::string m = match_keyword(method, normality_methods(), "method");
+    const std::string m = normality_methods().match(method, "method", "shapiro-wilk");
     if (m == "shapiro-wilk") return shapiro_wilk(values);
     if (m == "shapiro-francia") return shapiro_francia(values);
     if (m == "anderson-darling") return anderson_darling(values);
     if (m == "lilliefors") return lilliefors(values);
-    if (m == "dagostino") return dagostino(values);
+    if (m == "dagostino-pearson") return dagostino(values);
     return jarque_bera(values);
 }
 
@@ -415,7 +409,7 @@ std::vector<double> residuals_from_group_means(const Groups& groups) {
 }
 
 TestResult check_normal(const Groups& groups, const std::string& method) {
-    const std::string m = match_keyword(method, normality_methods(), "method");
+    const std::string m = normality_methods().match(method, "method", "shapiro-wilk");
     if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     std::size_t filled = 0;
     for (const auto& g : groups.values) filled += g.empty() ? 0 : 1;

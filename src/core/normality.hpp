@@ -38,7 +38,6 @@ TestResult dagostino(std::span<const double> values);
 TestResult jarque_bera(std::span<const double> values);
 
 // CHECK.NORMAL's methods in catalogue order (the first is the default).
-const std::vector<std::string>& normality_methods();
 // One method by its catalogue keyword.
 TestResult normality_test(std::span<const double> values, const std::string& method);
 

@@ -241,13 +241,13 @@ void replace_number(TestResult& r, const std::string& label, double value) {
 }
 
 std::string scale_words(Transform t) {
-    return t == Transform::log1p ? "the log(x+1) scale" : "the " + transform_keyword(t) + " scale";
+    return t == Transform::log_plus_one ? "the log(x+1) scale" : "the " + transform_keyword(t) + " scale";
 }
 
 }  // namespace
 
 TestResult compare_groups(const Groups& g, const std::string& method_given, Transform transform, double level) {
-    const std::string method = match_keyword(method_given, {"welch", "pooled", "ranks"}, "method");
+    const std::string method = location_methods().match(method_given, "method", "welch");
     const std::size_t k = g.group_count();
     if (g.n_used == 0) throw Refusal(no_usable_rows(g));
     if (k < 2)

@@ -226,7 +226,7 @@ void replace_number(TestResult& r, const std::string& label, double value) {
 
 TestResult compare_paired(const PairedReadings& readings, const std::string& method_given, Transform transform,
                           double level) {
-    const std::string method = match_keyword(method_given, {"t", "signed-rank", "sign"}, "method");
+    const std::string method = paired_methods().match(method_given, "method", "t");
     std::vector<double> first = readings.first, second = readings.second;
     double reference = readings.reference_value;
     if (!readings.one_sample && first.size() != second.size())
@@ -267,7 +267,7 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
     const std::string direction = readings.first_name + (ratio ? " ÷ " : " − ") + second_name;
     if (ratio)
         for (const char* label : {"estimate", "ci-low", "ci-high"}) replace_number(r, label, back_transform(transform, r.number(label)));
-    const std::string scale = transform == Transform::log1p ? "the log(x+1) scale" : "the " + transform_keyword(transform) + " scale";
+    const std::string scale = transform == Transform::log_plus_one ? "the log(x+1) scale" : "the " + transform_keyword(transform) + " scale";
     if (transform != Transform::none)
         r.add("transform", transform_keyword(transform) + ": the test ran on transformed values; the estimate and interval are " +
                                (ratio ? "a ratio (" + direction + ")" : "the " + r.words.estimate + " on " + scale));
@@ -290,6 +290,35 @@ TestResult compare_paired(const PairedReadings& readings, const std::string& met
 
     mark_non_finite(r);
     return r;
+}
+
+PairedReadings read_paired(const Range& first, const Range& second) {
+    if (second.empty() || (second.cells.size() == 1 && (second.cells.front().kind == CellKind::empty ||
+                                                        (second.cells.front().kind == CellKind::text &&
+                                                         second.cells.front().text.empty()))))
+        throw Refusal("second is missing: give the second reading of each pair, or a number for a one-sample test");
+    PairedReadings readings;
+    if (second.cells.size() == 1) {
+        const Cell& c = second.cells.front();
+        if (c.kind != CellKind::number) throw Refusal("second must be a range of readings or a single number");
+        const Column column = read_column(first, "first");
+        readings.one_sample = true;
+        readings.reference_value = c.number;
+        readings.first = column.values;
+        readings.n_dropped = column.n_dropped;
+        if (!column.name.empty()) readings.first_name = column.name;
+        return readings;
+    }
+    if (first.columns != 1 || second.columns != 1)
+        throw Refusal("first and second must each be one column (found " + std::to_string(first.columns) + " and " +
+                      std::to_string(second.columns) + ")");
+    Frame f = read_frame({{&first, ColumnKind::numeric, "first"}, {&second, ColumnKind::numeric, "second"}});
+    readings.first = std::move(f.numbers[0]);
+    readings.second = std::move(f.numbers[1]);
+    readings.n_dropped = f.n_dropped;
+    if (!f.names[0].empty()) readings.first_name = f.names[0];
+    if (!f.names[1].empty()) readings.second_name = f.names[1];
+    return readings;
 }
 
 }  // namespace quadrat

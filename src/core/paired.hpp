@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "cells.hpp"
 #include "result.hpp"
 #include "transform.hpp"
 
@@ -47,5 +48,9 @@ struct PairedReadings {
 // methods, the two sides' means (medians for rank methods) and the report sentence.
 TestResult compare_paired(const PairedReadings& readings, const std::string& method, Transform transform,
                           double level = 0.95);
+
+// COMPARE.PAIRED's cells: `second` a column of readings beside `first`, or a single number that
+// makes it a one-sample test against that value.
+PairedReadings read_paired(const Range& first, const Range& second);
 
 }  // namespace quadrat

@@ -16,18 +16,12 @@
 
 namespace quadrat {
 
-const std::vector<std::string>& posthoc_keywords() {
-    static const std::vector<std::string> keys = {"tukey", "games-howell", "dunn", "t-pairs", "rank-pairs"};
-    return keys;
-}
-
+// PosthocMethod keeps the order of the keyword table posthoc_methods().
 PosthocMethod parse_posthoc_method(const std::string& keyword) {
-    const std::string key = match_keyword(keyword, posthoc_keywords(), "method");
-    const auto& keys = posthoc_keywords();
-    return static_cast<PosthocMethod>(std::find(keys.begin(), keys.end(), key) - keys.begin());
+    return static_cast<PosthocMethod>(posthoc_methods().index(keyword, "method"));
 }
 
-bool is_rank_method(PosthocMethod method) { return method == PosthocMethod::dunn || method == PosthocMethod::rank_pairs; }
+bool is_rank_method(PosthocMethod method) { return method == PosthocMethod::dunn || method == PosthocMethod::pairwise_ranks; }
 
 bool is_family_adjusted(PosthocMethod method) {
     return method == PosthocMethod::tukey || method == PosthocMethod::games_howell;
@@ -188,11 +182,11 @@ void pairwise_tests(const Groups& g, const GroupValues& x, PosthocMethod method,
                     std::vector<PairComparison>& pairs) {
     for (std::size_t i = 0; i < x.size(); ++i)
         if (x[i].size() < 2)
-            throw Refusal(posthoc_keywords()[static_cast<std::size_t>(method)] +
+            throw Refusal(posthoc_methods().words()[static_cast<std::size_t>(method)].word +
                           " needs at least 2 values in each group; " + quoted(g.names[i]) + " has " +
                           std::to_string(x[i].size()));
     for (auto& c : pairs) {
-        const TestResult r = method == PosthocMethod::t_pairs ? welch_t_test(x[c.first], x[c.second], level)
+        const TestResult r = method == PosthocMethod::pairwise_t ? welch_t_test(x[c.first], x[c.second], level)
                                                               : rank_sum_test(x[c.first], x[c.second], level);
         c.statistic = r.number("statistic");
         c.p = r.number("p");
@@ -212,8 +206,8 @@ std::string method_name(PosthocMethod method) {
         case PosthocMethod::tukey: return "Tukey–Kramer pairwise comparisons (studentized range)";
         case PosthocMethod::games_howell: return "Games–Howell pairwise comparisons (studentized range, Welch df)";
         case PosthocMethod::dunn: return "Dunn pairwise comparisons of mean ranks (tie-corrected)";
-        case PosthocMethod::t_pairs: return "pairwise Welch t-tests";
-        case PosthocMethod::rank_pairs: return "pairwise Wilcoxon–Mann–Whitney rank-sum tests";
+        case PosthocMethod::pairwise_t: return "pairwise Welch t-tests";
+        case PosthocMethod::pairwise_ranks: return "pairwise Wilcoxon–Mann–Whitney rank-sum tests";
     }
     return {};
 }
@@ -245,8 +239,8 @@ PosthocResult compare_posthoc(const Groups& groups, PosthocMethod method, std::o
         case PosthocMethod::tukey: tukey_kramer(x, transform, level, result.pairs); break;
         case PosthocMethod::games_howell: games_howell(groups, x, transform, level, result.pairs); break;
         case PosthocMethod::dunn: dunn(x, level, result.pairs); break;
-        case PosthocMethod::t_pairs:
-        case PosthocMethod::rank_pairs: pairwise_tests(groups, x, method, transform, level, result.pairs); break;
+        case PosthocMethod::pairwise_t:
+        case PosthocMethod::pairwise_ranks: pairwise_tests(groups, x, method, transform, level, result.pairs); break;
     }
 
     result.test = method_name(method);

@@ -14,10 +14,9 @@
 
 namespace quadrat {
 
-enum class PosthocMethod { tukey, games_howell, dunn, t_pairs, rank_pairs };
+enum class PosthocMethod { tukey, games_howell, dunn, pairwise_t, pairwise_ranks };
 
 // tukey (default), games-howell, dunn, t-pairs, rank-pairs.
-const std::vector<std::string>& posthoc_keywords();
 PosthocMethod parse_posthoc_method(const std::string& keyword);
 // dunn and rank-pairs compare ranks: their groups are summarized by medians.
 bool is_rank_method(PosthocMethod method);
@@ -50,7 +49,7 @@ struct PosthocResult {
 // All pairs of the groups by `method`. `adjust` is the adjustment of p for dunn, t-pairs and
 // rank-pairs (holm when empty); tukey and games-howell are adjusted for the family already and
 // show their p twice. The transform is applied first; estimates and limits are back-transformed
-// to ratios for log and log10 and stay on the transformed scale for log1p and sqrt.
+// to ratios for log and log10 and stay on the transformed scale for log(x+1) and sqrt.
 PosthocResult compare_posthoc(const Groups& groups, PosthocMethod method, std::optional<Adjustment> adjust,
                               Transform transform, double level);
 

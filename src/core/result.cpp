@@ -42,8 +42,8 @@ Table TestResult::table() const {
     return t;
 }
 
-Table select_output(const TestResult& result, const std::string& output, const std::vector<std::string>& allowed) {
-    const std::string key = match_keyword(output, allowed, "output");
+Table select_output(const TestResult& result, const std::string& output, const KeywordTable& allowed) {
+    const std::string key = allowed.match(output, "output", allowed.words().front().word);
     if (key == "table") return result.table();
     if (key == "report") {
         if (!result.words.shown && result.report.empty())

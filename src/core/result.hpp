@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "cells.hpp"
+#include "keywords.hpp"
 
 namespace quadrat {
 
@@ -61,17 +62,10 @@ struct TestResult {
     Table table() const;
 };
 
-// The output keywords shared by every test function (FUNCTIONS.md, "Outputs").
-inline const std::vector<std::string>& standard_outputs() {
-    static const std::vector<std::string> keys = {"p",       "statistic", "df",     "df2",   "n",     "estimate",
-                                                  "ci-low", "ci-high",   "effect", "table", "report"};
-    return keys;
-}
-
 // What a cell shows for `output`: a quantity's value, the whole table, or the report. `allowed`
 // lists the keywords this function accepts (in the order a refusal lists them); an output that is
 // allowed but that this particular result does not have is a refusal that says so.
-Table select_output(const TestResult& result, const std::string& output, const std::vector<std::string>& allowed);
+Table select_output(const TestResult& result, const std::string& output, const KeywordTable& allowed);
 
 // A 1×1 table.
 inline Table single(CellValue v) { return Table{{std::move(v)}}; }

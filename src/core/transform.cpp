@@ -7,30 +7,10 @@
 
 namespace quadrat {
 
-const std::vector<std::string>& transform_keywords() {
-    static const std::vector<std::string> keys = {"none", "log", "log10", "log1p", "sqrt"};
-    return keys;
-}
+// Transform keeps the order of the keyword table transforms().
+Transform parse_transform(const std::string& keyword) { return static_cast<Transform>(transforms().index(keyword, "transform")); }
 
-Transform parse_transform(const std::string& keyword) {
-    const std::string k = match_keyword(keyword, transform_keywords(), "transform");
-    if (k == "log") return Transform::log;
-    if (k == "log10") return Transform::log10;
-    if (k == "log1p") return Transform::log1p;
-    if (k == "sqrt") return Transform::sqrt;
-    return Transform::none;
-}
-
-std::string transform_keyword(Transform t) {
-    switch (t) {
-        case Transform::log: return "log";
-        case Transform::log10: return "log10";
-        case Transform::log1p: return "log1p";
-        case Transform::sqrt: return "sqrt";
-        case Transform::none: break;
-    }
-    return "none";
-}
+std::string transform_keyword(Transform t) { return transforms().words()[static_cast<std::size_t>(t)].word; }
 
 namespace {
 // The domain of each transform, and the words of its refusal.
@@ -38,7 +18,7 @@ bool in_domain(Transform t, double x) {
     switch (t) {
         case Transform::log:
         case Transform::log10: return x > 0;
-        case Transform::log1p: return x > -1;
+        case Transform::log_plus_one: return x > -1;
         case Transform::sqrt: return x >= 0;
         case Transform::none: break;
     }
@@ -49,7 +29,7 @@ const char* domain_words(Transform t) {
     switch (t) {
         case Transform::log:
         case Transform::log10: return "values > 0";
-        case Transform::log1p: return "values > -1";
+        case Transform::log_plus_one: return "values > -1";
         case Transform::sqrt: return "values >= 0";
         case Transform::none: break;
     }
@@ -60,7 +40,7 @@ double forward(Transform t, double x) {
     switch (t) {
         case Transform::log: return std::log(x);
         case Transform::log10: return std::log10(x);
-        case Transform::log1p: return std::log1p(x);
+        case Transform::log_plus_one: return std::log1p(x);
         case Transform::sqrt: return std::sqrt(x);
         case Transform::none: break;
     }
@@ -90,7 +70,7 @@ double back_transform(Transform t, double x) {
     switch (t) {
         case Transform::log: return std::exp(x);
         case Transform::log10: return std::pow(10.0, x);
-        case Transform::log1p: return std::expm1(x);
+        case Transform::log_plus_one: return std::expm1(x);
         case Transform::sqrt: return x * x;
         case Transform::none: break;
     }

@@ -6,12 +6,11 @@
 
 namespace quadrat {
 
-enum class Transform { none, log, log10, log1p, sqrt };
+enum class Transform { none, log, log10, log_plus_one, sqrt };  // order of transforms()
 
-// Parses the keyword (none, log, log10, log1p, sqrt; case-insensitive; blank is none).
+// Parses the keyword (none, log, log10, log(x+1), sqrt; case-insensitive; blank is none).
 Transform parse_transform(const std::string& keyword);
 std::string transform_keyword(Transform t);
-const std::vector<std::string>& transform_keywords();
 
 // Applies the transform in place to every group. A value the transform cannot take is a
 // refusal naming how many cells: "transform 'log' needs values > 0; 3 values are <= 0".
@@ -19,7 +18,7 @@ void apply_transform(Transform t, std::vector<std::vector<double>>& groups);
 void apply_transform(Transform t, std::vector<double>& values);
 
 // Back to the data's scale: exp / 10^ for the logs (a mean becomes a geometric mean; a difference
-// of means becomes a ratio), x² for sqrt, e^x − 1 for log1p. Only meaningful for location values.
+// of means becomes a ratio), x² for sqrt, e^x − 1 for log(x+1). Only meaningful for location values.
 double back_transform(Transform t, double x);
 
 // True for log and log10, whose differences back-transform to ratios.

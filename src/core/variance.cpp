@@ -124,13 +124,8 @@ double log_sum_exp(const std::vector<double>& terms) {
 
 }  // namespace
 
-const std::vector<std::string>& variance_methods() {
-    static const std::vector<std::string> methods = {"brown-forsythe", "levene", "bartlett", "fligner", "f-ratio"};
-    return methods;
-}
-
 TestResult check_variance(const Groups& groups, const std::string& method) {
-    const std::string m = match_keyword(method, variance_methods(), "method");
+    const std::string m = variance_methods().match(method, "method", "brown-forsythe");
     const std::size_t k = groups.group_count();
     const std::string labels_are = groups.wide ? "values has " + std::to_string(k) + " columns (" + join(groups.names) + ")"
                                                : "groups has " + std::to_string(k) + (k == 1 ? " label (" : " labels (") +

@@ -13,7 +13,6 @@
 namespace quadrat {
 
 // CHECK.VARIANCE's methods in catalogue order (the first is the default).
-const std::vector<std::string>& variance_methods();
 
 // One method by its keyword, with the catalogue's table rows: statistic, df (and df2 for the F
 // tests), p, n, n dropped, then `<group>: n` and `<group>: variance` for each group and

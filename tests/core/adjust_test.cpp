@@ -21,7 +21,7 @@ TEST(AdjustP, AgreesWithStatsmodels) {
     const auto ref = reference();
     for (const auto& c : ref["adjust"]) {
         const std::vector<double> p = c["p"].get<std::vector<double>>();
-        for (const auto& keyword : adjustment_keywords()) {
+        for (const auto& keyword : adjustment_methods().list()) {
             const std::vector<double> expected = c["adjusted"][keyword].get<std::vector<double>>();
             const std::vector<double> got = adjust_p(p, parse_adjustment(keyword));
             ASSERT_EQ(got.size(), expected.size());
@@ -47,7 +47,7 @@ TEST(AdjustP, PublishedDefinitionsByHand) {
     EXPECT_NEAR(hochberg[1], 0.04, 1e-15);
     EXPECT_NEAR(hochberg[2], 0.04, 1e-15);
     // Benjamini & Hochberg (1995), JRSS B 57, 289–300, step-up m·p(i)/i: (0.03, 0.04, 0.04).
-    const auto bh = adjust_p(p, Adjustment::bh);
+    const auto bh = adjust_p(p, Adjustment::benjamini_hochberg);
     EXPECT_NEAR(bh[0], 0.03, 1e-15);
     EXPECT_NEAR(bh[1], 0.04, 1e-15);
     EXPECT_NEAR(bh[2], 0.04, 1e-15);
@@ -62,7 +62,7 @@ TEST(AdjustP, PublishedDefinitionsByHand) {
 // an adjusted p never falls below its p and never exceeds 1.
 TEST(AdjustP, ZeroAndOneAndBounds) {
     const std::vector<double> p = {0.0, 1.0, 0.2, 0.2, 0.9};
-    for (const auto& keyword : adjustment_keywords()) {
+    for (const auto& keyword : adjustment_methods().list()) {
         const auto q = adjust_p(p, parse_adjustment(keyword));
         EXPECT_EQ(q[0], 0.0) << keyword;
         EXPECT_EQ(q[1], 1.0) << keyword;
@@ -76,11 +76,11 @@ TEST(AdjustP, ZeroAndOneAndBounds) {
 
 TEST(AdjustP, RefusesOutsideZeroOneAndUnknownMethod) {
     EXPECT_THROW(adjust_p(std::vector<double>{0.2, 1.5}, Adjustment::holm), Refusal);
-    EXPECT_THROW(adjust_p(std::vector<double>{-0.01}, Adjustment::bh), Refusal);
-    EXPECT_THROW(adjust_p(std::vector<double>{std::nan("")}, Adjustment::bh), Refusal);
+    EXPECT_THROW(adjust_p(std::vector<double>{-0.01}, Adjustment::benjamini_hochberg), Refusal);
+    EXPECT_THROW(adjust_p(std::vector<double>{std::nan("")}, Adjustment::benjamini_hochberg), Refusal);
     EXPECT_THROW(parse_adjustment("fdr"), Refusal);
     EXPECT_EQ(parse_adjustment(""), Adjustment::holm);
-    EXPECT_EQ(parse_adjustment("BH"), Adjustment::bh);
+    EXPECT_EQ(parse_adjustment("Benjamini-Hochberg"), Adjustment::benjamini_hochberg);
     EXPECT_TRUE(adjust_p(std::vector<double>{}, Adjustment::hommel).empty());
     EXPECT_THROW(adjust_p(std::vector<double>(hommel_limit + 1, 0.5), Adjustment::hommel), Refusal);
 }

@@ -10,29 +10,17 @@
 #include <vector>
 
 #include "addin/registry.hpp"
+#include "cell_calls.hpp"
 #include "core/cells.hpp"
 #include "core/normality.hpp"
 
 namespace quadrat::addin {
 namespace {
 
-Range keyword(const std::string& text) { return Range::scalar(Cell::make_text(text)); }
-Range omitted() { return Range::omitted_argument(); }
+using namespace quadrat::test_support;
+// The cell helpers, not the declaration helpers of the same names (declare.hpp).
+using quadrat::test_support::keyword;
 
-Table call(const char* method, const Arguments& arguments) {
-    const FunctionInfo* f = find_function(method);
-    EXPECT_NE(f, nullptr) << method;
-    return call_fenced(*f, arguments);
-}
-
-std::string text_of(const Table& t) {
-    if (t.size() != 1 || t[0].size() != 1 || !std::holds_alternative<std::string>(t[0][0])) return "(not a single text)";
-    return std::get<std::string>(t[0][0]);
-}
-double number_of(const Table& t) {
-    if (t.size() != 1 || t[0].size() != 1 || !std::holds_alternative<double>(t[0][0])) return NAN;
-    return std::get<double>(t[0][0]);
-}
 
 // Invented: conductivity (µS/cm) at two springs, with a header row and one missing reading.
 Range conductivity() {
@@ -47,7 +35,7 @@ Range springs() {
 }
 
 TEST(CheckNormalCell, DefaultIsShapiroWilkP) {
-    const Table t = call("checkNormal", {conductivity(), omitted(), omitted(), omitted()});
+    const Table t = call("checkNormal", {conductivity(), omitted, omitted, omitted});
     const std::vector<double> used = {412, 398, 420, 405, 415, 388, 402, 377, 395, 366, 380};
     // Same computation as the core (tests/core/normality_test.cpp checks the core's numbers).
     EXPECT_DOUBLE_EQ(number_of(t), shapiro_wilk(used).number("p"));
@@ -71,25 +59,25 @@ TEST(CheckNormalCell, TableWithGroupsHasPerGroupRows) {
 }
 
 TEST(CheckNormalCell, EveryMethodAndOutput) {
-    for (const char* method : {"shapiro-wilk", "shapiro-francia", "anderson-darling", "lilliefors", "dagostino", "jarque-bera"}) {
+    for (const char* method : {"shapiro-wilk", "shapiro-francia", "anderson-darling", "lilliefors", "dagostino-pearson", "jarque-bera"}) {
         for (const char* output : {"p", "statistic", "n"}) {
-            const double x = number_of(call("checkNormal", {conductivity(), omitted(), keyword(method), keyword(output)}));
+            const double x = number_of(call("checkNormal", {conductivity(), omitted, keyword(method), keyword(output)}));
             EXPECT_TRUE(std::isfinite(x)) << method << " " << output;
         }
-        const std::string report = text_of(call("checkNormal", {conductivity(), omitted(), keyword(method), keyword("report")}));
+        const std::string report = text_of(call("checkNormal", {conductivity(), omitted, keyword(method), keyword("report")}));
         EXPECT_NE(report.find("p = "), std::string::npos) << report;
     }
-    EXPECT_EQ(number_of(call("checkNormal", {conductivity(), omitted(), keyword("dagostino"), keyword("df")})), 2);
-    EXPECT_EQ(text_of(call("checkNormal", {conductivity(), omitted(), omitted(), keyword("df")})),
+    EXPECT_EQ(number_of(call("checkNormal", {conductivity(), omitted, keyword("dagostino-pearson"), keyword("df")})), 2);
+    EXPECT_EQ(text_of(call("checkNormal", {conductivity(), omitted, omitted, keyword("df")})),
               "output 'df' is not available for Shapiro–Wilk normality test");
 }
 
 TEST(CheckNormalCell, Refusals) {
-    EXPECT_EQ(text_of(call("checkNormal", {Range::column({1, 2}), omitted(), omitted(), omitted()})),
+    EXPECT_EQ(text_of(call("checkNormal", {Range::column({1, 2}), omitted, omitted, omitted})),
               "needs 3 to 5000 values, found 2");
-    EXPECT_EQ(text_of(call("checkNormal", {Range::column({5, 5, 5, 5}), omitted(), omitted(), omitted()})),
+    EXPECT_EQ(text_of(call("checkNormal", {Range::column({5, 5, 5, 5}), omitted, omitted, omitted})),
               "all 4 values are equal: a normality test needs values that vary");
-    const std::string unknown = text_of(call("checkNormal", {conductivity(), omitted(), keyword("kolmogorov"), omitted()}));
+    const std::string unknown = text_of(call("checkNormal", {conductivity(), omitted, keyword("kolmogorov"), omitted}));
     EXPECT_NE(unknown.find("shapiro-wilk"), std::string::npos) << unknown;
 }
 
@@ -98,16 +86,16 @@ TEST(CheckNormalCell, WideFormatTestsResidualsFromColumnMeans) {
     wide.rows = 5;
     wide.columns = 2;
     for (double x : {1.0, 10.0, 2.0, 12.0, 4.0, 11.0, 3.0, 15.0, 7.0, 13.0}) wide.cells.push_back(Cell::make_number(x));
-    const Table t = call("checkNormal", {wide, omitted(), omitted(), keyword("n")});
+    const Table t = call("checkNormal", {wide, omitted, omitted, keyword("n")});
     EXPECT_EQ(number_of(t), 10);
 }
 
 TEST(CheckVarianceCell, DefaultIsBrownForsytheP) {
-    const Table p = call("checkVariance", {conductivity(), springs(), omitted(), omitted()});
+    const Table p = call("checkVariance", {conductivity(), springs(), omitted, omitted});
     const Table f = call("checkVariance", {conductivity(), springs(), keyword("brown-forsythe"), keyword("p")});
     EXPECT_TRUE(std::isfinite(number_of(p)));
     EXPECT_EQ(number_of(p), number_of(f));
-    EXPECT_EQ(number_of(call("checkVariance", {conductivity(), springs(), omitted(), keyword("df2")})), 9);
+    EXPECT_EQ(number_of(call("checkVariance", {conductivity(), springs(), omitted, keyword("df2")})), 9);
     const Table t = call("checkVariance", {conductivity(), springs(), keyword("F-RATIO"), keyword("table")});
     ASSERT_EQ(t.size(), 2u + 6u + 4u + 1u);  // header, test, statistic, df, df2, p, n, n dropped, 2 × (n, variance), ratio
     EXPECT_EQ(std::get<std::string>(t[8][0]), "east: n");
@@ -120,12 +108,12 @@ TEST(CheckVarianceCell, DefaultIsBrownForsytheP) {
 TEST(CheckVarianceCell, ThreeLabelsForFRatio) {
     const Range values = Range::column({1, 2, 3, 4, 5, 7, 2, 9, 4});
     const Range labels = Range::text_column({"high", "high", "high", "low", "low", "low", "mid", "mid", "mid"});
-    EXPECT_EQ(text_of(call("checkVariance", {values, labels, keyword("f-ratio"), omitted()})),
+    EXPECT_EQ(text_of(call("checkVariance", {values, labels, keyword("f-ratio"), omitted})),
               "groups has 3 labels (high, low, mid); method 'f-ratio' compares exactly 2");
 }
 
 TEST(CheckQQCell, RowAlignedTwoColumnsBlankBeyondN) {
-    const Table t = call("checkQq", {conductivity(), omitted()});
+    const Table t = call("checkQq", {conductivity(), omitted});
     ASSERT_EQ(t.size(), 13u);  // as many rows as the input range, header and missing row included
     for (const auto& row : t) ASSERT_EQ(row.size(), 2u);
     // Φ⁻¹ at the Blom position (1 − 3/8)/(11 + 1/4): scipy.special.ndtri in generate_normality.py
@@ -147,7 +135,7 @@ TEST(CheckQQCell, WideFormatIsRefused) {
     wide.rows = 3;
     wide.columns = 2;
     for (double x : {1.0, 10.0, 2.0, 12.0, 4.0, 11.0}) wide.cells.push_back(Cell::make_number(x));
-    EXPECT_NE(text_of(call("checkQq", {wide, omitted()})).find("one column"), std::string::npos);
+    EXPECT_NE(text_of(call("checkQq", {wide, omitted})).find("one column"), std::string::npos);
 }
 
 TEST(CheckQQCell, WithGroupsPlotsResiduals) {

@@ -6,32 +6,16 @@
 #include <random>
 
 #include "addin/registry.hpp"
+#include "cell_calls.hpp"
 #include "core/cells.hpp"
 
 namespace quadrat::addin {
 namespace {
 
-Range text(const std::string& s) { return Range::scalar(Cell::make_text(s)); }
-Range number(double x) { return Range::scalar(Cell::make_number(x)); }
-const Range omitted = Range::omitted_argument();
+using namespace quadrat::test_support;
+// The cell helpers, not the declaration helpers of the same names (declare.hpp).
+using quadrat::test_support::keyword;
 
-Table call(const char* method, const Arguments& a) {
-    const FunctionInfo* f = find_function(method);
-    EXPECT_NE(f, nullptr);
-    EXPECT_NE(f->handler, nullptr) << method << " has no handler";
-    return call_fenced(*f, a);
-}
-
-double number_of(const Table& t) {
-    EXPECT_EQ(t.size(), 1u);
-    if (t.size() != 1 || !std::holds_alternative<double>(t[0][0])) return std::nan("");
-    return std::get<double>(t[0][0]);
-}
-
-std::string text_of(const Table& t) {
-    if (t.size() != 1 || !std::holds_alternative<std::string>(t[0][0])) return "(not a text)";
-    return std::get<std::string>(t[0][0]);
-}
 
 // Long format with a header row, a dropped row (n/a) and an empty row: the catalogue's data rules.
 Range nitrate_values() {
@@ -50,8 +34,8 @@ TEST(CompareGroupsCell, DefaultIsWelchP) {
     EXPECT_GT(value, 0.0);
     EXPECT_LT(value, 1.0);
     // n counts used rows (8), n dropped the n/a row (1): FUNCTIONS.md "Missing data".
-    EXPECT_EQ(number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("n")})), 8);
-    const Table t = call("compareGroups", {nitrate_values(), nitrate_groups(), text("Pooled"), text("table")});
+    EXPECT_EQ(number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, keyword("n")})), 8);
+    const Table t = call("compareGroups", {nitrate_values(), nitrate_groups(), keyword("Pooled"), keyword("table")});
     ASSERT_GE(t.size(), 8u);
     EXPECT_EQ(std::get<std::string>(t[0][0]), "quantity");
     EXPECT_EQ(std::get<std::string>(t[1][1]), "Student's t-test (two groups, pooled variance)");
@@ -63,23 +47,23 @@ TEST(CompareGroupsCell, DefaultIsWelchP) {
 }
 
 TEST(CompareGroupsCell, RanksAndTransform) {
-    const double u = number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), text("ranks"), text("statistic")}));
+    const double u = number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), keyword("ranks"), keyword("statistic")}));
     // U₁ of {1.2,1.4,1.1,1.6} against {0.8,0.7,0.9,1.0}: every "up" value beats every "down" one, U₁ = 16 (by hand).
     EXPECT_EQ(u, 16.0);
-    const double ratio = number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("estimate"), text("log")}));
+    const double ratio = number_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, keyword("estimate"), keyword("log")}));
     EXPECT_GT(ratio, 1.0);
 }
 
 TEST(CompareGroupsCell, Refusals) {
-    EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), text("anova")})),
+    EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), keyword("anova")})),
               "unknown method 'anova'; valid: welch, pooled, ranks");
-    EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("slope")})).rfind("unknown output", 0), 0u);
+    EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, keyword("slope")})).rfind("unknown output", 0), 0u);
     Range one = Range::text_column({"site", "up", "up", "up", "up", "up", "up", "up", "up", "up"});
     EXPECT_EQ(text_of(call("compareGroups", {nitrate_values(), one})).rfind("needs at least 2 groups", 0), 0u);
     // A refusal, never a number, when the transform cannot take a value.
     Range with_zero = nitrate_values();
     with_zero.cells[1] = Cell::make_number(0.0);
-    EXPECT_EQ(text_of(call("compareGroups", {with_zero, nitrate_groups(), omitted, omitted, text("log")})).rfind("transform 'log'", 0), 0u);
+    EXPECT_EQ(text_of(call("compareGroups", {with_zero, nitrate_groups(), omitted, omitted, keyword("log")})).rfind("transform 'log'", 0), 0u);
     // Fewer arguments than the function has: the missing ones are omitted, not out of range.
     EXPECT_GT(number_of(call("compareGroups", {nitrate_values(), nitrate_groups()})), 0.0);
 }
@@ -102,25 +86,25 @@ TEST(ComparePairedCell, PairsAndOneSample) {
     const double p = number_of(call("comparePaired", {before(), after()}));
     EXPECT_GT(p, 0.0);
     EXPECT_LT(p, 1.0);
-    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), omitted, text("n")})), 5);
+    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), omitted, keyword("n")})), 5);
     // Mean of the 5 differences 0.6, 0.2, 0.8, 0.7, 0.1 = 0.48 (by hand). Tolerance 1e-12.
-    EXPECT_NEAR(number_of(call("comparePaired", {before(), after(), text("t"), text("estimate")})), 0.48, 1e-12);
-    const std::string report = text_of(call("comparePaired", {before(), after(), omitted, text("report")}));
+    EXPECT_NEAR(number_of(call("comparePaired", {before(), after(), keyword("t"), keyword("estimate")})), 0.48, 1e-12);
+    const std::string report = text_of(call("comparePaired", {before(), after(), omitted, keyword("report")}));
     EXPECT_NE(report.find("(above − below; 95% CI"), std::string::npos) << report;
     // Sign test: 5 of 5 positive.
-    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), text("SIGN"), text("statistic")})), 5);
+    EXPECT_EQ(number_of(call("comparePaired", {before(), after(), keyword("SIGN"), keyword("statistic")})), 5);
     // One sample: 5 used values of `above` against 8 (mean 8.16, by hand).
-    EXPECT_NEAR(number_of(call("comparePaired", {before(), number(8), omitted, text("estimate")})), 0.16, 1e-12);
-    const Table t = call("comparePaired", {before(), number(8), text("signed-rank"), text("table")});
+    EXPECT_NEAR(number_of(call("comparePaired", {before(), typed(8), omitted, keyword("estimate")})), 0.16, 1e-12);
+    const Table t = call("comparePaired", {before(), typed(8), keyword("signed-rank"), keyword("table")});
     ASSERT_GE(t.size(), 3u);
     EXPECT_EQ(std::get<std::string>(t[1][1]).rfind("Wilcoxon one-sample signed-rank test", 0), 0u);
 }
 
 TEST(ComparePairedCell, Refusals) {
     EXPECT_EQ(text_of(call("comparePaired", {before(), omitted})).rfind("second is missing", 0), 0u);
-    EXPECT_EQ(text_of(call("comparePaired", {before(), after(), text("wilcoxon")})),
+    EXPECT_EQ(text_of(call("comparePaired", {before(), after(), keyword("wilcoxon")})),
               "unknown method 'wilcoxon'; valid: t, signed-rank, sign");
-    EXPECT_EQ(text_of(call("comparePaired", {before(), text("seven")})).rfind("second must be", 0), 0u);
+    EXPECT_EQ(text_of(call("comparePaired", {before(), keyword("seven")})).rfind("second must be", 0), 0u);
     Range short_after = Range::column({1, 2, 3});
     EXPECT_EQ(text_of(call("comparePaired", {before(), short_after})).find("same number of rows") != std::string::npos, true);
 }
@@ -161,19 +145,20 @@ TEST(CompareCellsRandom, NeverAnInternalErrorNorANonFiniteNumber) {
             if (rng() % 15 == 0) values.cells[i] = Cell::make_text("n/a");
         const std::string method = std::vector<std::string>{"welch", "pooled", "ranks"}[rng() % 3];
         const std::string paired = std::vector<std::string>{"t", "signed-rank", "sign"}[rng() % 3];
-        const std::string transform = std::vector<std::string>{"none", "log", "log10", "log1p", "sqrt"}[rng() % 5];
+        const std::string transform = std::vector<std::string>{"none", "log", "log10", "log(x+1)", "sqrt"}[rng() % 5];
         const std::string output = outputs[rng() % outputs.size()];
         const std::string what = std::to_string(trial) + " " + method + "/" + paired + " " + transform + " " + output;
-        check(call("compareGroups", {values, groups, text(method), text(output), text(transform)}), what);
-        check(call("comparePaired", {values, second, text(paired), text(output), text(transform)}), what);
-        check(call("comparePaired", {values, number(xs.empty() ? 1.0 : xs[0]), text(paired), text(output), text(transform)}), what);
+        check(call("compareGroups", {values, groups, keyword(method), keyword(output), keyword(transform)}), what);
+        check(call("comparePaired", {values, second, keyword(paired), keyword(output), keyword(transform)}), what);
+        check(call("comparePaired", {values, typed(xs.empty() ? 1.0 : xs[0]), keyword(paired), keyword(output), keyword(transform)}), what);
     }
 }
 
 // A caller that hands over fewer arguments than the registry lists (the office never does; a
 // script or a test might) gets a refusal, never a read past the end (ASan watches this one).
 TEST(FenceGlue, EveryFunctionWithTooFewArgumentsRefuses) {
-    for (const FunctionInfo& f : registry()) {
+    for (const Function* function : registry()) {
+        const Function& f = *function;
         for (std::size_t given = 0; given < f.arguments.size(); ++given) {
             Arguments a;
             for (std::size_t i = 0; i < given; ++i) a.push_back(i == 0 ? Range::column({1, 2, 3, 4}) : omitted);
@@ -219,7 +204,7 @@ TEST(FenceGlue, NoUsableRowIsNamedAsSuch) {
     wide.columns = 2;
     wide.rows = 2;
     wide.cells = {Cell::make_number(10), Cell::make_text("n/a"), Cell::make_number(-0.43), Cell::make_text("dry")};
-    EXPECT_EQ(std::get<std::string>(call("comparePosthoc", {wide, omitted, text("dunn")})[0][0]),
+    EXPECT_EQ(std::get<std::string>(call("comparePosthoc", {wide, omitted, keyword("dunn")})[0][0]),
               "group 'column 2' has no values; every group needs at least 1");
     // Without groups the values themselves are what is empty.
     EXPECT_EQ(std::get<std::string>(call("checkNormal", {values})[0][0]), "values holds no numbers");

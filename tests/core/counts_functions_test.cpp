@@ -5,38 +5,22 @@
 #include <variant>
 
 #include "addin/registry.hpp"
+#include "cell_calls.hpp"
 #include "sheet_cells.hpp"
 
 namespace quadrat::addin {
 namespace {
 
 using namespace quadrat::test_support;
+// The cell helpers, not the declaration helpers of the same names (declare.hpp).
+using quadrat::test_support::keyword;
 
 // The blocks of these tests start at B2, so refusals name cells from there.
 Range block_from_b2(std::size_t rows, std::size_t columns, std::vector<Cell> cells) {
     return block(rows, columns, std::move(cells), 1, 1);
 }
 
-Range keyword(const char* s) { return Range::scalar(txt(s)); }
 
-Table call(const char* method, const Arguments& args) {
-    const FunctionInfo* f = find_function(method);
-    EXPECT_NE(f, nullptr);
-    return call_fenced(*f, args);
-}
-
-double number_of(const Table& t) {
-    EXPECT_EQ(t.size(), 1u);
-    EXPECT_TRUE(std::holds_alternative<double>(t[0][0]));
-    return std::holds_alternative<double>(t[0][0]) ? std::get<double>(t[0][0]) : NAN;
-}
-
-std::string text_of(const Table& t) {
-    EXPECT_EQ(t.size(), 1u);
-    return std::holds_alternative<std::string>(t[0][0]) ? std::get<std::string>(t[0][0]) : "(not text)";
-}
-
-const Range omitted = Range::omitted_argument();
 
 // Agresti (2002), Categorical Data Analysis, §3.5.1, tea tasting (from memory): Fisher p = 0.486
 // = 34/70 exactly; tolerance 1e-12.
@@ -106,11 +90,11 @@ TEST(FitLogisticFunction, CoefficientsModelAndRefusals) {
     ASSERT_EQ(model.size(), 13u);
     EXPECT_EQ(std::get<std::string>(model[2][0]), "event");
     EXPECT_EQ(std::get<std::string>(model[2][1]), "1");
-    EXPECT_EQ(text_of(call("fitLogistic", {y, depth, keyword("r2"), omitted})),
-              "unknown output 'r2'; valid: coefficients, model");
+    EXPECT_EQ(text_of(call("fitLogistic", {y, depth, keyword("r-squared"), omitted})),
+              "unknown output 'r-squared'; valid: coefficients, model");
 }
 
-TEST(FitFactorialFunction, OutputsAndSstype) {
+TEST(FitFactorialFunction, OutputsAndSums) {
     // Invented: shoot length (cm) by shade (open, shaded) and soil (clay, sand), 3 plants each,
     // with one more in one cell so that the design is unbalanced.
     Range length = block_from_b2(14, 1, {txt("length"), num(12), num(14), num(13), num(9), num(10), num(8), num(15), num(17),
@@ -127,14 +111,16 @@ TEST(FitFactorialFunction, OutputsAndSstype) {
     EXPECT_EQ(p_interaction, std::get<double>(t[3][5]));
     // The interaction is adjusted for both main effects under either type: the same p (common
     // practice, no source: both compare the full model with the additive one); tolerance 1e-12.
-    EXPECT_NEAR(number_of(call("fitFactorial", {length, shade, soil, keyword("p-interaction"), Range::scalar(num(3))})),
+    EXPECT_NEAR(number_of(call("fitFactorial", {length, shade, soil, keyword("p-interaction"), keyword("Type-3")})),
                 p_interaction, 1e-12);
-    EXPECT_NEAR(number_of(call("fitFactorial", {length, shade, soil, keyword("p-interaction"), keyword("3")})), p_interaction,
-                1e-12);
-    EXPECT_EQ(text_of(call("fitFactorial", {length, shade, soil, omitted, Range::scalar(num(1))})),
-              "sstype must be 2 (Type II, the default) or 3 (Type III)");
+    EXPECT_EQ(number_of(call("fitFactorial", {length, shade, soil, keyword("p-factor1"), omitted})), std::get<double>(t[1][5]));
+    EXPECT_EQ(number_of(call("fitFactorial", {length, shade, soil, keyword("p-factor2"), omitted})), std::get<double>(t[2][5]));
+    EXPECT_EQ(text_of(call("fitFactorial", {length, shade, soil, omitted, keyword("3")})),
+              "unknown sums '3'; valid: type-2, type-3");
+    EXPECT_EQ(text_of(call("fitFactorial", {length, shade, soil, omitted, Range::scalar(num(3))})),
+              "sums must be a keyword in quotes (a text, not a number)");
     EXPECT_EQ(text_of(call("fitFactorial", {length, shade, soil, keyword("p"), omitted})),
-              "unknown output 'p'; valid: table, p-first, p-second, p-interaction");
+              "unknown output 'p'; valid: table, p-factor1, p-factor2, p-interaction");
 }
 
 }  // namespace

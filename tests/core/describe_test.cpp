@@ -130,7 +130,7 @@ TEST(DescribeGroupsCell, BadLevelAndKeywordAreRefusalTexts) {
     const Table bad_level = addin::call_fenced(*f, {values, Range::omitted_argument(), Range::omitted_argument(), Range::scalar(Cell::make_number(120))});
     EXPECT_EQ(std::get<std::string>(bad_level[0][0]), "level must be a fraction such as 0.95 or a percentage from 50 to 99.9");
     const Table bad_transform = addin::call_fenced(*f, {values, Range::omitted_argument(), Range::scalar(Cell::make_text("ln")), Range::omitted_argument()});
-    EXPECT_EQ(std::get<std::string>(bad_transform[0][0]), "unknown transform 'ln'; valid: none, log, log10, log1p, sqrt");
+    EXPECT_EQ(std::get<std::string>(bad_transform[0][0]), "unknown transform 'ln'; valid: none, log, log10, log(x+1), sqrt");
 }
 
 }  // namespace

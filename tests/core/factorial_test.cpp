@@ -84,7 +84,7 @@ TEST(FitFactorial, EmptyCellTypeIIWorksTypeIIIRefuses) {
     } catch (const Refusal& r) {
         EXPECT_EQ(std::string(r.what()),
                   "no observations for grazing = heavy with soil = sand; Type III sums of squares compare means "
-                  "of every combination, so each needs data (use sstype 2)");
+                  "of every combination, so each needs data (use sums type-2)");
     }
 }
 
@@ -119,7 +119,7 @@ TEST(FitFactorial, Refusals) {
     // A 2×2 with one empty cell leaves no interaction to estimate, even for Type II.
     EXPECT_EQ(refusal({1, 2, 3, 4, 5, 6}, {"x", "x", "x", "x", "y", "y"}, {"p", "p", "q", "q", "p", "p"}),
               "the interaction cannot be estimated: 1 combination of levels has no observations; fill them or drop a level");
-    EXPECT_EQ(refusal({1, 2, 3, 4}, {"x", "x", "y", "y"}, {"p", "q", "p", "q"}, 1), "sstype must be 2 (Type II) or 3 (Type III)");
+    EXPECT_EQ(refusal({1, 2, 3, 4}, {"x", "x", "y", "y"}, {"p", "q", "p", "q"}, 1), "sums must be type-2 or type-3");
     // 21 × 20 combinations: refused before any matrix is built.
     std::vector<double> y;
     std::vector<std::string> a, b;

@@ -1,4 +1,4 @@
-// The glue of FIT.LINEAR, FIT.POINTS, CHECK.MODEL and RELATE.CORRELATION through the fence, as a
+// The glue of FIT.LINEAR, FIT.POINTS, CHECK.REGRESSION and RELATE.CORRELATION through the fence, as a
 // cell sees it: sizes, header rows, missing cells, refusals as text. These are the catalogue's
 // layout rules (FUNCTIONS.md), not numbers, except where a reference is named.
 #include <gtest/gtest.h>
@@ -10,6 +10,7 @@
 
 #include "addin/registry.hpp"
 #include "reference.hpp"
+#include "cell_calls.hpp"
 #include "sheet_cells.hpp"
 
 using namespace quadrat::test_support;
@@ -32,12 +33,6 @@ Range block(const std::vector<std::vector<Cell>>& rows) {
     return r;
 }
 
-Range keyword(const char* k) { return Range::scalar(Cell::make_text(k)); }
-Table call(const char* method, const addin::Arguments& args) {
-    const auto* f = addin::find_function(method);
-    EXPECT_NE(f, nullptr) << method;
-    return addin::call_fenced(*f, args);
-}
 
 // The stream set as a sheet: a header row, the 40 reaches, and two rows inserted after reach 5
 // with a missing cell (an `n/a` flow and an empty canopy) that must be dropped and left blank.
@@ -131,9 +126,9 @@ TEST(FitPointsGlue, RowsAlignWithTheSheet) {
     EXPECT_EQ(call("fitPoints", {y, x, keyword("fitted")}).size(), 6u);
 }
 
-TEST(CheckModelGlue, DefaultIsTheTableAndRefusalsAreText) {
+TEST(CheckRegressionGlue, DefaultIsTheTableAndRefusalsAreText) {
     const StreamSheet s = stream_sheet();
-    const Table t = call("checkModel", {s.y, s.xs});
+    const Table t = call("checkRegression", {s.y, s.xs});
     ASSERT_EQ(t.size(), 8u);
     ASSERT_EQ(t[0].size(), 5u);
     EXPECT_EQ(std::get<std::string>(t[0][4]), "verdict");
@@ -143,7 +138,7 @@ TEST(CheckModelGlue, DefaultIsTheTableAndRefusalsAreText) {
     EXPECT_NE(std::get<std::string>(call("checkModel", {s.y, s.xs, keyword("independence")})[0][0]).find("sampling order"),
               std::string::npos);
     // A constant predictor: one text cell naming it.
-    const Table refused = call("checkModel", {Range::column({1, 2, 3, 4}), Range::column({5, 5, 5, 5})});
+    const Table refused = call("checkRegression", {Range::column({1, 2, 3, 4}), Range::column({5, 5, 5, 5})});
     ASSERT_EQ(refused.size(), 1u);
     EXPECT_NE(std::get<std::string>(refused[0][0]).find("x1 is constant"), std::string::npos);
 }

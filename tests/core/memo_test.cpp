@@ -2,8 +2,8 @@
 // Behaviour checks, no numbers from a source.
 #include <gtest/gtest.h>
 
-#include "addin/handlers.hpp"
 #include "addin/memo.hpp"
+#include "addin/registry.hpp"
 #include "core/refusal.hpp"
 
 namespace quadrat::addin {
@@ -15,6 +15,17 @@ TestResult counted(int& calls) {
     r.test = "counting test";
     r.add("p", 0.5);
     return r;
+}
+
+// The result of `compute` through the cache, keyed on every argument but the output (position 2).
+template <class Compute>
+auto remembered(std::string_view kind, const Arguments& a, std::size_t output_position, Compute compute) {
+    std::vector<std::size_t> keyed;
+    for (std::size_t i = 0; i < a.size(); ++i)
+        if (i != output_position) keyed.push_back(i);
+    using Result = std::invoke_result_t<Compute&>;
+    return std::static_pointer_cast<const Result>(
+        remembered_result(kind, a, keyed, [&]() -> std::shared_ptr<const void> { return std::make_shared<const Result>(compute()); }));
 }
 
 Arguments arguments_with_output(const char* output) {
@@ -72,25 +83,42 @@ TEST(ResultCache, ARefusalIsNotKept) {
 TEST(ResultCache, KeysOnTheChosenPositions) {
     forget_all();
     int calls = 0;
-    auto count = [&] { return ++calls; };
+    auto count = [&]() -> std::shared_ptr<const void> { return std::make_shared<const int>(++calls); };
     Arguments a = arguments_with_output("p");
-    EXPECT_EQ(*remembered_on("k", a, {0, 1}, count), 1);
+    EXPECT_EQ(*std::static_pointer_cast<const int>(remembered_result("k", a, {0, 1}, count)), 1);
     a[2] = Range::scalar(Cell::make_text("table"));
-    EXPECT_EQ(*remembered_on("k", a, {0, 1}, count), 1);
+    EXPECT_EQ(*std::static_pointer_cast<const int>(remembered_result("k", a, {0, 1}, count)), 1);
     a[1].cells[2].text = "c";
-    EXPECT_EQ(*remembered_on("k", a, {0, 1}, count), 2);
+    EXPECT_EQ(*std::static_pointer_cast<const int>(remembered_result("k", a, {0, 1}, count)), 2);
 }
 
-// FIT.LINEAR's coefficients and model, CHECK.MODEL and FIT.POINTS over the same y and xs: one fit.
+Table call(const char* method, const Arguments& a) { return call_fenced(*find_function(method), a); }
+
+// FIT.LINEAR's coefficients and model, CHECK.REGRESSION and FIT.POINTS over the same y and xs: one
+// fit, through the registry's generic path.
 TEST(ResultCache, OneRegressionServesItsNeighbours) {
     forget_all();
     const Range y = Range::column({2.1, 3.9, 6.2, 7.8, 10.1, 12.2}), x = Range::column({1, 2, 3, 4, 5, 6});
     const Range blank = Range::omitted_argument();
-    fit_linear({y, x, Range::scalar(Cell::make_text("coefficients")), blank});
-    fit_linear({y, x, Range::scalar(Cell::make_text("model")), blank});
-    check_model({y, x, blank});
-    fit_points({y, x, blank});
+    call("fitLinear", {y, x, Range::scalar(Cell::make_text("coefficients")), blank});
+    call("fitLinear", {y, x, Range::scalar(Cell::make_text("model")), blank});
+    call("checkRegression", {y, x, blank, blank});
+    call("fitPoints", {y, x, blank});
     EXPECT_EQ(remembered_hits(), 3u);
+}
+
+// Neighbouring cells asking other outputs of one test share one computation; another option or a
+// changed cell computes again.
+TEST(ResultCache, OutputsOfOneTestShareOneComputation) {
+    forget_all();
+    const Range values = Range::column({5.1, 4.8, 5.6, 6.2, 6.8, 7.1}), groups = Range::text_column({"a", "a", "a", "b", "b", "b"});
+    const Range blank = Range::omitted_argument();
+    call("compareGroups", {values, groups, blank, Range::scalar(Cell::make_text("p")), blank});
+    call("compareGroups", {values, groups, blank, Range::scalar(Cell::make_text("statistic")), blank});
+    call("compareGroups", {values, groups, blank, Range::scalar(Cell::make_text("report")), blank});
+    EXPECT_EQ(remembered_hits(), 2u);
+    call("compareGroups", {values, groups, Range::scalar(Cell::make_text("ranks")), blank, blank});
+    EXPECT_EQ(remembered_hits(), 2u);
 }
 
 }  // namespace

@@ -106,12 +106,12 @@ TEST(Posthoc, DunnAgreesWithPublishedFormula) {
 // rounding; SciPy's asymptotic p is a closed form).
 TEST(Posthoc, PairwiseTestsAgreeWithScipy) {
     for (const auto& c : cases()) {
-        if (!c.contains("t-pairs")) continue;
+        if (!c.contains("pairwise-t")) continue;
         const Groups g = groups_of(c);
-        expect_rows(compare_posthoc(g, PosthocMethod::t_pairs, std::nullopt, Transform::none, 0.95), c["t-pairs"], 1e-9,
-                    false, c["name"].get<std::string>() + " t-pairs");
-        expect_rows(compare_posthoc(g, PosthocMethod::rank_pairs, std::nullopt, Transform::none, 0.95),
-                    c["rank-pairs"], 1e-9, false, c["name"].get<std::string>() + " rank-pairs");
+        expect_rows(compare_posthoc(g, PosthocMethod::pairwise_t, std::nullopt, Transform::none, 0.95), c["pairwise-t"], 1e-9,
+                    false, c["name"].get<std::string>() + " pairwise-t");
+        expect_rows(compare_posthoc(g, PosthocMethod::pairwise_ranks, std::nullopt, Transform::none, 0.95),
+                    c["pairwise-ranks"], 1e-9, false, c["name"].get<std::string>() + " pairwise-ranks");
     }
 }
 
@@ -166,7 +166,7 @@ TEST(Posthoc, Refusals) {
     // A single value per group: Games–Howell and the pairwise tests need two.
     const Groups singles = read_groups(Range::column({1, 2, 3, 4}), Range::text_column({"a", "b", "c", "c"}));
     EXPECT_THROW(compare_posthoc(singles, PosthocMethod::games_howell, std::nullopt, Transform::none, 0.95), Refusal);
-    EXPECT_THROW(compare_posthoc(singles, PosthocMethod::t_pairs, std::nullopt, Transform::none, 0.95), Refusal);
+    EXPECT_THROW(compare_posthoc(singles, PosthocMethod::pairwise_t, std::nullopt, Transform::none, 0.95), Refusal);
     // All values equal: no ranks to compare.
     const Groups equal = read_groups(Range::column({5, 5, 5, 5}), Range::text_column({"a", "a", "b", "b"}));
     EXPECT_THROW(compare_posthoc(equal, PosthocMethod::dunn, std::nullopt, Transform::none, 0.95), Refusal);

@@ -5,7 +5,7 @@
 // tests/reference/generate_published_examples.py, which also writes what SciPy/statsmodels give on them.
 // Each printed figure is held to its printed digits (half a unit in the last digit) by our value
 // and by the library's value alike (published.hpp). The second part, for the methods without such
-// an example at hand (Welch's ANOVA, Games–Howell, Dunn, t-pairs, rank-pairs, Hodges–Lehmann,
+// an example at hand (Welch's ANOVA, Games–Howell, Dunn, pairwise-t, pairwise-ranks, Hodges–Lehmann,
 // Holm, Hommel, Benjamini–Yekutieli, Šidák), checks values worked by hand from each method's
 // definition and p at points of published tables, on samples built by
 // tests/reference/generate_published_compare.py.
@@ -169,11 +169,11 @@ TEST(PublishedCompare, MontgomeryRungerTukey) {
 // and 10% (15.67) b, 5% (10.00) c. On the etch-rate data every pair differs (Montgomery 2001, below):
 // one letter each, a for 220 W down to d for 160 W.
 TEST(PublishedCompare, LettersFromTheTukeyConclusions) {
-    const LettersResult tensile = compare_letters(sheet_groups_of(published()["oneway"]["tensile"]), PosthocMethod::tukey, 0.95,
-                                                  Transform::none);
+    const LettersResult tensile = compare_letters(sheet_groups_of(published()["oneway"]["tensile"]), PosthocMethod::tukey,
+                                                  std::nullopt, Transform::none, 0.95);
     EXPECT_EQ(tensile.letters, (std::vector<std::string>{"c", "b", "b", "a"}));
-    const LettersResult etch = compare_letters(sheet_groups_of(published()["oneway"]["etch"]), PosthocMethod::tukey, 0.95,
-                                               Transform::none);
+    const LettersResult etch = compare_letters(sheet_groups_of(published()["oneway"]["etch"]), PosthocMethod::tukey,
+                                               std::nullopt, Transform::none, 0.95);
     EXPECT_EQ(etch.letters, (std::vector<std::string>{"d", "c", "b", "a"}));
 }
 
@@ -248,14 +248,14 @@ TEST(PublishedCompare, BenjaminiHochbergFifteenPValues) {
         for (double q : adjust_p(p, method)) count += q <= 0.05;
         return count;
     };
-    EXPECT_EQ(rejected(Adjustment::bh), 4);
+    EXPECT_EQ(rejected(Adjustment::benjamini_hochberg), 4);
     EXPECT_EQ(rejected(Adjustment::bonferroni), 3);
     EXPECT_EQ(rejected(Adjustment::hochberg), 3);
     // statsmodels 0.13 multipletests on the same p-values (generator), every method it has:
     // tolerance 1e-12 relative (a few multiplications and running extrema).
     for (const auto& [key, method] : std::vector<std::pair<const char*, Adjustment>>{
              {"bonferroni", Adjustment::bonferroni}, {"holm", Adjustment::holm}, {"hochberg", Adjustment::hochberg},
-             {"hommel", Adjustment::hommel}, {"bh", Adjustment::bh}, {"by", Adjustment::by},
+             {"hommel", Adjustment::hommel}, {"benjamini-hochberg", Adjustment::benjamini_hochberg}, {"benjamini-yekutieli", Adjustment::benjamini_yekutieli},
              {"sidak", Adjustment::sidak}}) {
         const auto ours = adjust_p(p, method);
         const auto want = c[key].get<std::vector<double>>();
@@ -399,7 +399,7 @@ TEST(PublishedCompare, DunnAtTheNormalTablePoint) {
 }
 
 // ---------------------------------------------------------------------------------------------
-// COMPARE.POSTHOC t-pairs: pairwise Welch t (Welch 1947, Biometrika 34, 28–35; Satterthwaite 1946)
+// COMPARE.POSTHOC pairwise-t: pairwise Welch t (Welch 1947, Biometrika 34, 28–35; Satterthwaite 1946)
 
 // Worked by hand: with equal n and equal variance Welch's t is Student's t on 2(n − 1) df. On 1–5,
 // 3–7, 5–9 (s² = 2.5, SE = √(2·2.5/5) = 1): t = −2, −4, −2. scipy.stats.ttest_ind(equal_var=False)
@@ -409,7 +409,7 @@ TEST(PublishedCompare, DunnAtTheNormalTablePoint) {
 // 2 × the t(8) density at 2.306 × 0.0005 (3.9e-5).
 TEST(PublishedCompare, TPairsByHandAndAtTheTTablePoint) {
     const auto& c = built()["t_pairs_by_hand"];
-    const PosthocResult r = compare_posthoc(sheet_groups_of(c), PosthocMethod::t_pairs, std::nullopt, Transform::none, 0.95);
+    const PosthocResult r = compare_posthoc(sheet_groups_of(c), PosthocMethod::pairwise_t, std::nullopt, Transform::none, 0.95);
     ASSERT_EQ(r.pairs.size(), 3u);
     const double hand[] = {-2, -4, -2};
     for (std::size_t i = 0; i < 3; ++i) {
@@ -418,14 +418,14 @@ TEST(PublishedCompare, TPairsByHandAndAtTheTTablePoint) {
         expect_relative(r.pairs[i].adjusted_p, c["scipy"][i]["statsmodels_holm"].get<double>(), 1e-12, "Holm, statsmodels");
     }
     const auto& t = built()["t_pairs_table_point"];
-    const PosthocResult at = compare_posthoc(sheet_groups_of(t), PosthocMethod::t_pairs, std::nullopt, Transform::none, 0.95);
+    const PosthocResult at = compare_posthoc(sheet_groups_of(t), PosthocMethod::pairwise_t, std::nullopt, Transform::none, 0.95);
     expect_relative(at.pairs.at(0).statistic, -2.306, 1e-12, "t at the table point");
     EXPECT_NEAR(at.pairs[0].p, 0.05, 2 * boost::math::pdf(boost::math::students_t(8), 2.306) * 0.0005);
     expect_relative(at.pairs[0].p, t["scipy"][0]["p"].get<double>(), 1e-12, "p, scipy");
 }
 
 // ---------------------------------------------------------------------------------------------
-// COMPARE.POSTHOC rank-pairs: pairwise Wilcoxon–Mann–Whitney (Mann & Whitney 1947, Ann. Math.
+// COMPARE.POSTHOC pairwise-ranks: pairwise Wilcoxon–Mann–Whitney (Mann & Whitney 1947, Ann. Math.
 // Statist. 18, 50–60), each pair ranked on its own; statistic U₁ = R₁ − n₁(n₁ + 1)/2.
 
 // Counted by hand: fully separated groups of three, the middle one first: (middle, low) has U₁ = 9,
@@ -437,7 +437,7 @@ TEST(PublishedCompare, TPairsByHandAndAtTheTTablePoint) {
 // Tolerance 1e-13 relative: sums of a few hundred probabilities.
 TEST(PublishedCompare, RankPairsCountedByHandAndAtTheMannWhitneyTablePoint) {
     const auto& c = built()["rank_pairs_by_hand"];
-    const PosthocResult r = compare_posthoc(sheet_groups_of(c), PosthocMethod::rank_pairs, std::nullopt, Transform::none, 0.95);
+    const PosthocResult r = compare_posthoc(sheet_groups_of(c), PosthocMethod::pairwise_ranks, std::nullopt, Transform::none, 0.95);
     ASSERT_EQ(r.pairs.size(), 3u);
     const double hand_u[] = {9, 0, 0};
     for (std::size_t i = 0; i < 3; ++i) {
@@ -450,7 +450,7 @@ TEST(PublishedCompare, RankPairsCountedByHandAndAtTheMannWhitneyTablePoint) {
     const double table_p[] = {2.0 / 63.0, 1.0 / 18.0};
     for (std::size_t u = 2; u <= 3; ++u) {
         const auto& t = built()["rank_pairs_table_point"][u - 2];
-        const PosthocResult at = compare_posthoc(sheet_groups_of(t), PosthocMethod::rank_pairs, std::nullopt, Transform::none, 0.95);
+        const PosthocResult at = compare_posthoc(sheet_groups_of(t), PosthocMethod::pairwise_ranks, std::nullopt, Transform::none, 0.95);
         EXPECT_EQ(at.pairs.at(0).statistic, static_cast<double>(u));
         expect_relative(at.pairs[0].p, table_p[u - 2], 1e-13, "p at U = " + std::to_string(u));
         expect_relative(at.pairs[0].p, fraction(t["exact"][0]["p"]), 1e-13, "p, enumeration");
@@ -530,7 +530,7 @@ TEST(PublishedCompare, AdjustmentsByHand) {
     const std::vector<std::tuple<const char*, Adjustment, std::vector<double>>> hand = {
         {"holm", Adjustment::holm, {0.09, 0.08, 0.10, 0.09}},
         {"hommel", Adjustment::hommel, {0.08, 0.06, 0.10, 0.06}},
-        {"by", Adjustment::by, {1.0 / 9, 1.0 / 9, 5.0 / 24, 1.0 / 9}},
+        {"benjamini-yekutieli", Adjustment::benjamini_yekutieli, {1.0 / 9, 1.0 / 9, 5.0 / 24, 1.0 / 9}},
         {"sidak", Adjustment::sidak, {0.15065344, 0.07763184, 0.3439, 0.11470719}},
     };
     for (const auto& [key, method, want] : hand) {
@@ -547,7 +547,7 @@ TEST(PublishedCompare, AdjustmentsByHand) {
 }
 
 // What stays without a figure printed in a published worked example: Welch's one-way ANOVA,
-// Games–Howell, Dunn, t-pairs, rank-pairs, the Hodges–Lehmann estimates and the Holm, Hommel,
+// Games–Howell, Dunn, pairwise-t, pairwise-ranks, the Hodges–Lehmann estimates and the Holm, Hommel,
 // Benjamini–Yekutieli and Šidák adjustments are checked above by hand from their papers'
 // definitions and at points of published tables, not against a paper's own worked numbers: no such
 // example with its data from a public source was at hand to confirm.

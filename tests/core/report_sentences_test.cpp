@@ -15,6 +15,7 @@
 #include "core/cells.hpp"
 #include "core/report.hpp"
 #include "reference.hpp"
+#include "cell_calls.hpp"
 #include "sheet_cells.hpp"
 
 namespace quadrat::addin {
@@ -25,9 +26,11 @@ using quadrat::test_support::num;
 using quadrat::test_support::reference_file;
 using quadrat::test_support::txt;
 
-const Range omitted = Range::omitted_argument();
-Range text(const std::string& s) { return Range::scalar(Cell::make_text(s)); }
-Range number(double x) { return Range::scalar(Cell::make_number(x)); }
+using quadrat::test_support::call;
+using quadrat::test_support::omitted;
+using quadrat::test_support::text_of;
+using quadrat::test_support::keyword;
+using quadrat::test_support::typed;
 
 // A column of numbers under a text header, as a sheet holds it.
 Range numbers_with_header(const std::string& header, const std::vector<double>& xs) {
@@ -53,20 +56,6 @@ LongTable long_table(const std::string& value_header, const std::vector<std::pai
     return {numbers_with_header(value_header, values), Range::text_column(labels)};
 }
 
-Table call(const char* method, const Arguments& a) {
-    const FunctionInfo* f = find_function(method);
-    EXPECT_NE(f, nullptr) << method;
-    if (!f) return {};
-    // The office hands over every argument the registry lists, omitted ones included.
-    Arguments all = a;
-    while (all.size() < f->arguments.size()) all.push_back(omitted);
-    return call_fenced(*f, all);
-}
-
-std::string text_of(const Table& t) {
-    if (t.size() != 1 || t[0].size() != 1 || !std::holds_alternative<std::string>(t[0][0])) return "(not a single text)";
-    return std::get<std::string>(t[0][0]);
-}
 
 // The sentence the cell shows is `expected`, and `expected` holds every number the generator
 // formatted for this case.
@@ -112,7 +101,7 @@ LongTable oxygen_pool_first() { return long_table("oxygen", {{"pool", pool}, {"r
 LongTable nitrate() { return long_table("nitrate", {{"forest", forest}, {"pasture", pasture}, {"cropland", cropland}}); }
 
 Table groups_report(const LongTable& t, const char* method, const char* transform) {
-    return call("compareGroups", {t.values, t.groups, text(method), text("report"), text(transform)});
+    return call("compareGroups", {t.values, t.groups, keyword(method), keyword("report"), keyword(transform)});
 }
 
 // ---------------------------------------------------------------- COMPARE.GROUPS, two groups
@@ -189,10 +178,10 @@ TEST(ReportSentence, TwoGroupsLowerGroupFirst) {
 // log(x+1) keeps the difference on the transformed scale and says so.
 TEST(ReportSentence, TwoGroupsLog1p) {
     const LongTable mayfly = long_table("nymphs", {{"gravel", gravel}, {"silt", silt}});
-    expect_sentence(groups_report(mayfly, "welch", "log1p"),
+    expect_sentence(groups_report(mayfly, "welch", "log(x+1)"),
                     "Welch's t-test (two groups): t(9.7) = 3.50, p = 0.006; mean difference on the log(x+1) scale 0.85 "
                     "(gravel − silt; 95% CI 0.31 to 1.40), Hedges' g = 1.61",
-                    "groups", "mayfly welch log1p");
+                    "groups", "mayfly welch log(x+1)");
 }
 
 // ---------------------------------------------------------------- COMPARE.GROUPS, three groups
@@ -219,7 +208,7 @@ TEST(ReportSentence, ThreeGroups) {
 // differences names n itself.
 
 Table paired_report(const Range& first, const Range& second, const char* method, const char* transform) {
-    return call("comparePaired", {first, second, text(method), text("report"), text(transform)});
+    return call("comparePaired", {first, second, keyword(method), keyword("report"), keyword(transform)});
 }
 
 TEST(ReportSentence, Paired) {
@@ -244,15 +233,15 @@ TEST(ReportSentence, Paired) {
 
 TEST(ReportSentence, OneSample) {
     const Range ponds = numbers_with_header("pH", ph);
-    expect_sentence(paired_report(ponds, number(7), "t", "none"),
+    expect_sentence(paired_report(ponds, typed(7), "t", "none"),
                     "One-sample t-test: t(8) = 3.43, p = 0.009; mean difference 0.40 (pH − 7; 95% CI 0.13 to 0.67), "
                     "Cohen's d = 1.14",
                     "paired", "ph t");
-    expect_sentence(paired_report(ponds, number(7), "signed-rank", "none"),
+    expect_sentence(paired_report(ponds, typed(7), "signed-rank", "none"),
                     "Wilcoxon one-sample signed-rank test (exact p): T⁺ = 43, p = 0.012; Hodges–Lehmann pseudo-median 0.39 "
                     "(pH − 7; 95% CI 0.13 to 0.69), matched-pairs rank-biserial r = 0.91",
                     "paired", "ph signed-rank");
-    expect_sentence(paired_report(ponds, number(7), "sign", "none"),
+    expect_sentence(paired_report(ponds, typed(7), "sign", "none"),
                     "One-sample sign test (exact binomial): 8 of 9 differences positive, p = 0.039; median difference 0.36 "
                     "(pH − 7; 95% CI 0.0800 to 0.85), matched-pairs rank-biserial r = 0.91",
                     "paired", "ph sign");
@@ -261,7 +250,7 @@ TEST(ReportSentence, OneSample) {
 // ---------------------------------------------------------------- CHECK.NORMAL
 
 Table normal_report(const Range& values, const Range& groups, const char* method) {
-    return call("checkNormal", {values, groups, text(method), text("report")});
+    return call("checkNormal", {values, groups, keyword(method), keyword("report")});
 }
 
 TEST(ReportSentence, Normality) {
@@ -289,7 +278,7 @@ TEST(ReportSentence, Normality) {
 // ---------------------------------------------------------------- CHECK.VARIANCE
 
 Table variance_report(const LongTable& t, const char* method) {
-    return call("checkVariance", {t.values, t.groups, text(method), text("report")});
+    return call("checkVariance", {t.values, t.groups, keyword(method), keyword("report")});
 }
 
 TEST(ReportSentence, Variance) {
@@ -330,7 +319,7 @@ Range nests_block() {
 }
 
 Table counts_report(const Range& block, const char* method) {
-    return call("compareCounts", {block, omitted, text(method), text("report")});
+    return call("compareCounts", {block, omitted, keyword(method), keyword("report")});
 }
 
 TEST(ReportSentence, Counts) {
@@ -353,14 +342,14 @@ TEST(ReportSentence, Counts) {
 
 TEST(ReportSentence, Expected) {
     // Newts by sex in pitfall traps, against 1:1 (expected omitted).
-    expect_sentence(call("compareExpected", {Range::column({34, 22}), omitted, text("report")}),
+    expect_sentence(call("compareExpected", {Range::column({34, 22}), omitted, keyword("report")}),
                     "Chi-square goodness-of-fit test: χ²(1) = 2.57, p = 0.109, n = 56", "counts", "newts");
 }
 
 // ---------------------------------------------------------------- RELATE.CORRELATION
 
 Table correlation_report(const std::vector<double>& x, const std::vector<double>& y, const char* method) {
-    return call("relateCorrelation", {Range::column(x), Range::column(y), text(method), text("report")});
+    return call("relateCorrelation", {Range::column(x), Range::column(y), keyword(method), keyword("report")});
 }
 
 TEST(ReportSentence, Correlation) {
@@ -398,7 +387,7 @@ TEST(ReportSentence, LinearRegression) {
 
 TEST(ReportSentence, Advisor) {
     const LongTable t = oxygen();
-    expect_sentence(call("adviseTest", {t.values, t.groups, text("report")}),
+    expect_sentence(call("adviseTest", {t.values, t.groups, keyword("report")}),
                     "Suggested: COMPARE.GROUPS, method 'welch'. Why: continuous response (n = 15), predictor with 2 groups "
                     "(sizes 7 to 8), so compare two groups; no clear sign of non-normality in the residuals from the group "
                     "means (Shapiro–Wilk p = 0.941), so a test of means can be used; no clear sign of unequal spread "
@@ -421,7 +410,7 @@ TEST(ReportSentence, AdvisorCounts) {
     add(7, "found", "pool");
     add(5, "not found", "riffle");
     add(14, "not found", "pool");
-    EXPECT_EQ(text_of(call("adviseTest", {Range::text_column(found), Range::text_column(habitat), text("report")})),
+    EXPECT_EQ(text_of(call("adviseTest", {Range::text_column(found), Range::text_column(habitat), keyword("report")})),
               "Suggested: COMPARE.COUNTS, method 'chi-square'. Why: two categorical variables: 2×2 table of 44 observations, "
               "so test of association; smallest expected count 9.07, 0 of 4 cells below 5, so Pearson's chi-square "
               "(Cochran's rule holds). A guide, not a verdict: check it against the study design.");
@@ -444,10 +433,10 @@ TEST(ReportSentence, EveryFunctionWithReportIsCovered) {
     const std::set<std::string> covered = {"COMPARE.GROUPS", "COMPARE.PAIRED", "CHECK.NORMAL",       "CHECK.VARIANCE",
                                            "COMPARE.COUNTS", "COMPARE.EXPECTED", "RELATE.CORRELATION", "FIT.LINEAR",
                                            "ADVISE.TEST"};
-    for (const FunctionInfo& f : registry()) {
-        for (const ArgumentInfo& a : f.arguments) {
-            if (std::string(a.name) == "output" && std::string(a.description).find("report") != std::string::npos) {
-                EXPECT_TRUE(covered.count(f.display_name)) << f.display_name << " offers report but has no sentence test here";
+    for (const Function* f : registry()) {
+        for (const Argument& a : f->arguments) {
+            if (a.keywords && a.name == "output" && a.keywords->contains("report")) {
+                EXPECT_TRUE(covered.count(f->display_name)) << f->display_name << " offers report but has no sentence test here";
             }
         }
     }
@@ -457,7 +446,7 @@ TEST(ReportSentence, EveryFunctionWithReportIsCovered) {
 TEST(ReportSentence, RefusalHasNoSentence) {
     const LongTable t = long_table("oxygen", {{"riffle", riffle}, {"pool", {8.2}}});
     EXPECT_EQ(text_of(groups_report(t, "welch", "none")), "group 'pool' has 1 value; each group needs at least 2");
-    EXPECT_EQ(text_of(call("fitLogistic", {Range::column({0, 1, 0, 1}), Range::column({1, 2, 3, 4}), text("report")})),
+    EXPECT_EQ(text_of(call("fitLogistic", {Range::column({0, 1, 0, 1}), Range::column({1, 2, 3, 4}), keyword("report")})),
               "unknown output 'report'; valid: coefficients, model");
 }
 

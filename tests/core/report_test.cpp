@@ -31,11 +31,13 @@ TEST(ReportFormat, Numbers) {
 }
 
 TEST(Keywords, MatchIgnoringCaseAndDefaultWhenBlank) {
-    const std::vector<std::string> methods = {"welch", "pooled", "ranks"};
-    EXPECT_EQ(match_keyword("", methods, "method"), "welch");
-    EXPECT_EQ(match_keyword(" Pooled ", methods, "method"), "pooled");
+    const KeywordTable& methods = location_methods();
+    EXPECT_EQ(methods.match("", "method", "welch"), "welch");
+    EXPECT_EQ(methods.match("", "adjust", ""), "");
+    EXPECT_EQ(methods.match(" Pooled ", "method", "welch"), "pooled");
+    EXPECT_EQ(methods.index("RANKS", "method"), 2u);
     try {
-        match_keyword("anova", methods, "method");
+        methods.match("anova", "method", "welch");
         FAIL();
     } catch (const Refusal& r) {
         EXPECT_STREQ(r.what(), "unknown method 'anova'; valid: welch, pooled, ranks");
@@ -46,8 +48,8 @@ TEST(SelectOutput, PicksQuantityTableOrRefuses) {
     TestResult r;
     r.test = "Welch two-sample t-test";
     r.add("statistic", 2.5).add("p", 0.03);
-    const auto outputs = standard_outputs();
-    EXPECT_EQ(std::get<double>(select_output(r, "", {"p", "statistic", "table"})[0][0]), 0.03);
+    const KeywordTable& outputs = test_outputs();
+    EXPECT_EQ(std::get<double>(select_output(r, "", normality_outputs())[0][0]), 0.03);
     EXPECT_EQ(std::get<double>(select_output(r, "STATISTIC", outputs)[0][0]), 2.5);
     const Table t = select_output(r, "table", outputs);
     ASSERT_EQ(t.size(), 4u);

@@ -90,7 +90,7 @@ TEST(CheckVariance, Refusals) {
     const Groups small = make_groups({"a", "b"}, {{1, 2, 3}, {4}});
     EXPECT_EQ(refusal_text([&] { check_variance(small, ""); }), "group 'b' has 1 value; each group needs at least 2");
     const Groups flat = make_groups({"a", "b"}, {{3, 3, 3}, {5, 5}});
-    for (const std::string& m : variance_methods())
+    for (const std::string& m : variance_methods().list())
         EXPECT_EQ(refusal_text([&] { check_variance(flat, m); }), "the values are equal within every group: no spread to compare") << m;
     const Groups one_flat = make_groups({"a", "b"}, {{3, 3, 3}, {5, 6, 8}});
     EXPECT_EQ(refusal_text([&] { check_variance(one_flat, "bartlett"); }),
@@ -135,7 +135,7 @@ TEST(CheckVariance, DenormalsKeepTheirSpread) {
     const double tiny = std::numeric_limits<double>::denorm_min();
     const Groups small = make_groups({"a", "b"}, {{0, tiny, 3 * tiny, 4 * tiny}, {0, 8 * tiny, 2 * tiny, 16 * tiny, 5 * tiny}});
     const Groups plain = make_groups({"a", "b"}, {{0, 1, 3, 4}, {0, 8, 2, 16, 5}});
-    for (const std::string& m : variance_methods())
+    for (const std::string& m : variance_methods().list())
         EXPECT_LT(relative_error(check_variance(small, m).number("p"), check_variance(plain, m).number("p")), 1e-9) << m;
 }
 
@@ -148,7 +148,7 @@ TEST(CheckVariance, FiveThousandValues) {
         b.push_back(std::cos(i * 1.3) * 3);
     }
     const Groups g = make_groups({"a", "b"}, {a, b});
-    for (const std::string& m : variance_methods()) EXPECT_GT(check_variance(g, m).number("p"), 1e-3) << m;
+    for (const std::string& m : variance_methods().list()) EXPECT_GT(check_variance(g, m).number("p"), 1e-3) << m;
 }
 
 }  // namespace

@@ -93,12 +93,12 @@ Range argument(Bytes& in) {
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     Bytes in(data, size);
     const auto& functions = quadrat::addin::registry();
-    const auto& f = functions[in.byte() % functions.size()];
+    const auto& f = *functions[in.byte() % functions.size()];
     quadrat::addin::Arguments args;
     for (std::size_t i = 0; i < f.arguments.size(); ++i) args.push_back(argument(in));
     // Shapes that line up are where the statistics run: sometimes copy the first argument's shape.
     if (args.size() > 1 && !args[0].omitted && (in.byte() & 1)) {
-        for (std::size_t i = 1; i < args.size() && f.arguments[i].reference; ++i) {
+        for (std::size_t i = 1; i < args.size() && f.arguments[i].reference(); ++i) {
             Range& r = args[i];
             r.rows = args[0].rows;
             r.columns = 1;

@@ -56,7 +56,7 @@ def logistic(y, x, level=0.95):
     return {"slope": float(res.params[1]), "or_low": float(ci[1, 0])}
 
 
-def factorial_p_first(y, a, b):
+def factorial_p_factor1(y, a, b):
     df = pd.DataFrame({"y": np.asarray(y, float), "a": a, "b": b})
     table = anova_lm(ols("y ~ C(a) * C(b)", df).fit(), typ=2)
     return float(table.loc["C(a)"]["PR(>F)"])
@@ -84,12 +84,12 @@ def main():
         "logistic, present on distance": logistic(d["present"], d["distance"]),
         "logistic 99%, present on distance": logistic(d["present"], d["distance"], 0.99),
         "logistic, logicals on distance": logistic(d["logicals"], d["distance"]),
-        "factorial p-first, depth": factorial_p_first(d["depth"], d["zone"], d["season"]),
-        "factorial p-first, logicals": factorial_p_first(d["logicals"], d["zone"], d["season"]),
+        "factorial p-factor1, depth": factorial_p_factor1(d["depth"], d["zone"], d["season"]),
+        "factorial p-factor1, logicals": factorial_p_factor1(d["logicals"], d["zone"], d["season"]),
         "durbin-watson, depth on distance": durbin_watson(d["depth"], d["distance"]),
         "durbin-watson, logicals on distance": durbin_watson(d["logicals"], d["distance"]),
         "durbin-watson, plus-minus / 1e308 on distance": durbin_watson(scaled_plus_minus, d["distance"]),
-        "factorial p-first, plus-minus / 1e308": factorial_p_first(scaled_plus_minus, d["zone"], d["season"]),
+        "factorial p-factor1, plus-minus / 1e308": factorial_p_factor1(scaled_plus_minus, d["zone"], d["season"]),
         "chi-square p, riffle/pool present/absent": float(
             scipy.stats.chi2_contingency(np.array([[12, 5], [4, 11]]), correction=False)[1]),
         "chi-square p, zone with gaps by season": crosstab_p(d["zone_with_gaps"], d["season"]),

@@ -14,7 +14,7 @@ Sources of the reference numbers, per method:
   (A² only).
 - lilliefors: statsmodels.stats.diagnostic.lilliefors, pvalmethod='approx' (Dallal–Wilkinson
   for p < 0.1) and 'table' (statsmodels' own simulated table, used for the region above 0.1).
-- dagostino: scipy.stats.normaltest; jarque-bera: scipy.stats.jarque_bera.
+- dagostino-pearson: scipy.stats.normaltest; jarque-bera: scipy.stats.jarque_bera.
 - variance: scipy.stats.levene(center='median' / 'mean'), bartlett, fligner(center='median');
   f-ratio from scipy.stats.f.
 - qq: Blom positions through scipy.special.ndtri.
@@ -176,7 +176,7 @@ def normality_case(name, x):
         row["anderson_darling"] = {"A2": float(a2), "p": float(p),
                                    "scipy_A2": float(scipy.stats.anderson(x, "norm").statistic)}
         k2 = scipy.stats.normaltest(x)
-        row["dagostino"] = {"K2": float(k2.statistic), "p": float(k2.pvalue)}
+        row["dagostino-pearson"] = {"K2": float(k2.statistic), "p": float(k2.pvalue)}
         jb = scipy.stats.jarque_bera(x)
         row["jarque_bera"] = {"JB": float(jb.statistic), "p": float(jb.pvalue)}
     if n >= 5:

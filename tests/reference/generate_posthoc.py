@@ -19,7 +19,7 @@ OUT = os.path.join(os.path.dirname(os.path.abspath(__file__)), "posthoc.json")
 # ADJUST.P: statsmodels.stats.multitest.multipletests. Its 'sidak' is single-step (the catalogue's
 # sidak); 'simes-hochberg' is Hochberg's step-up; 'fdr_bh'/'fdr_by' are Benjamini–Hochberg/-Yekutieli.
 METHODS = {"holm": "holm", "bonferroni": "bonferroni", "hochberg": "simes-hochberg", "hommel": "hommel",
-           "bh": "fdr_bh", "by": "fdr_by", "sidak": "sidak"}
+           "benjamini-hochberg": "fdr_bh", "benjamini-yekutieli": "fdr_by", "sidak": "sidak"}
 
 
 def adjust_cases():
@@ -107,8 +107,8 @@ def studentized_range_mpmath():
 # value from scipy.stats.studentized_range when SciPy has it, else from the psturng/qsturng
 # approximations) and, independently, from the published formula with SciPy's studentized range.
 # Games–Howell and Dunn have no SciPy/statsmodels implementation: computed here from the published
-# formulas (Games & Howell 1976; Dunn 1964) with SciPy's distributions. t-pairs: scipy ttest_ind
-# (Welch); rank-pairs: scipy mannwhitneyu (exact without ties when both n < 50, else asymptotic with
+# formulas (Games & Howell 1976; Dunn 1964) with SciPy's distributions. pairwise-t: scipy ttest_ind
+# (Welch); pairwise-ranks: scipy mannwhitneyu (exact without ties when both n < 50, else asymptotic with
 # continuity correction), U of the first group; both Holm-adjusted by multipletests.
 def posthoc_data():
     rng = np.random.default_rng(7012)
@@ -238,8 +238,8 @@ def posthoc_cases():
         if name != "twenty_groups":
             case["games-howell"] = games_howell_reference(groups, level)
             case["dunn"] = add_adjusted(dunn_reference(groups, level))
-            case["t-pairs"] = add_adjusted(pairwise_reference(groups, "t"))
-            case["rank-pairs"] = add_adjusted(pairwise_reference(groups, "rank"))
+            case["pairwise-t"] = add_adjusted(pairwise_reference(groups, "t"))
+            case["pairwise-ranks"] = add_adjusted(pairwise_reference(groups, "rank"))
         if name == "positive":
             # log transform: Tukey–Kramer on ln x; estimate and limits back as ratios of geometric means.
             logged = [list(np.log(np.array(g))) for g in groups]

@@ -364,7 +364,7 @@ def sidak(p):
 
 
 OUT["adjust"] = {"p": flt(P4)}
-for key, exact, theirs in [("holm", holm, "holm"), ("hommel", hommel, "hommel"), ("by", by, "fdr_by"),
+for key, exact, theirs in [("holm", holm, "holm"), ("hommel", hommel, "hommel"), ("benjamini-yekutieli", by, "fdr_by"),
                            ("sidak", sidak, "sidak")]:
     values = exact(P4)
     library = multipletests(flt(P4), alpha=0.05, method=theirs)[1]

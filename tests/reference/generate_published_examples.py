@@ -143,7 +143,7 @@ BH_1995 = [0.0001, 0.0004, 0.0019, 0.0095, 0.0201, 0.0278, 0.0298, 0.0344, 0.045
            0.3240, 0.4262, 0.5719, 0.6528, 0.7590, 1.000]
 OUT["bh_1995"] = {"p": BH_1995}
 for method, key in [("bonferroni", "bonferroni"), ("holm", "holm"), ("simes-hochberg", "hochberg"),
-                    ("hommel", "hommel"), ("fdr_bh", "bh"), ("fdr_by", "by"), ("sidak", "sidak")]:
+                    ("hommel", "hommel"), ("fdr_bh", "benjamini-hochberg"), ("fdr_by", "benjamini-yekutieli"), ("sidak", "sidak")]:
     with np.errstate(divide="ignore"):  # Šidák takes log1p(−p), −inf for p = 1, which gives 1
         OUT["bh_1995"][key] = flt(multipletests(BH_1995, 0.05, method)[1])
 

@@ -109,7 +109,7 @@ def two_group_cases():
         "statistic": DF(ranks["statistic"]), "p": P(ranks["p"]), "estimate": N(ranks["estimate"]),
         "ci-low": N(ranks["ci-low"]), "ci-high": N(ranks["ci-high"]), "effect": N(ranks["effect"])}}
     welch = t_reference(np.log1p(GRAVEL), np.log1p(SILT), False)
-    cases["mayfly welch log1p"] = {"reference": welch, "tokens": {
+    cases["mayfly welch log(x+1)"] = {"reference": welch, "tokens": {
         "statistic": N(welch["statistic"]), "df": DF(welch["df"]), "p": P(welch["p"]),
         "estimate": N(welch["estimate"]), "ci-low": N(welch["ci-low"]), "ci-high": N(welch["ci-high"]),
         "effect": N(welch["effect"])}}
@@ -174,7 +174,7 @@ def normality_cases():
     dstat, p = lilliefors(x, dist="norm", pvalmethod="approx")
     cases["springs lilliefors"] = {"D": float(dstat), "p": float(p)}
     k2 = st.normaltest(x)
-    cases["springs dagostino"] = {"K2": float(k2.statistic), "p": float(k2.pvalue)}
+    cases["springs dagostino-pearson"] = {"K2": float(k2.statistic), "p": float(k2.pvalue)}
     jb = st.jarque_bera(x)
     cases["springs jarque-bera"] = {"JB": float(jb.statistic), "p": float(jb.pvalue)}
     out = {}

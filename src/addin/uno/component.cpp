@@ -33,6 +33,7 @@
 #include <rtl/string.hxx>
 #include <rtl/ustring.hxx>
 
+#include "addin/clip.hpp"
 #include "addin/registry.hpp"
 #include "core/cells.hpp"
 
@@ -47,6 +48,7 @@ using quadrat::CellValue;
 using quadrat::Range;
 using quadrat::Table;
 using quadrat::addin::Arguments;
+using quadrat::addin::Clip;
 
 constexpr const char* implementation_name = "org.quadrat.calc.Functions";
 constexpr const char* service_name = "org.quadrat.Functions";
@@ -174,13 +176,6 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
     return range;
 }
 
-// A reference read only down to the end of the used area: how many rows it spans on the sheet,
-// and how many were read.
-struct Clip {
-    std::size_t sheet_rows;
-    std::size_t used_rows;
-};
-
 bool is_empty_value(const css::uno::Any& value) {
     if (!value.hasValue()) return true;
     if (value.getValueTypeClass() != css::uno::TypeClass_STRING) return false;
@@ -190,12 +185,7 @@ bool is_empty_value(const css::uno::Any& value) {
 }
 
 // An `any` argument: omitted (void), a typed number or text, or a block (a range or an inline
-// array such as {1;2;3}).
-// A reference is read down to the end of the used area only, but an `any` argument such as
-// `groups` = A:A arrives whole from Calc (a million rows). A block spanning exactly the rows of a
-// clipped reference is read only as far, when the rows left out are empty, so that values B:B
-// and groups A:A keep the same number of rows, as they have on the sheet, and the empty rest of
-// the column costs a scan rather than a million converted cells.
+// array such as {1;2;3}); a block beside a clipped reference is cut to its rows (clip.hpp).
 Range from_any(const css::uno::Any& value, const std::vector<Clip>& clips) {
     if (!value.hasValue()) return Range::omitted_argument();
     css::uno::Sequence<css::uno::Sequence<css::uno::Any>> block;
@@ -203,16 +193,11 @@ Range from_any(const css::uno::Any& value, const std::vector<Clip>& clips) {
         Range range;
         range.rows = static_cast<std::size_t>(block.getLength());
         for (const auto& row : block) range.columns = std::max(range.columns, static_cast<std::size_t>(row.getLength()));
-        for (const Clip& clip : clips) {
-            if (clip.sheet_rows != range.rows) continue;
-            bool rest_is_empty = true;
-            for (sal_Int32 r = static_cast<sal_Int32>(clip.used_rows); r < block.getLength() && rest_is_empty; ++r)
-                for (const css::uno::Any& cell : block[r]) rest_is_empty = rest_is_empty && is_empty_value(cell);
-            if (rest_is_empty) {
-                range.rows = clip.used_rows;
-                break;
-            }
-        }
+        range.rows = quadrat::addin::rows_to_read(range.rows, clips, [&](std::size_t r) {
+            for (const css::uno::Any& cell : block[static_cast<sal_Int32>(r)])
+                if (!is_empty_value(cell)) return false;
+            return true;
+        });
         range.cells.reserve(range.rows * range.columns);
         for (sal_Int32 r = 0; r < static_cast<sal_Int32>(range.rows); ++r) {
             const css::uno::Sequence<css::uno::Any>& row = block[r];
@@ -308,7 +293,7 @@ private:
     // The fence around one call: conversions in, the fenced handler, conversion out.
     static css::uno::Any answer(const char* method, const std::function<void(Call&)>& convert) noexcept {
         try {
-            const quadrat::addin::FunctionInfo* function = quadrat::addin::find_function(method);
+            const quadrat::addin::Function* function = quadrat::addin::find_function(method);
             if (!function) return css::uno::Any(OUString("this function is not available in this version"));
             Call call(function->arguments.size());
             convert(call);
