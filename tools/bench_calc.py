@@ -229,7 +229,7 @@ def workbook_formulas():
                 f.append('=COMPARE.GROUPS(%s;%s;"%s";"%s")' % (r(v), r("B"), m, o))
             for o in ("p", "statistic", "n"):
                 f.append('=COMPARE.GROUPS(%s;%s;"%s";"%s")' % (r(v), r("A"), m, o))
-        for m in ("anderson-darling", "lilliefors", "dagostino", "jarque-bera"):
+        for m in ("anderson-darling", "lilliefors", "dagostino-pearson", "jarque-bera"):
             f.append('=CHECK.NORMAL(%s;%s;"%s";"p")' % (r(v), r("A"), m))
         for m in ("brown-forsythe", "levene", "bartlett", "fligner"):
             f.append('=CHECK.VARIANCE(%s;%s;"%s";"p")' % (r(v), r("A"), m))

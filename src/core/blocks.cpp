@@ -19,17 +19,20 @@
 
 namespace quadrat {
 
+const KeywordTable& block_methods() {
+    static const KeywordTable t{"block methods",
+                                {{"pooled", "randomized complete block ANOVA; paired t for two groups"},
+                                 {"ranks", "Friedman test; Wilcoxon signed-rank for two groups"},
+                                 {"sign", "exact sign test, two groups"}}};
+    return t;
+}
+
 namespace {
 
 std::string single_quoted(const std::string& name) { return "'" + name + "'"; }
 
-const std::vector<std::string>& block_methods() {
-    static const std::vector<std::string> keys = {"pooled", "ranks", "sign"};
-    return keys;
-}
-
 std::string method_of(const std::string& given, std::size_t groups) {
-    const std::string method = match_keyword(given, block_methods(), "method");
+    const std::string method = block_methods().pick(given, "method");
     if (method == "sign" && groups != 2)
         throw Refusal("method 'sign' compares exactly 2 groups, found " + std::to_string(groups) +
                       "; use 'pooled' (block ANOVA) or 'ranks' (Friedman test)");

@@ -12,8 +12,12 @@
 #include "adjust.hpp"
 #include "posthoc.hpp"
 #include "result.hpp"
+#include "keywords.hpp"
 
 namespace quadrat {
+
+// COMPARE.BLOCKS' methods (a keyword table, keywords.hpp).
+const KeywordTable& block_methods();
 
 // Labels → indices in order of first appearance (the catalogue's group order), one hash look-up per
 // row and one string copy per distinct label. Shared with COMPARE.NESTED.

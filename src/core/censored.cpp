@@ -17,6 +17,20 @@
 
 namespace quadrat {
 
+const KeywordTable& censored_summary_methods() {
+    static const KeywordTable t{"censored summary methods",
+                                {{"kaplan-meier", "Kaplan–Meier on flipped values"},
+                                 {"ros", "robust regression on order statistics, lognormal"}}};
+    return t;
+}
+
+const KeywordTable& censored_test_methods() {
+    static const KeywordTable t{"censored test methods",
+                                {{"peto-prentice", "generalized Wilcoxon score test (Peto–Prentice)"},
+                                 {"gehan", "Gehan's generalized Wilcoxon test"}}};
+    return t;
+}
+
 std::size_t CensoredGroups::n_used() const {
     std::size_t n = 0;
     for (const auto& g : values) n += g.size();
@@ -356,7 +370,7 @@ void require_some_values(const CensoredGroups& groups) {
 }  // namespace
 
 Table describe_censored(const CensoredGroups& groups, const std::string& method_given, double level) {
-    const std::string method = match_keyword(method_given, {"kaplan-meier", "ros"}, "method");
+    const std::string method = censored_summary_methods().pick(method_given, "method");
     require_some_values(groups);
     if (!(level > 0 && level < 1)) throw Refusal("level must be a fraction such as 0.95 or a percentage from 50 to 99.9");
     refuse_beyond_scale(groups);
@@ -429,7 +443,7 @@ std::string censored_report(const TestResult& r, const CensoredGroups& groups, s
 // 167–179; in this weighted form the G^ρ test with ρ = 1 of Harrington & Fleming 1982, Biometrika
 // 69, 553–566). O(n log n + n·k + k³).
 TestResult compare_censored(const CensoredGroups& groups, const std::string& method_given) {
-    const std::string method = match_keyword(method_given, {"peto-prentice", "gehan"}, "method");
+    const std::string method = censored_test_methods().pick(method_given, "method");
     require_some_values(groups);
     const std::size_t k = groups.names.size();
     if (k < 2)

@@ -18,8 +18,13 @@
 
 #include "cells.hpp"
 #include "result.hpp"
+#include "keywords.hpp"
 
 namespace quadrat {
+
+// DESCRIBE.CENSORED's and COMPARE.CENSORED's methods (keyword tables, keywords.hpp).
+const KeywordTable& censored_summary_methods();
+const KeywordTable& censored_test_methods();
 
 // One observation: a measured value, or (censored) a value known only to lie below `value`, its
 // detection limit.

@@ -48,7 +48,7 @@ double checked_count(const Range& r, std::size_t row, std::size_t column, const 
     if (c.kind == CellKind::empty) throw Refusal(at + " is empty; a count of none is entered as 0");
     if (c.kind == CellKind::text)
         throw Refusal(at + " holds text ('" + c.text + "'); counts must be whole numbers" +
-                      (argument == "counts_or_labels" ? " (to cross-tabulate labels, give the second label column as labels2)" : ""));
+                      (argument == "categories" ? " (to cross-tabulate labels, give the second label column as labels2)" : ""));
     const double x = c.number;
     if (!std::isfinite(x)) throw Refusal(at + " is not a number");
     if (x < 0) throw Refusal(at + " holds a negative count (" + count_text(x) + "); counts must be 0 or more");
@@ -124,7 +124,7 @@ void note_expected(SmallExpected& s, double e) {
 // Reading
 
 ContingencyTable read_count_block(const Range& block) {
-    const std::string argument = "counts_or_labels";
+    const std::string argument = "categories";
     if (block.empty()) throw Refusal(argument + " is empty");
     for (std::size_t i = 0; i < block.rows; ++i)
         for (std::size_t j = 0; j < block.columns; ++j)
@@ -177,12 +177,12 @@ ContingencyTable read_count_block(const Range& block) {
 }
 
 ContingencyTable cross_tabulate(const Range& labels1, const Range& labels2) {
-    if (labels1.empty()) throw Refusal("counts_or_labels is empty");
+    if (labels1.empty()) throw Refusal("categories is empty");
     if (labels2.empty()) throw Refusal("labels2 is empty");
     if (labels1.columns != 1 || labels2.columns != 1)
-        throw Refusal("with labels2, counts_or_labels and labels2 must each be one column of labels (found " +
+        throw Refusal("with labels2, categories and labels2 must each be one column of labels (found " +
                       std::to_string(labels1.columns) + " and " + std::to_string(labels2.columns) + ")");
-    const Frame f = read_frame({{&labels1, ColumnKind::label, "counts_or_labels"}, {&labels2, ColumnKind::label, "labels2"}});
+    const Frame f = read_frame({{&labels1, ColumnKind::label, "categories"}, {&labels2, ColumnKind::label, "labels2"}});
     ContingencyTable t;
     t.n_dropped = f.n_dropped;
     std::unordered_map<std::string, std::size_t> row_index, column_index;

@@ -32,6 +32,10 @@ public:
     std::string match(const std::string& given, const std::string& argument, const std::string& fallback) const;
     // The position in the table of `given` (blank: the first word); unknown: the same refusal.
     std::size_t index(const std::string& given, const std::string& argument) const;
+    // The word for `given`, the first word (the default) when blank; unknown: the same refusal.
+    const std::string& pick(const std::string& given, const std::string& argument) const {
+        return words_[index(given, argument)].word;
+    }
 
 private:
     std::string name_;

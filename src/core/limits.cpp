@@ -77,7 +77,7 @@ double fraction_argument(double p, const std::string& name) {
 enum class Side { upper, lower, two_sided };
 
 Side side_keyword(const std::string& given) {
-    const std::string key = match_keyword(given, {"upper", "lower", "two-sided"}, "side");
+    const std::string key = limit_sides().pick(given, "side");
     return key == "upper" ? Side::upper : key == "lower" ? Side::lower : Side::two_sided;
 }
 
@@ -237,14 +237,42 @@ double share_of_orderings(double gaps, double n, double readings) {
 
 }  // namespace
 
-const std::vector<std::string>& limit_outputs() {
-    static const std::vector<std::string> keys = {"limit", "estimate", "k-factor", "n",     "count",
-                                                  "limit-low", "limit-high", "table", "report"};
-    return keys;
+const KeywordTable& limit_outputs() {
+    static const KeywordTable t{"limit outputs",
+                                {{"limit", "the limit the function is for"},
+                                 {"estimate", "the quantity it bounds"},
+                                 {"k-factor", "the normal methods' multiplier"},
+                                 {"n", "observations used"},
+                                 {"count", "values above the standard"},
+                                 {"limit-low", "lower limit, two-sided"},
+                                 {"limit-high", "upper limit, two-sided"},
+                                 {"table", "the whole result as an array"},
+                                 {"report", "one sentence"}}};
+    return t;
+}
+
+const KeywordTable& limit_sides() {
+    static const KeywordTable t{"sides",
+                                {{"upper", "an upper limit"}, {"lower", "a lower limit"}, {"two-sided", "both limits"}}};
+    return t;
+}
+
+const KeywordTable& mean_limit_methods() {
+    static const KeywordTable t{"mean limit methods",
+                                {{"t", "Student's t"},
+                                 {"bootstrap", "bias-corrected and accelerated bootstrap, fixed seed"},
+                                 {"chebyshev", "distribution-free, conservative"}}};
+    return t;
+}
+
+const KeywordTable& limit_methods() {
+    static const KeywordTable t{"limit methods",
+                                {{"normal", "from the normal distribution"}, {"distribution-free", "from order statistics"}}};
+    return t;
 }
 
 Table select_limit_output(const LimitResult& limit, const std::string& output) {
-    const std::string key = match_keyword(output, limit_outputs(), "output");
+    const std::string key = limit_outputs().pick(output, "output");
     if (key == "limit" && limit.two_sided)
         throw Refusal("side two-sided gives two limits: ask for output limit-low or limit-high");
     if ((key == "limit-low" || key == "limit-high") && !limit.two_sided)
@@ -252,7 +280,7 @@ Table select_limit_output(const LimitResult& limit, const std::string& output) {
     if (key == "estimate") {
         if (limit.estimate_label.empty())
             throw Refusal("output 'estimate' is not available for " + limit.result.test);
-        return select_output(limit.result, limit.estimate_label, {limit.estimate_label});
+        return select_output(limit.result, limit.estimate_label, KeywordTable("output", {{limit.estimate_label, ""}}));
     }
     return select_output(limit.result, key, limit_outputs());
 }
@@ -294,7 +322,7 @@ double tolerance_factor_two_sided(double n, double proportion, double confidence
 }
 
 LimitResult limit_mean(std::span<const double> values, const std::string& method_given, double level_given) {
-    const std::string method = match_keyword(method_given, {"t", "bootstrap", "chebyshev"}, "method");
+    const std::string method = mean_limit_methods().pick(method_given, "method");
     const double level = parse_level(level_given, false);
     if (method == "bootstrap" && values.size() < 10)
         throw Refusal("method bootstrap needs at least 10 values, found " + std::to_string(values.size()) +
@@ -404,7 +432,7 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
     const double level = parse_level(level_given, false);
     fraction_argument(proportion, "proportion");
     const Side side = side_keyword(side_given);
-    const std::string method = match_keyword(method_given, {"normal", "distribution-free"}, "method");
+    const std::string method = limit_methods().pick(method_given, "method");
     const std::string head = side_words(side) + " tolerance limit" + (side == Side::two_sided ? "s" : "") + " for " +
                              percent(proportion) + " of the population at " + format_level(level) + " confidence";
     LimitResult r;
@@ -483,7 +511,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
     if (!(readings >= 1 && readings <= 1e6 && readings == std::floor(readings)))
         throw Refusal("readings must be a whole number of new readings from 1 to 1000000, found " + number_label(readings));
     const Side side = side_keyword(side_given);
-    const std::string method = match_keyword(method_given, {"normal", "distribution-free"}, "method");
+    const std::string method = limit_methods().pick(method_given, "method");
     const std::string next = readings == 1 ? "the next reading" : "each of the next " + format_df(readings) + " readings";
     const std::string head = side_words(side) + " prediction limit" + (side == Side::two_sided ? "s" : "") + " for " + next +
                              " at " + format_level(level) + " confidence";

@@ -9,6 +9,7 @@
 #include <vector>
 
 #include "result.hpp"
+#include "keywords.hpp"
 
 namespace quadrat {
 
@@ -21,8 +22,12 @@ struct LimitResult {
     bool two_sided = false;      // then `limit` is a refusal pointing to limit-low and limit-high
 };
 
-// The outputs of every LIMIT.* function, in the order a refusal lists them.
-const std::vector<std::string>& limit_outputs();
+// The outputs of every LIMIT.* function, in the order a refusal lists them, and the keyword tables
+// of their options (keywords.hpp).
+const KeywordTable& limit_outputs();
+const KeywordTable& limit_sides();         // `side`
+const KeywordTable& mean_limit_methods();  // LIMIT.MEAN
+const KeywordTable& limit_methods();       // LIMIT.TOLERANCE, LIMIT.PREDICTION
 // What a cell shows for `output`.
 Table select_limit_output(const LimitResult& limit, const std::string& output);
 

@@ -193,7 +193,7 @@ OutlierCheck fences(std::span<const double> values) {
 }  // namespace
 
 OutlierCheck check_outliers(std::span<const double> values, const std::string& method_given, double most, double level_given) {
-    const std::string method = match_keyword(method_given, {"generalized-esd", "grubbs", "fences"}, "method");
+    const std::string method = outlier_methods().pick(method_given, "method");
     const double level = parse_level(level_given, false);
     if (most > 0 && method != "generalized-esd") throw Refusal("most applies to method generalized-esd only; leave it empty");
     if (most < 0 || std::isnan(most)) throw Refusal("most must be a whole number of values from 1, found " + number_label(most));
@@ -202,9 +202,21 @@ OutlierCheck check_outliers(std::span<const double> values, const std::string& m
     return fences(values);
 }
 
-const std::vector<std::string>& outlier_outputs() {
-    static const std::vector<std::string> keys = {"flags", "count", "table", "report"};
-    return keys;
+const KeywordTable& outlier_outputs() {
+    static const KeywordTable t{"outlier outputs",
+                                {{"flags", "outlier beside each value that stands out"},
+                                 {"count", "how many stand out"},
+                                 {"table", "each suspected value with its test"},
+                                 {"report", "one sentence"}}};
+    return t;
+}
+
+const KeywordTable& outlier_methods() {
+    static const KeywordTable t{"outlier methods",
+                                {{"generalized-esd", "Rosner's generalized ESD, n ≥ 25"},
+                                 {"grubbs", "Grubbs' test of the most extreme value"},
+                                 {"fences", "beyond 1.5 × IQR outside the quartiles"}}};
+    return t;
 }
 
 Table outlier_flags(const OutlierCheck& check, std::span<const std::size_t> row_of, std::size_t rows) {

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "cells.hpp"
+#include "keywords.hpp"
 
 namespace quadrat {
 
@@ -35,8 +36,9 @@ struct OutlierCheck {
 // `most` ≤ 0 means omitted; it is refused with the other methods.
 OutlierCheck check_outliers(std::span<const double> values, const std::string& method, double most, double level);
 
-// The outputs of CHECK.OUTLIERS, in the order a refusal lists them.
-const std::vector<std::string>& outlier_outputs();
+// The outputs and methods of CHECK.OUTLIERS (keyword tables, keywords.hpp).
+const KeywordTable& outlier_outputs();
+const KeywordTable& outlier_methods();
 
 // `flags`: one cell per row of the raw range (`rows` of them), `outlier` beside each value that
 // stands out and blank elsewhere; row_of[i] is the raw row of values[i].

@@ -17,6 +17,15 @@
 
 namespace quadrat {
 
+const KeywordTable& plan_designs() {
+    static const KeywordTable t{"plan designs",
+                                {{"two-groups", "two independent groups, noncentral t"},
+                                 {"paired", "paired readings, sd of the differences"},
+                                 {"one-sample", "one sample against a value"},
+                                 {"several-groups", "one-way ANOVA over count groups, noncentral F"}}};
+    return t;
+}
+
 namespace {
 
 double positive(double x, const std::string& name, const std::string& what) {
@@ -88,7 +97,7 @@ double power_at(double n, double d, const Design& g, double alpha) {
 }  // namespace
 
 Design plan_design(const std::string& design, double count, bool count_given) {
-    const std::string key = match_keyword(design, {"two-groups", "paired", "one-sample", "several-groups"}, "design");
+    const std::string key = plan_designs().pick(design, "design");
     Design g;
     g.kind = key == "two-groups" ? DesignKind::two_groups
              : key == "paired"   ? DesignKind::paired

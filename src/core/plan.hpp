@@ -6,8 +6,12 @@
 #include <algorithm>
 #include <cstddef>
 #include <string>
+#include "keywords.hpp"
 
 namespace quadrat {
+
+// PLAN.*'s `design` (a keyword table, keywords.hpp).
+const KeywordTable& plan_designs();
 
 // Smallest whole n ≥ start with predicate(n) true, by doubling from `start` and then bisection
 // (O(log n) evaluations); 0 when none up to `cap`. The predicate must be monotone in n.

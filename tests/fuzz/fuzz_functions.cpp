@@ -36,20 +36,18 @@ private:
     std::size_t pos_ = 0;
 };
 
-// Every keyword of the catalogue, and the texts a field sheet holds.
+// The texts a field sheet holds (missing markers, labels, values below a detection limit, non-
+// detects), and every keyword of every table a declared argument takes (read from the registry,
+// so a new method or function is fuzzed without editing this file).
 const std::vector<std::string>& texts() {
-    static const std::vector<std::string> t = {
-        "", "n/a", "NA", "-", "\xE2\x80\x94", "?", "missing", "high", "low", "mid", "a", "b", "c", "2", "header",
-        "p", "statistic", "df", "df2", "n", "estimate", "ci-low", "ci-high", "effect", "table", "report",
-        "welch", "pooled", "ranks", "t", "signed-rank", "sign", "shapiro-wilk", "shapiro-francia",
-        "anderson-darling", "lilliefors", "dagostino", "jarque-bera", "brown-forsythe", "levene", "bartlett",
-        "fligner", "f-ratio", "tukey", "games-howell", "dunn", "t-pairs", "rank-pairs", "holm", "bonferroni",
-        "hochberg", "hommel", "bh", "by", "sidak", "chi-square", "yates", "g", "fisher", "pearson", "spearman",
-        "kendall", "coefficients", "model", "r2", "slope", "intercept", "sigma", "fitted", "residual",
-        "standardized", "studentized", "leverage", "cooks", "p-first", "p-second", "p-interaction",
-        "normality", "variance", "independence", "linearity", "collinearity", "influence", "outliers",
-        "none", "log", "log10", "log1p", "sqrt", "auto", "groups", "paired", "relationship", "method",
-        "transform", "function", "present", "absent", "yes", "no"};
+    static const std::vector<std::string> t = [] {
+        std::vector<std::string> all = {"", "n/a", "NA", "-", "\xE2\x80\x94", "?", "missing", "high", "low", "mid", "a",
+                                        "b", "c", "2", "header", "present", "absent", "yes", "no", "<0.5", "< 0,5",
+                                        "<DL", "ND", "n.d.", "BDL", "<"};
+        for (const quadrat::KeywordTable* table : quadrat::addin::declared_keyword_tables())
+            for (const auto& k : table->words()) all.push_back(k.word);
+        return all;
+    }();
     return t;
 }
 

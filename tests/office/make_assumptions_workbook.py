@@ -45,7 +45,7 @@ rng = "[.A1:.A%d]" % last
 methods = [("shapiro-wilk", case["shapiro_wilk"]["p"], SRC_SW),
            ("shapiro-francia", case["shapiro_francia"]["p"], SRC_NORMAL.replace("statsmodels 0.13 / SciPy 1.10", "Royston (1993) in mpmath")),
            ("anderson-darling", case["anderson_darling"]["p"], SRC_NORMAL),
-           ("dagostino", case["dagostino"]["p"], SRC_NORMAL),
+           ("dagostino-pearson", case["dagostino-pearson"]["p"], SRC_NORMAL),
            ("jarque-bera", case["jarque_bera"]["p"], SRC_NORMAL),
            ("lilliefors", case["lilliefors"]["p_approx"], SRC_NORMAL)]
 for i, (method, p, source) in enumerate(methods):

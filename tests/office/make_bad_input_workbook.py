@@ -231,10 +231,9 @@ GENERIC_DONE = set()
 def keyword_cases(name, args, argument, valid):
     """An unknown keyword where a keyword belongs (every keyword argument); a number and a single
     error cell there too, for the first keyword argument of each function (they take the same
-    path, src/addin/arguments.cpp, for every keyword argument). `args`: the arguments before it."""
+    path, the registry's generic reader, for every keyword argument). `args`: the arguments before it."""
     call = name + "(" + ";".join(args) + ";%s)"
-    refusal(name, "unknown keyword", argument, call % '"bogus"', "unknown %s 'bogus'; valid: %s" % (
-        "adjust" if argument == "method" and name == "ADJUST.P" else argument, valid))
+    refusal(name, "unknown keyword", argument, call % '"bogus"', "unknown %s 'bogus'; valid: %s" % (argument, valid))
     if name in GENERIC_DONE:
         return
     GENERIC_DONE.add(name)
@@ -255,7 +254,7 @@ def level_cases(name, args):
 def transform_cases(name, before, after=""):
     """The U column: 0 in U3 and -1.5 in U8."""
     for kind, t, text in (("log of 0 and negative", "log", "transform 'log' needs values > 0; 2 values are not"),
-                          ("log1p of -1.5", "log1p", "transform 'log1p' needs values > -1; 1 value is not"),
+                          ("log(x+1) of -1.5", "log(x+1)", "transform 'log(x+1)' needs values > -1; 1 value is not"),
                           ("sqrt of negative", "sqrt", "transform 'sqrt' needs values >= 0; 1 value is not")):
         refusal(name, kind, "transform", '%s(%s;%s"%s"%s)' % (name, col("U"), before, t, after), text)
 
@@ -293,9 +292,9 @@ case(N, "n = 3 (Shapiro-Wilk limit)", "values", "%s([$few.B1:.B3])" % N,
      "=6/PI()*(ASIN(SQRT((MAX([$few.B1:.B3])-MIN([$few.B1:.B3]))^2/2/DEVSQ([$few.B1:.B3])))-PI()/3)", 1e-10,
      "n = 3: W = (x(3) - x(1))^2 / (2 SS) and its exact p = (6/pi)(asin(sqrt W) - pi/3) (Shapiro and Wilk "
      "1965; Royston 1995, AS R94, from memory), by Calc's MAX, MIN, DEVSQ, ASIN; 1e-10 relative")
-refusal(N, "n = 7 (D'Agostino needs 8)", "values", '%s([$few.G1:.G7];;"dagostino")' % N,
+refusal(N, "n = 7 (D'Agostino needs 8)", "values", '%s([$few.G1:.G7];;"dagostino-pearson")' % N,
         "needs at least 8 values, found 7")
-case(N, "n = 8 (D'Agostino limit)", "values", '%s([$few.H1:.H8];;"dagostino";"n")' % N,
+case(N, "n = 8 (D'Agostino limit)", "values", '%s([$few.H1:.H8];;"dagostino-pearson";"n")' % N,
      "=COUNT([$few.H1:.H8])", None, "Calc's COUNT: the eight values are used")
 case(N, "one group only", "groups", "%s(%s;%s)" % (N, V, col("M")), REF["shapiro p, depth"], 1e-9,
      "residuals from one group mean are the depths less a constant; " + SRC_SW)
@@ -303,7 +302,7 @@ refusal(N, "mismatched lengths", "groups", "%s(%s;[$data.A2:.A10])" % (N, V), MI
 case(N, "error cell in labels", "groups", "%s(%s;%s)" % (N, V, col("Z")), "Err:504", None, ERR504)
 refusal(N, "one value per group", "groups", "%s([$few.D1:.D2];[$few.C1:.C2])" % N,
         "every group has a single value: residuals from group means need groups of 2 or more values")
-keyword_cases(N, [V, ""], "method", "shapiro-wilk, shapiro-francia, anderson-darling, lilliefors, dagostino, jarque-bera")
+keyword_cases(N, [V, ""], "method", "shapiro-wilk, shapiro-francia, anderson-darling, lilliefors, dagostino-pearson, jarque-bera")
 keyword_cases(N, [V, "", ""], "output", "p, statistic, df, n, table, report")
 
 
@@ -378,8 +377,8 @@ case(N, "error cell in labels", "groups", "%s(%s;%s)" % (N, V, col("Z")), "Err:5
 case(N, "whole column", "values", "ROWS(%s([$data.B:.B]))" % N, "=ROWS([$data.B1:.B13])", None,
      "a whole column is read down to the sheet's used rows (13 here): one output row per input row")
 
-# ================================== CHECK.MODEL(y; xs; [output]) =================================
-N = "CHECK.MODEL"
+# ================================== CHECK.REGRESSION(y; xs; [output]; [order]) ===================
+N = "CHECK.REGRESSION"
 NO_ROWS = "needs more complete rows than terms: found %d rows for 2 terms; add rows or remove predictors"
 NO_ROWS_ONE = "needs more complete rows than terms: found 1 row for 2 terms; add rows or remove predictors"
 RULE = "INDEX(%s(%%s;%%s);4;4)" % N   # the independence row's rule
@@ -453,7 +452,7 @@ refusal(N, "one value per group, ranks", "values", '%s([$few.D1:.D2];[$few.C1:.C
 keyword_cases(N, [V, G], "method", "welch, pooled, ranks")
 OUTPUTS = "p, statistic, df, df2, n, estimate, ci-low, ci-high, effect, table, report"
 keyword_cases(N, [V, G, ""], "output", OUTPUTS)
-keyword_cases(N, [V, G, "", ""], "transform", "none, log, log10, log1p, sqrt")
+keyword_cases(N, [V, G, "", ""], "transform", "none, log, log10, log(x+1), sqrt")
 transform_cases(N, G + ";;;")
 
 # ================================== COMPARE.PAIRED(first; second; [method]; [output]; [transform])
@@ -491,7 +490,7 @@ refusal(N, "sign test, all differences zero", "second", '%s(%s;%s;"sign")' % (N,
         "needs at least 2 non-zero differences, found 0 (12 pairs differ by zero)")
 keyword_cases(N, [V, O], "method", "t, signed-rank, sign")
 keyword_cases(N, [V, O, ""], "output", OUTPUTS)
-keyword_cases(N, [V, O, "", ""], "transform", "none, log, log10, log1p, sqrt")
+keyword_cases(N, [V, O, "", ""], "transform", "none, log, log10, log(x+1), sqrt")
 transform_cases(N, O + ";;;")
 
 
@@ -530,15 +529,16 @@ def pairwise(N, pick, expect_pick, src_pick):
             "tukey needs more values than groups to estimate the spread within groups; found 2 values in 2 groups")
     case(N, "two values per group", "values", at % ("[$few.F1:.F4]", "[$few.E1:.E4]"),
          expect_pick("[$few.F1:.F2]", "[$few.F3:.F4]", "", ""), 1e-6, src_pick)
-    keyword_cases(N, [V, G], "method", "tukey, games-howell, dunn, t-pairs, rank-pairs")
+    keyword_cases(N, [V, G], "method", "tukey, games-howell, dunn, pairwise-t, pairwise-ranks")
 
 
+ADJUSTMENTS = "holm, bonferroni, hochberg, hommel, benjamini-hochberg, benjamini-yekutieli, sidak"
 N = "COMPARE.POSTHOC"
 pairwise(N, "2;7", lambda a, b, f, _: ("{=T.TEST(%s%s;%s%s;2;2)}" % (a, f, b, f)) if f else ttest(a, b, 2),
          "the p of the only pair: Tukey-Kramer with two groups equals the pooled t-test (q = t sqrt 2), Calc's "
          "T.TEST; 1e-6 relative: the studentized range integration")
-keyword_cases(N, [V, G, '"t-pairs"'], "adjust", "holm, bonferroni, hochberg, hommel, bh, by, sidak")
-keyword_cases(N, [V, G, "", ""], "transform", "none, log, log10, log1p, sqrt")
+keyword_cases(N, [V, G, '"pairwise-t"'], "adjust", ADJUSTMENTS)
+keyword_cases(N, [V, G, "", ""], "transform", "none, log, log10, log(x+1), sqrt")
 transform_cases(N, G + ";;;")
 level_cases(N, "%s;%s;;;" % (V, G))
 case(N, "level 99 (percent)", "level", "INDEX(%s(%s;%s;;;;99);2;4)" % (N, V, G),
@@ -552,48 +552,49 @@ pairwise(N, "2;3", lambda a, b, f, back: "{=AVERAGE(%s%s)%s}" % (a, f, back) if 
 case(N, "letters of the whole columns", "values", "INDEX(%s([$data.B:.B];[$data.A:.A]);2;4)" % N, "b", None,
      "the pair's p (0.00026, Calc's T.TEST) is below 0.05 and reed has the larger mean: marsh gets b "
      "(FUNCTIONS.md COMPARE.LETTERS)")
-keyword_cases(N, [V, G, "", ""], "transform", "none, log, log10, log1p, sqrt")
+keyword_cases(N, [V, G, "", ""], "transform", "none, log, log10, log(x+1), sqrt")
 transform_cases(N, G + ";;;")
-level_cases(N, "%s;%s;" % (V, G))
-case(N, "level 99 (percent)", "level", "INDEX(%s(%s;%s;;99);2;4)" % (N, V, G), "b", None,
+keyword_cases(N, [V, G, '"pairwise-t"'], "adjust", ADJUSTMENTS)
+level_cases(N, "%s;%s;;;" % (V, G))
+case(N, "level 99 (percent)", "level", "INDEX(%s(%s;%s;;;;99);2;4)" % (N, V, G), "b", None,
      "99 read as 99%: the pair's p (0.00026, Calc's T.TEST) is below 0.01, so marsh keeps b")
 
-# ================================== COMPARE.COUNTS(counts_or_labels; [labels2]; [method]; [output])
+# ================================== COMPARE.COUNTS(categories; [labels2]; [method]; [output]) =====
 N = "COMPARE.COUNTS"
 SRC_CHI = SRC_GEN % ("scipy.stats.chi2_contingency, correction=False", "1e-9 relative")
-refusal(N, "zero row in counts", "counts_or_labels", "%s(%s)" % (N, block("zero row")),
+refusal(N, "zero row in counts", "categories", "%s(%s)" % (N, block("zero row")),
         "row 'pool' has no observations (total 0); remove that category")
-refusal(N, "zero column in counts", "counts_or_labels", "%s(%s)" % (N, block("zero column")),
+refusal(N, "zero column in counts", "categories", "%s(%s)" % (N, block("zero column")),
         "column 'absent' has no observations (total 0); remove that category")
-refusal(N, "negative count", "counts_or_labels", "%s(%s)" % (N, block("negative")),
+refusal(N, "negative count", "categories", "%s(%s)" % (N, block("negative")),
         "C14 holds a negative count (-5); counts must be 0 or more")
-refusal(N, "non-integer count", "counts_or_labels", "%s(%s)" % (N, block("non-integer")),
+refusal(N, "non-integer count", "categories", "%s(%s)" % (N, block("non-integer")),
         "B18 holds 12.5; counts must be whole numbers (use the raw counts, not percentages)")
-case(N, "duplicate names in counts", "counts_or_labels", "%s(%s)" % (N, block("duplicate names")),
+case(N, "duplicate names in counts", "categories", "%s(%s)" % (N, block("duplicate names")),
      REF["chi-square p, riffle/pool present/absent"], 1e-9,
      "names only label the rows and columns: the counts are those of the good block; " + SRC_CHI)
-refusal(N, "huge count", "counts_or_labels", "%s(%s)" % (N, block("huge")),
+refusal(N, "huge count", "categories", "%s(%s)" % (N, block("huge")),
         "B26 holds a count too large to count exactly (over 2^53); counts must be raw tallies of observations")
-refusal(N, "error cell in counts", "counts_or_labels", "%s(%s)" % (N, block("error cell")),
+refusal(N, "error cell in counts", "categories", "%s(%s)" % (N, block("error cell")),
         "B30 holds an error (#DIV/0!)")
-refusal(N, "all cells blank", "counts_or_labels", "%s(%s)" % (N, col("C")),
+refusal(N, "all cells blank", "categories", "%s(%s)" % (N, col("C")),
         "needs at least 2 rows and 2 columns of categories, found 0x0; for one set of counts against expected "
         "shares use COMPARE.EXPECTED")
-refusal(N, "all text in counts", "counts_or_labels", "%s(%s)" % (N, block("all text")),
+refusal(N, "all text in counts", "categories", "%s(%s)" % (N, block("all text")),
         "B34 holds text ('many'); counts must be whole numbers (to cross-tabulate labels, give the second label "
         "column as labels2)")
-refusal(N, "1x1 range", "counts_or_labels", "%s([$counts.B2])" % N,
+refusal(N, "1x1 range", "categories", "%s([$counts.B2])" % N,
         "needs at least 2 rows and 2 columns of categories, found 1x1; for one set of counts against expected "
         "shares use COMPARE.EXPECTED")
 refusal(N, "one label only", "labels2", "%s(%s;%s)" % (N, G, col("M")),
         "needs at least 2 rows and 2 columns of categories, found 2x1; for one set of counts against expected "
         "shares use COMPARE.EXPECTED")
 refusal(N, "mismatched lengths", "labels2", "%s(%s;[$data.X2:.X10])" % (N, G),
-        MISMATCH % ("counts_or_labels", "labels2"))
+        MISMATCH % ("categories", "labels2"))
 case(N, "error cell in labels2", "labels2", "%s(%s;%s)" % (N, X, col("Z")), "Err:504", None, ERR504)
-case(N, "empty labels", "counts_or_labels", "%s(%s;%s)" % (N, col("N"), X),
+case(N, "empty labels", "categories", "%s(%s;%s)" % (N, col("N"), X),
      REF["chi-square p, zone with gaps by season"], 1e-9, "rows 3 and 10 dropped; " + SRC_CHI)
-case(N, "whole columns", "counts_or_labels", '%s([$data.A:.A];[$data.X:.X];;"n")' % N, "=COUNTA(%s)" % G, None,
+case(N, "whole columns", "categories", '%s([$data.A:.A];[$data.X:.X];;"n")' % N, "=COUNTA(%s)" % G, None,
      "the header row is not counted, the used rows are: Calc's COUNTA")
 refusal(N, "yates on a 2x3 table", "method", '%s(%s;%s;"yates")' % (N, G, col("AD")),
         "method 'yates' is for 2x2 tables; this table is 2x3 (use chi-square, g or fisher)")
@@ -660,7 +661,7 @@ for method in ("spearman", "kendall"):
     refusal(N, "zero spread, " + method, "x", '%s(%s;%s;"%s")' % (N, col("G"), P, method),
             "x is constant (every used row holds 5.00); a correlation needs spread in both")
 keyword_cases(N, [V, P], "method", "pearson, spearman, kendall")
-keyword_cases(N, [V, P, ""], "output", OUTPUTS)
+keyword_cases(N, [V, P, ""], "output", "p, statistic, df, n, estimate, ci-low, ci-high, table, report")
 
 # ================================== FIT.LINEAR(y; xs; [output]; [level]) =========================
 N = "FIT.LINEAR"
@@ -747,7 +748,7 @@ level_cases(N, '%s;%s;"coefficients"' % (T, P))
 case(N, "level 99 (percent)", "level", 'INDEX(%s(%s;%s;"coefficients";99);3;7)' % (N, T, P),
      REF["logistic 99%, present on distance"]["or_low"], 1e-8, "99 read as 99%: the odds ratio's lower limit; " + SRC_LOGIT)
 
-# ================================== FIT.POINTS(y; xs; [what]) ====================================
+# ================================== FIT.POINTS(y; xs; [output]) ==================================
 N = "FIT.POINTS"
 FITTED_1 = "(INTERCEPT(%s;%s)+SLOPE(%s;%s)*[$data.P2])"
 SRC_FIT = "the first row's fitted value by Calc's INTERCEPT and SLOPE; 1e-9 relative"
@@ -770,42 +771,39 @@ refusal(N, "n = 2", "y", '%s([$few.A1:.A2];[$few.L1:.L2];"leverage")' % N, NO_RO
 case(N, "whole columns", "y", "ROWS(%s([$data.B:.B];[$data.P:.P]))" % N, "=ROWS([$data.B1:.B13])", None,
      "a whole column is read down to the used rows (13 here); the header row takes the column names "
      "(FUNCTIONS.md FIT.POINTS)")
-keyword_cases(N, [V, P], "what", "fitted, residual, standardized, studentized, leverage, cook")
+keyword_cases(N, [V, P], "output", "fitted, residual, standardized, studentized, leverage, cook")
 
-# ================================== FIT.FACTORIAL(values; factor1; factor2; [output]; [sstype]) ==
+# ================================== FIT.FACTORIAL(values; factor1; factor2; [output]; [sums]) ====
 N = "FIT.FACTORIAL"
 SRC_AOV = SRC_GEN % ("statsmodels ols + anova_lm typ=2", "1e-9 relative")
 NO_ROW = "no row has a value and both factor labels"
 for kind in NO_NUMBERS:
-    refusal(N, kind, "values", '%s(%s;%s;%s;"p-first")' % (N, VALUE_KINDS[kind], G, X), NO_ROW)
-refusal(N, "error cell #DIV/0!", "values", '%s(%s;%s;%s;"p-first")' % (N, col("E"), G, X), E4)
-refusal(N, "error cell #N/A", "values", '%s(%s;%s;%s;"p-first")' % (N, col("F"), G, X), F9)
-refusal(N, "zero spread", "values", '%s(%s;%s;%s;"p-first")' % (N, col("G"), G, X),
+    refusal(N, kind, "values", '%s(%s;%s;%s;"p-factor1")' % (N, VALUE_KINDS[kind], G, X), NO_ROW)
+refusal(N, "error cell #DIV/0!", "values", '%s(%s;%s;%s;"p-factor1")' % (N, col("E"), G, X), E4)
+refusal(N, "error cell #N/A", "values", '%s(%s;%s;%s;"p-factor1")' % (N, col("F"), G, X), F9)
+refusal(N, "zero spread", "values", '%s(%s;%s;%s;"p-factor1")' % (N, col("G"), G, X),
         "no spread within the combinations of factor1 and factor2: every value equals its combination's mean, so "
         "F cannot be formed")
 for kind, c, largest in (("sum overflows", "H", "1.63e+308"), ("+-1e308", "I", "1e+308"), ("denormal", "J", "1.81e-310")):
-    case(N, kind, "values", '%s(%s;%s;%s;"p-first")' % (N, col(c), G, X),
+    case(N, kind, "values", '%s(%s;%s;%s;"p-factor1")' % (N, col(c), G, X),
          "values holds numbers too %s to fit (largest %s); rescale values, e.g. into other units" % (
              "small" if "e-" in largest else "large", largest), None, SRC_SCALE_REFUSAL)
-case(N, "logicals", "values", '%s(%s;%s;%s;"p-first")' % (N, col("K"), G, X), REF["factorial p-first, logicals"], 1e-9,
+case(N, "logicals", "values", '%s(%s;%s;%s;"p-factor1")' % (N, col("K"), G, X), REF["factorial p-factor1, logicals"], 1e-9,
      "logicals are 1/0; " + SRC_AOV)
-refusal(N, "one level only", "factor2", '%s(%s;%s;%s;"p-first")' % (N, V, G, col("Y")),
+refusal(N, "one level only", "factor2", '%s(%s;%s;%s;"p-factor1")' % (N, V, G, col("Y")),
         "factor2 has a single level (wet); a two-way analysis needs at least 2 levels of each factor (for one "
         "factor use COMPARE.GROUPS)")
-refusal(N, "same factor twice", "factor2", '%s(%s;%s;%s;"p-first")' % (N, V, G, G),
+refusal(N, "same factor twice", "factor2", '%s(%s;%s;%s;"p-factor1")' % (N, V, G, G),
         "the interaction cannot be estimated: 2 combinations of levels have no observations; fill them or drop a level")
-refusal(N, "mismatched lengths", "factor2", '%s(%s;%s;[$data.X2:.X10];"p-first")' % (N, V, G),
+refusal(N, "mismatched lengths", "factor2", '%s(%s;%s;[$data.X2:.X10];"p-factor1")' % (N, V, G),
         MISMATCH % ("values", "factor2"))
-refusal(N, "error cell in labels", "factor1", '%s(%s;%s;%s;"p-first")' % (N, V, col("Z"), X), Z5)
-refusal(N, "one value per cell", "values", '%s([$few.O1:.O4];[$few.N1:.N4];[$few.M1:.M4];"p-first")' % N,
+refusal(N, "error cell in labels", "factor1", '%s(%s;%s;%s;"p-factor1")' % (N, V, col("Z"), X), Z5)
+refusal(N, "one value per cell", "values", '%s([$few.O1:.O4];[$few.N1:.N4];[$few.M1:.M4];"p-factor1")' % N,
         "no replication: each combination of factor1 and factor2 has one value, so there is no residual to test against")
-case(N, "whole columns", "values", '%s([$data.B:.B];[$data.A:.A];[$data.X:.X];"p-first")' % N,
-     REF["factorial p-first, depth"], 1e-9, SRC_AOV)
-keyword_cases(N, [V, G, X], "output", "table, p-first, p-second, p-interaction")
-SSTYPE = "sstype must be 2 (Type II, the default) or 3 (Type III)"
-refusal(N, "sstype 4", "sstype", '%s(%s;%s;%s;"p-first";4)' % (N, V, G, X), SSTYPE)
-refusal(N, "sstype as text", "sstype", '%s(%s;%s;%s;"p-first";"II")' % (N, V, G, X), SSTYPE)
-case(N, "error cell for sstype", "sstype", '%s(%s;%s;%s;"p-first";[$data.E4])' % (N, V, G, X), "#DIV/0!", None, ERR_OWN)
+case(N, "whole columns", "values", '%s([$data.B:.B];[$data.A:.A];[$data.X:.X];"p-factor1")' % N,
+     REF["factorial p-factor1, depth"], 1e-9, SRC_AOV)
+keyword_cases(N, [V, G, X], "output", "table, p-factor1, p-factor2, p-interaction")
+keyword_cases(N, [V, G, X, '"p-factor1"'], "sums", "type-2, type-3")
 
 # ================================== ADJUST.P(pvalues; [method]) ==================================
 N = "ADJUST.P"
@@ -823,7 +821,7 @@ case(N, "whole column with a header", "pvalues", 'INDEX(%s([$data.AA:.AA];"bonfe
 case(N, "denormal p", "pvalues", "%s([$data.J2])" % N, "=[$data.J2]", None, "one p-value, a denormal one: left as it is")
 case(N, "logicals", "pvalues", 'INDEX(%s([$data.K2:.K5];"bonferroni");3;1)' % N, "=MIN(1;4*[$data.K4])", None,
      "logicals are 1/0, both valid p-values: Bonferroni m p by hand")
-keyword_cases(N, ["[$data.AA2:.AA5]"], "method", "holm, bonferroni, hochberg, hommel, bh, by, sidak")
+keyword_cases(N, ["[$data.AA2:.AA5]"], "method", ADJUSTMENTS)
 
 # ================================== DESCRIBE.GROUPS(values; [groups]; [transform]; [level]) ======
 N = "DESCRIBE.GROUPS"
@@ -848,7 +846,7 @@ case(N, "duplicate names (wide)", "values", "INDEX(%s([$wide.A1:.B7]);3;1)" % N,
      "wide format: each column a group named by its header, even twice (FUNCTIONS.md)")
 case(N, "empty name (wide)", "values", "INDEX(%s([$wide.D1:.E7]);3;1)" % N, "column 2", None,
      "wide format: a column without a name is 'column 2' (FUNCTIONS.md)")
-keyword_cases(N, [V, G], "transform", "none, log, log10, log1p, sqrt")
+keyword_cases(N, [V, G], "transform", "none, log, log10, log(x+1), sqrt")
 transform_cases(N, G + ";")
 level_cases(N, "%s;%s;" % (V, G))
 case(N, "level 99 (percent)", "level", "INDEX(%s(%s;%s;;99);2;4)" % (N, V, G),

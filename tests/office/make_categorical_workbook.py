@@ -125,7 +125,7 @@ lg.column("B1", ["depth"] + mussel["xs"][0])
 n = len(mussel["y"])
 lg.formula("D1", "FIT.LOGISTIC([.A1:.A%d];[.B1:.B%d];;0.9)" % (n + 1, n + 1), array=(3, 8))
 lg.formula("D6", 'FIT.LOGISTIC([.A:.A];[.B:.B];"model")', array=(13, 2))
-lg.formula("D21", 'FIT.LOGISTIC([.A1:.A%d];[.B1:.B%d];"r2")' % (n + 1, n + 1))
+lg.formula("D21", 'FIT.LOGISTIC([.A1:.A%d];[.B1:.B%d];"r-squared")' % (n + 1, n + 1))
 coef = [["variable", "coefficient", "SE", "z", "p", "odds ratio", "ci-low", "ci-high"]]
 import math  # noqa: E402
 for j, term in enumerate(["intercept", "depth"]):
@@ -144,7 +144,7 @@ checks_rows += [
     ["logistic.D6:E18", "block logistic.D30:E42", 1e-9,
      "model table over whole columns (iterations compared with itself: the count is the method's own); "
      + SRC_GEN % "statsmodels Logit; null deviance in closed form"],
-    ["logistic.D21", "unknown output 'r2'; valid: coefficients, model", None, SRC_TEXT],
+    ["logistic.D21", "unknown output 'r-squared'; valid: coefficients, model", None, SRC_TEXT],
 ]
 
 # --- factorial ----------------------------------------------------------------------------------------
@@ -155,9 +155,9 @@ fa.column("B1", ["fertiliser"] + bio["a"])
 fa.column("C1", ["watering"] + bio["b"])
 m = len(bio["y"]) + 1
 fa.formula("E1", "FIT.FACTORIAL([.A1:.A%d];[.B1:.B%d];[.C1:.C%d])" % (m, m, m), array=(5, 7))
-fa.formula("E8", 'FIT.FACTORIAL([.A:.A];[.B:.B];[.C:.C];"p-first";3)')
+fa.formula("E8", 'FIT.FACTORIAL([.A:.A];[.B:.B];[.C:.C];"p-factor1";"type-3")')
 fa.formula("E9", 'FIT.FACTORIAL([.A:.A];[.B:.B];[.C:.C];"p-interaction")')
-fa.formula("E10", 'FIT.FACTORIAL([.A:.A];[.B:.B];[.C:.C];;4)')
+fa.formula("E10", 'FIT.FACTORIAL([.A:.A];[.B:.B];[.C:.C];;"type-4")')
 table = [["source", "SS", "df", "MS", "F", "p", "partial η²"]]
 for name, row in zip(["fertiliser", "watering", "fertiliser × watering"], bio["type2"][:3]):
     table.append([name, row["ss"], row["df"], row["ss"] / row["df"], row["f"], row["p"], row["partial_eta_squared"]])
@@ -168,9 +168,9 @@ checks_rows += [
     ["factorial.E1:K5", "block factorial.E14:K18", 1e-9,
      "Type II table with blank residual cells; " + SRC_GEN % "statsmodels ols + anova_lm(typ=2)"],
     ["factorial.E8", bio["type3"][0]["p"], 1e-9,
-     "sstype typed as 3 over whole columns; " + SRC_GEN % "anova_lm(typ=3) with C(x, Sum)"],
+     "sums type-3 over whole columns; " + SRC_GEN % "anova_lm(typ=3) with C(x, Sum)"],
     ["factorial.E9", bio["type2"][2]["p"], 1e-9, SRC_GEN % "statsmodels anova_lm(typ=2)"],
-    ["factorial.E10", "sstype must be 2 (Type II, the default) or 3 (Type III)", None, SRC_TEXT],
+    ["factorial.E10", "unknown sums 'type-4'; valid: type-2, type-3", None, SRC_TEXT],
 ]
 
 checks = book.sheet("checks")

@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Writes tests/office/linear.fods: FIT.LINEAR, FIT.POINTS, CHECK.MODEL and RELATE.CORRELATION in
+"""Writes tests/office/linear.fods: FIT.LINEAR, FIT.POINTS, CHECK.REGRESSION and RELATE.CORRELATION in
 real cells.
 
     python3 tests/office/make_linear_workbook.py
@@ -97,7 +97,7 @@ for i, r in enumerate(data_rows):
 check("stream.U1:U%d" % last, "block expected.K21:K%d" % (20 + last), TOL_EST,
       SRC_SM + " OLSInfluence.resid_studentized_external; header and dropped rows blank")
 
-# CHECK.MODEL: one number per check, and verdicts read from the table.
+# CHECK.REGRESSION: one number per check, and verdicts read from the table.
 c = ref["checks"]
 for address, output, value, tol, source in [
         ("E27", "spread", c["breusch_pagan_p"], TOL_P, SRC_SM + " het_breuschpagan(robust=True)"),
@@ -108,14 +108,14 @@ for address, output, value, tol, source in [
         ("E31", "influence", c["max_cooks"], TOL_EST, SRC_SM + " OLSInfluence.cooks_distance"),
         ("E32", "outliers", c["outliers"], None, SRC_SM + " OLSInfluence: rows with |t| > 3, a count"),
         ("E33", "normality", c["shapiro_p"], 1e-3, SRC_SP + " shapiro computes in single precision: 1e-3")]:
-    sheet.formula(address, 'CHECK.MODEL(%s;%s;"%s")' % (Y, XS, output))
+    sheet.formula(address, 'CHECK.REGRESSION(%s;%s;"%s")' % (Y, XS, output))
     check("stream." + address, value, tol, source)
-sheet.formula("E34", "INDEX(CHECK.MODEL(%s;%s);3;5)" % (Y, XS))
+sheet.formula("E34", "INDEX(CHECK.REGRESSION(%s;%s);3;5)" % (Y, XS))
 check("stream.E34", "look", None, "BP p = 0.027 < 0.05 (" + SRC_SM + "); verdict rule of FUNCTIONS.md")
-sheet.formula("E35", "INDEX(CHECK.MODEL(%s;%s);4;4)" % (Y, XS))
+sheet.formula("E35", "INDEX(CHECK.REGRESSION(%s;%s);4;4)" % (Y, XS))
 check("stream.E35", "no verdict: rows in no particular order cannot be judged; give order (dates, times or distances) "
       "for Durbin–Watson", None, "FUNCTIONS.md: without order the independence row gives no verdict")
-sheet.formula("E36", "INDEX(CHECK.MODEL(%s;%s);1;5)" % (Y, XS))
+sheet.formula("E36", "INDEX(CHECK.REGRESSION(%s;%s);1;5)" % (Y, XS))
 check("stream.E36", "verdict", None, SRC_TEXT)
 
 # --- marsh: one predictor, no header ---------------------------------------------------------------

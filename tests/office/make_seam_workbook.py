@@ -172,7 +172,7 @@ rows = [
      "an error cell inside an `any` argument (groups): Calc refuses the call itself with Err:504 "
      "(ARCHITECTURE.md, measured); data arguments are references so that their errors are named"],
     ["refusals.D1", "values holds no numbers", None, "a column of text and missing markers. " + SRC_TEXT],
-    ["refusals.D2", "unknown transform 'cube'; valid: none, log, log10, log1p, sqrt", None, "unknown keyword. " + SRC_TEXT],
+    ["refusals.D2", "unknown transform 'cube'; valid: none, log, log10, log(x+1), sqrt", None, "unknown keyword. " + SRC_TEXT],
     ["refusals.D3", "level must be a fraction such as 0.95 or a percentage from 50 to 99.9", None,
      "level outside both readings. " + SRC_TEXT],
     ["refusals.D4", "transform 'log' needs values > 0; 1 value is not", None, "a zero under log. " + SRC_TEXT],

@@ -188,8 +188,8 @@ def shipped_functions(oxt):
             continue
         for f in node.findall("node"):
             texts = {p.get(name): p.findtext("value") for p in f.findall("prop")}
-            # The wizard shows each parameter's DisplayName (the catalogue's name, e.g. counts_or_labels),
-            # not its node name (the IDL name, countsOrLabels).
+            # The wizard shows each parameter's DisplayName (the catalogue's name), not its node name
+            # (the IDL name, the same word for every argument of the catalogue today).
             params = [next((v.findtext("value") for v in p.findall("prop") if v.get(name) == "DisplayName"), p.get(name))
                       for p in f.find("node").findall("node")] if f.find("node") is not None else []
             functions[f.get(name)] = (texts.get("DisplayName"), texts.get("Description"), params)
