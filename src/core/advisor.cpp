@@ -144,23 +144,6 @@ std::string group_sizes(const Groups& g) {
 
 std::string quoted(const std::string& s) { return "'" + s + "'"; }
 
-// Values below a detection limit: "<0.5", "< 0.5", "<0,5" (FUNCTIONS.md, "Missing data"). Read
-// here only until the data layer reads censored cells itself; this one function is then swapped
-// for its reader.
-bool is_censored_text(const std::string& text) {
-    std::size_t i = text.find_first_not_of(' ');
-    if (i == std::string::npos || text[i] != '<') return false;
-    i = text.find_first_not_of(' ', i + 1);
-    if (i == std::string::npos) return false;
-    std::string number = text.substr(i);
-    while (!number.empty() && number.back() == ' ') number.pop_back();
-    std::replace(number.begin(), number.end(), ',', '.');
-    if (number.empty() || !(std::isdigit(static_cast<unsigned char>(number[0])) || number[0] == '.')) return false;
-    double limit = 0;  // from_chars: the same in every locale, unlike strtod
-    const auto [end, error] = std::from_chars(number.data(), number.data() + number.size(), limit);
-    return error == std::errc() && end == number.data() + number.size() && std::isfinite(limit) && limit >= 0;
-}
-
 struct Censoring {
     std::size_t censored = 0, values = 0;  // cells below a limit; those plus the numbers
     std::string first;                     // the first censored cell's text
@@ -173,7 +156,9 @@ Censoring censoring_of(const Range& r) {
         for (std::size_t col = 0; col < r.columns; ++col) {
             const Cell& cell = r.at(row, col);
             if (cell.kind == CellKind::number && std::isfinite(cell.number)) ++c.values;
-            if (cell.kind == CellKind::text && is_censored_text(cell.text)) {
+            // A non-detect without its limit ("<DL", "ND") is refused, as in every function.
+            if (cell.kind == CellKind::text) refuse_censored_cell(r, row, col, "response", true);
+            if (cell.kind == CellKind::text && censored_text(cell.text) == CensoredText::censored) {
                 if (c.censored++ == 0) c.first = cell.text;
                 ++c.values;
             }
@@ -596,15 +581,7 @@ void advise_relationship(const Range& response, const Range& predictor, Advice& 
 }  // namespace
 
 Design parse_design(const std::string& keyword) {
-    const std::string k =
-        match_keyword(keyword, {"auto", "groups", "paired", "relationship", "trend", "blocks", "nested"}, "design");
-    if (k == "groups") return Design::groups;
-    if (k == "paired") return Design::paired;
-    if (k == "relationship") return Design::relationship;
-    if (k == "trend") return Design::trend;
-    if (k == "blocks") return Design::blocks;
-    if (k == "nested") return Design::nested;
-    return Design::automatic;
+    return static_cast<Design>(designs().index(keyword, "design"));  // designs() lists them in Design's order
 }
 
 namespace {

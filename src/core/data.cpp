@@ -119,7 +119,6 @@ CensoredText censored_text(std::string_view text, double* limit) {
     return CensoredText::no;
 }
 
-namespace {
 // The refusal for one censored or non-detect cell, or nothing.
 void refuse_censored_cell(const Range& r, std::size_t row, std::size_t column, const std::string& argument,
                           bool censored_allowed) {
@@ -135,6 +134,8 @@ void refuse_censored_cell(const Range& r, std::size_t row, std::size_t column, c
     throw Refusal(place_of(r, row, column, argument) + " holds a value below a detection limit (" + shown +
                   "); leaving it out would bias the result upward: use DESCRIBE.CENSORED or COMPARE.CENSORED");
 }
+
+namespace {
 
 void refuse_censored_cells(const Range& r, const std::string& argument, std::size_t first, std::size_t last,
                            bool censored_allowed) {

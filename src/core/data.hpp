@@ -34,6 +34,11 @@ bool label_column_has_header(const Range& r, std::size_t column);
 enum class CensoredText { no, censored, without_limit };
 CensoredText censored_text(std::string_view text, double* limit = nullptr);
 
+// The refusal for the cell at (row, column) of `r` when it holds a non-detect without its limit,
+// or a censored value where `censored_allowed` is false; nothing otherwise.
+void refuse_censored_cell(const Range& r, std::size_t row, std::size_t column, const std::string& argument,
+                          bool censored_allowed);
+
 // Every function outside *.CENSORED and TRACK.TREND: a refusal naming the first censored or
 // non-detect cell of a value column (`B7 holds a value below a detection limit (<0.5); …`).
 // `column` limits the scan to one column of the range (npos: all).

@@ -86,18 +86,13 @@ Influence influence_measures(const LinearModel& m) {
     return inf;
 }
 
-const std::vector<std::string>& point_columns() {
-    static const std::vector<std::string> keys = {"fitted", "residual", "standardized", "studentized", "leverage", "cook"};
-    return keys;
-}
-
 const std::vector<std::string>& point_headers() {
     static const std::vector<std::string> words = {"fitted value",         "residual", "standardized residual",
                                                    "studentized residual", "leverage", "Cook's distance"};
     return words;
 }
 
-Table fit_points_table(const LinearModel& m, const RegressionData& data, const std::string& what) {
+Table fit_points_table(const LinearModel& m, const RegressionData& data, const std::string& output) {
     const Influence inf = influence_measures(m);
     const std::vector<const std::vector<double>*> columns = {&m.fitted,      &m.residuals, &inf.standardized,
                                                              &inf.studentized, &m.leverage, &inf.cooks};
@@ -111,10 +106,11 @@ Table fit_points_table(const LinearModel& m, const RegressionData& data, const s
     // All six under a header row: it takes the input's header row when there is one (same size as
     // the input), else sits on top (one row more).
     const std::size_t offset = data.has_header ? 0 : 1;
-    Table t(data.rows + offset, std::vector<CellValue>(keys.size()));
-    for (std::size_t c = 0; c < keys.size(); ++c) t[0][c] = point_headers()[c];
+    const std::size_t width = columns.size();
+    Table t(data.rows + offset, std::vector<CellValue>(width));
+    for (std::size_t c = 0; c < width; ++c) t[0][c] = point_headers()[c];
     for (std::size_t i = 0; i < m.n; ++i)
-        for (std::size_t c = 0; c < keys.size(); ++c)
+        for (std::size_t c = 0; c < width; ++c)
             t[data.used_rows[i] + offset][c] = number_or_blank((*columns[c])[i]);
     return t;
 }

@@ -21,8 +21,7 @@ struct Influence {
 };
 Influence influence_measures(const LinearModel& model);
 
-// FIT.POINTS' column keywords, in table order, and the header words of its six-column table.
-const std::vector<std::string>& point_columns();
+// The header words of FIT.POINTS' six-column table, in the order of point_outputs().
 const std::vector<std::string>& point_headers();
 
 // FIT.POINTS: `what` empty gives all six columns under a header row (in place of the input's

@@ -507,7 +507,7 @@ Table linear_output(const LinearModel& m, std::size_t n_dropped, const std::stri
     }
     if (m.perfect_fit && output == "p")
         throw Refusal("the fit is perfect (residual SD 0): the F test's p is not defined");
-    return select_output(summary, output, {"r-squared", "p", "residual-sd", "report"});
+    return select_output(summary, output, linear_outputs());
 }
 
 }  // namespace quadrat

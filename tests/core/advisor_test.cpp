@@ -308,9 +308,19 @@ TEST(Advisor, DetectionLimitsPointToTheCensoredFunctions) {
     EXPECT_NE(grouped.report.find("3 of 12 values (25%)"), std::string::npos) << grouped.report;
     const Advice alone = advise_test(zinc, Range::omitted_argument(), Design::automatic);
     EXPECT_EQ(alone.function, "DESCRIBE.CENSORED");
-    // Texts that are not a limit ("<DL", "dry") are not censored values.
+    // A non-detect without its limit is refused with a request for the limit (FUNCTIONS.md, Missing
+    // data: "<DL" is never dropped as missing).
+    Range unlimited = zinc;
+    unlimited.cells[3] = Cell::make_text("<DL");
+    try {
+        advise_test(unlimited, outfall, Design::automatic);
+        ADD_FAILURE() << "no refusal";
+    } catch (const Refusal& r) {
+        EXPECT_EQ(std::string(r.what()), "A4 holds <DL: write the detection limit as <0.5");
+    }
+    // A text that is no limit ("dry") is missing, not censored.
     Range other = zinc;
-    other.cells[3] = Cell::make_text("<DL");
+    other.cells[3] = Cell::make_number(0.3);
     other.cells[7] = Cell::make_text("dry");
     other.cells[9] = Cell::make_number(0.4);
     EXPECT_EQ(advise_test(other, outfall, Design::automatic).function, "COMPARE.GROUPS");
@@ -393,7 +403,8 @@ TEST(AdvisorCell, OutputsAndTableThroughTheRegistry) {
     EXPECT_EQ(std::get<std::string>(call("method")[0][0]), "welch");
     EXPECT_EQ(std::get<std::string>(call("transform")[0][0]), "none");
     EXPECT_EQ(std::get<std::string>(call("function")[0][0]), "COMPARE.GROUPS");
-    EXPECT_EQ(std::get<std::string>(call("posthoc")[0][0]), "");
+    // Two groups need no post-hoc step: `none`, as transform says when no transform helps.
+    EXPECT_EQ(std::get<std::string>(call("posthoc")[0][0]), "none");
     const Table table = call("table");
     EXPECT_EQ(std::get<std::string>(table[0][0]), "step");
     EXPECT_GE(table.size(), 4u);

@@ -41,7 +41,7 @@ TEST(CompareGroupsCell, DefaultIsWelchP) {
     EXPECT_EQ(std::get<std::string>(t[1][1]), "Student's t-test (two groups, pooled variance)");
     EXPECT_EQ(std::get<std::string>(t[6][0]), "n dropped");
     EXPECT_EQ(std::get<double>(t[6][1]), 1.0);
-    const std::string report = text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, text("report")}));
+    const std::string report = text_of(call("compareGroups", {nitrate_values(), nitrate_groups(), omitted, keyword("report")}));
     EXPECT_EQ(report.rfind("Welch's t-test (two groups): t(", 0), 0u) << report;
     EXPECT_NE(report.find("(up − down; 95% CI"), std::string::npos) << report;
 }

@@ -135,7 +135,7 @@ TEST(CheckRegressionGlue, DefaultIsTheTableAndRefusalsAreText) {
     // Without order the independence row has no verdict and its single value asks for the order
     // (FUNCTIONS.md, CHECK.REGRESSION); Durbin–Watson in sampling order is checked in diagnostics_test.cpp.
     EXPECT_TRUE(std::holds_alternative<std::monostate>(t[3][4]));
-    EXPECT_NE(std::get<std::string>(call("checkModel", {s.y, s.xs, keyword("independence")})[0][0]).find("sampling order"),
+    EXPECT_NE(std::get<std::string>(call("checkRegression", {s.y, s.xs, keyword("independence")})[0][0]).find("sampling order"),
               std::string::npos);
     // A constant predictor: one text cell naming it.
     const Table refused = call("checkRegression", {Range::column({1, 2, 3, 4}), Range::column({5, 5, 5, 5})});

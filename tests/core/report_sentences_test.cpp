@@ -265,8 +265,8 @@ TEST(ReportSentence, Normality) {
     expect_sentence(normal_report(temperature, omitted, "lilliefors"),
                     "Lilliefors (Kolmogorov–Smirnov) normality test: D = 0.20, p = 0.034, n = 20", "normality",
                     "springs lilliefors");
-    expect_sentence(normal_report(temperature, omitted, "dagostino"),
-                    "D'Agostino–Pearson normality test: K² = 12.34, p = 0.002, n = 20", "normality", "springs dagostino");
+    expect_sentence(normal_report(temperature, omitted, "dagostino-pearson"),
+                    "D'Agostino–Pearson normality test: K² = 12.34, p = 0.002, n = 20", "normality", "springs dagostino-pearson");
     expect_sentence(normal_report(temperature, omitted, "jarque-bera"),
                     "Jarque–Bera normality test: JB = 9.98, p = 0.007, n = 20", "normality", "springs jarque-bera");
     const LongTable t = oxygen();
@@ -367,7 +367,7 @@ TEST(ReportSentence, Correlation) {
 // ---------------------------------------------------------------- FIT.LINEAR
 
 TEST(ReportSentence, LinearRegression) {
-    expect_sentence(call("fitLinear", {numbers_with_header("canopy", canopy), numbers_with_header("width", width), text("report")}),
+    expect_sentence(call("fitLinear", {numbers_with_header("canopy", canopy), numbers_with_header("width", width), keyword("report")}),
                     "Linear regression (ordinary least squares): R² = 0.21, F(1, 10) = 2.67, p = 0.133, n = 12; slope -4.55 (95% CI -10.74 to 1.65)",
                     "linear", "canopy on width");
     Range xs = block(13, 2, {txt("width"), txt("willow")});
@@ -375,10 +375,10 @@ TEST(ReportSentence, LinearRegression) {
         xs.cells.push_back(num(width[i]));
         xs.cells.push_back(num(willow[i]));
     }
-    expect_sentence(call("fitLinear", {numbers_with_header("canopy", canopy), xs, text("report")}),
+    expect_sentence(call("fitLinear", {numbers_with_header("canopy", canopy), xs, keyword("report")}),
                     "Linear regression (ordinary least squares): R² = 0.22, F(2, 9) = 1.27, p = 0.328, n = 12", "linear", "canopy on width and willow");
     // A perfect line (y = 2 + 0.5x, by construction): the sentence says what is and is not defined.
-    EXPECT_EQ(text_of(call("fitLinear", {Range::column({2.5, 3, 3.5, 4, 4.5}), Range::column({1, 2, 3, 4, 5}), text("report")})),
+    EXPECT_EQ(text_of(call("fitLinear", {Range::column({2.5, 3, 3.5, 4, 4.5}), Range::column({1, 2, 3, 4, 5}), keyword("report")})),
               "Linear regression (ordinary least squares): perfect fit (R² = 1, residual SD 0): the coefficients are exact; "
               "standard errors are 0, and t, F and p are not defined, n = 5; slope 0.50");
 }
