@@ -38,7 +38,7 @@ struct FactorialAnova {
 // spread within the combinations.
 FactorialAnova fit_factorial(const FactorialData& data, int sums);
 
-// The outputs of FIT.FACTORIAL: table (default), p-first, p-second, p-interaction.
+// The outputs of FIT.FACTORIAL: table (default), p-factor1, p-factor2, p-interaction.
 // Header source | SS | df | MS | F | p | partial η², then the first factor, the second, their
 // interaction and the residual (SS, df and MS only).
 Table factorial_table(const FactorialAnova& anova);

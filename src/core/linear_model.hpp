@@ -74,7 +74,7 @@ struct LinearModel {
 LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::vector<double>>& predictors,
                               const std::vector<std::string>& names, bool intercept);
 
-// y and xs read from the sheet for a regression function (FIT.LINEAR, FIT.POINTS, CHECK.MODEL):
+// y and xs read from the sheet for a regression function (FIT.LINEAR, FIT.POINTS, CHECK.REGRESSION):
 // a row is used when y and every predictor hold a number.
 struct RegressionData {
     std::vector<double> y;
@@ -92,7 +92,7 @@ RegressionData read_regression(const Range& y, const Range& xs);
 // The `coefficients` table: header, then one row per term.
 Table coefficient_table(const LinearModel& model, double level);
 
-// The `model` quantities (r2, adj-r2, statistic, df, df2, p, sigma, aic, bic, n, n dropped) and the
+// The `model` quantities (r-squared, r-squared-adjusted, statistic, df, df2, p, residual-sd, aic, bic, n, n dropped) and the
 // report sentence.
 TestResult model_summary(const LinearModel& model, std::size_t n_dropped, double level);
 

@@ -16,9 +16,9 @@ namespace quadrat {
 
 enum class PosthocMethod { tukey, games_howell, dunn, pairwise_t, pairwise_ranks };
 
-// tukey (default), games-howell, dunn, t-pairs, rank-pairs.
+// tukey (default), games-howell, dunn, pairwise-t, pairwise-ranks.
 PosthocMethod parse_posthoc_method(const std::string& keyword);
-// dunn and rank-pairs compare ranks: their groups are summarized by medians.
+// dunn and pairwise-ranks compare ranks: their groups are summarized by medians.
 bool is_rank_method(PosthocMethod method);
 // Tukey and Games–Howell refer q to the studentized range: their p is already for the family.
 bool is_family_adjusted(PosthocMethod method);
@@ -46,8 +46,8 @@ struct PosthocResult {
     Table table() const;
 };
 
-// All pairs of the groups by `method`. `adjust` is the adjustment of p for dunn, t-pairs and
-// rank-pairs (holm when empty); tukey and games-howell are adjusted for the family already and
+// All pairs of the groups by `method`. `adjust` is the adjustment of p for dunn, pairwise-t and
+// pairwise-ranks (holm when empty); tukey and games-howell are adjusted for the family already and
 // show their p twice. The transform is applied first; estimates and limits are back-transformed
 // to ratios for log and log10 and stay on the transformed scale for log(x+1) and sqrt.
 PosthocResult compare_posthoc(const Groups& groups, PosthocMethod method, std::optional<Adjustment> adjust,

@@ -10,7 +10,7 @@
 // Shapiro–Francia has no published table quoted here: its levels are checked against the Monte
 // Carlo only, and Levene, Brown–Forsythe and Fligner–Killeen have no published worked example: their
 // statistics are worked by hand and their p checked at table points.
-// Shapiro–Wilk's published example is in normality_test.cpp. CHECK.MODEL's Durbin–Watson, leverage,
+// Shapiro–Wilk's published example is in normality_test.cpp. CHECK.REGRESSION's Durbin–Watson, leverage,
 // Cook's distance and VIF are checked at the end against values worked by hand from their
 // definitions, which are not published figures and say so.
 #include <gtest/gtest.h>
