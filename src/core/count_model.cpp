@@ -12,6 +12,7 @@
 #include <boost/math/tools/minima.hpp>
 
 #include "data.hpp"
+#include "keywords.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
 #include "result.hpp"
@@ -291,6 +292,10 @@ std::string model_name(bool negative_binomial, bool effort) {
 
 }  // namespace
 
+CountMethod parse_count_method(const std::string& keyword) {
+    return static_cast<CountMethod>(count_model_methods().index(keyword, "method"));
+}
+
 CountFit fit_counts(const CountData& data, CountMethod method) {
     const std::size_t n = data.counts.size(), k = data.xs.size(), p = k + 1;
     if (k == 0) throw Refusal("xs has no predictor columns");
@@ -442,7 +447,38 @@ CountFit fit_counts(const CountData& data, CountMethod method) {
     out.n = double(n);
     out.n_dropped = double(data.n_dropped);
     out.iterations = fit.iterations;
+    const CountMethod family = negative_binomial ? CountMethod::negative_binomial : CountMethod::poisson;
+    out.factor_tests = likelihood_ratio_tests(data.factors, k, out.log_likelihood, [&](const std::vector<std::size_t>& kept) {
+        if (kept.empty()) return out.null_log_likelihood;  // the factor alone: without it, the null model
+        CountData reduced = data;
+        reduced.factors.clear();
+        reduced.xs.clear();
+        reduced.names.clear();
+        for (std::size_t j : kept) reduced.xs.push_back(data.xs[j]), reduced.names.push_back(data.names[j]);
+        return fit_counts(reduced, family).log_likelihood;
+    });
     return out;
+}
+
+CountData read_count_data(const Range& counts, const Range& xs, const Range& effort) {
+    if (counts.empty()) throw Refusal("counts is empty");
+    if (counts.columns != 1) throw Refusal("counts must be one column (found " + std::to_string(counts.columns) + ")");
+    const bool has_effort = !effort.empty();
+    if (has_effort && effort.columns != 1)
+        throw Refusal("effort must be one column (found " + std::to_string(effort.columns) + ")");
+    std::vector<FrameBlock> after;
+    if (has_effort) after.push_back({&effort, ColumnKind::numeric, "effort"});
+    ModelFrame m = read_model_frame({{&counts, ColumnKind::numeric, "counts"}}, xs, after);
+    if (m.frame.n_used == 0)
+        throw Refusal(std::string("no row has a count") + (has_effort ? ", an effort" : "") + " and a value in every predictor column");
+    CountData d;
+    d.counts = std::move(m.frame.numbers[0]);
+    if (has_effort) d.effort = std::move(m.frame.numbers.back());
+    d.xs = std::move(m.predictors.columns);
+    d.names = std::move(m.predictors.names);
+    d.factors = std::move(m.predictors.factors);
+    d.n_dropped = m.frame.n_dropped;
+    return d;
 }
 
 Table count_coefficients(const CountFit& fit, double level) {
@@ -483,6 +519,7 @@ Table count_model_table(const CountFit& fit) {
         r.quantities.push_back({"aggregation k", std::monostate{}});
     Table t = r.table();
     t[1][0] = std::string("model");  // a model's table opens with `model`, not `test`
+    append_factor_rows(t, fit.factor_tests, "χ²");
     return t;
 }
 

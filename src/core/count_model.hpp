@@ -14,6 +14,7 @@
 #include <vector>
 
 #include "cells.hpp"
+#include "predictors.hpp"
 
 namespace quadrat {
 
@@ -21,12 +22,15 @@ namespace quadrat {
 struct CountData {
     std::vector<double> counts;                // whole numbers ≥ 0
     std::vector<std::vector<double>> xs;       // per predictor column, counts.size() values
-    std::vector<std::string> names;            // per predictor column
+    std::vector<std::string> names;            // per predictor column; `site: B` for a factor's level
+    std::vector<Factor> factors;               // the label columns of xs, as indicator columns in xs
     std::vector<double> effort;                // empty: no offset; else > 0, one per row
     std::size_t n_dropped = 0;
 };
 
+// In the order of count_model_methods() (keywords.hpp): auto, poisson, negative-binomial.
 enum class CountMethod { automatic, poisson, negative_binomial };
+CountMethod parse_count_method(const std::string& keyword);
 
 // Above this Pearson χ²/df of the Poisson fit, `auto` fits the negative binomial (FUNCTIONS.md,
 // FIT.COUNTS: a rule of thumb of common practice, no single source).
@@ -46,7 +50,12 @@ struct CountFit {
     double aggregation_k = 0;                  // NB2's k; NaN for Poisson
     double n = 0, n_dropped = 0;
     int iterations = 0;
+    std::vector<FactorTest> factor_tests;      // likelihood-ratio χ² per factor of xs
 };
+
+// Reads FIT.COUNTS' `counts`, `xs` (numbers, or labels for a factor) and `effort` (omitted: no
+// offset) with the catalogue's missing-data and header rules.
+CountData read_count_data(const Range& counts, const Range& xs, const Range& effort);
 
 // Maximum-likelihood fit. Refuses: negative or fractional counts, effort ≤ 0, too few rows, all
 // counts 0, a constant or collinear predictor, a predictor whose rows of one level hold only zero
@@ -60,7 +69,8 @@ CountFit fit_counts(const CountData& data, CountMethod method);
 Table count_coefficients(const CountFit& fit, double level);
 
 // `model`: label/value table (model, deviance, null deviance, statistic, df, p, aic,
-// pseudo-r-squared, n, n dropped, iterations, overdispersion, aggregation k).
+// pseudo-r-squared, n, n dropped, iterations, overdispersion, aggregation k), then per factor
+// `<factor>: χ²`, `<factor>: df`, `<factor>: p`.
 Table count_model_table(const CountFit& fit);
 
 }  // namespace quadrat

@@ -31,6 +31,8 @@ bool equals_ignoring_case(std::string_view a, std::string_view b) {
 // (from a fuzzer or a foreign caller) is treated as missing rather than carried into a sum.
 bool is_value(const Cell& c) { return c.kind == CellKind::number && std::isfinite(c.number); }
 
+}  // namespace
+
 bool is_label(const Cell& c) {
     if (c.kind == CellKind::number) return std::isfinite(c.number);
     if (c.kind == CellKind::text) return !is_missing_marker(c.text);
@@ -41,6 +43,8 @@ std::string label_of(const Cell& c) {
     if (c.kind == CellKind::number) return number_label(c.number);
     return std::string(trimmed(c.text));
 }
+
+namespace {
 
 bool is_censored_value(const Cell& c) { return c.kind == CellKind::text && censored_text(c.text) == CensoredText::censored; }
 

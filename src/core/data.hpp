@@ -20,6 +20,11 @@ bool is_missing_marker(std::string_view text);
 // A number used as a label (zone 2) shows as the office suite shows it: 2, 2.5, 1e-05.
 std::string number_label(double x);
 
+// A cell of a label column holds a label (a text other than a missing marker, or a number), and
+// the label as a person reads it (a number as the office shows it, outer spaces trimmed).
+bool is_label(const Cell& c);
+std::string label_of(const Cell& c);
+
 // The header rule (FUNCTIONS.md, "Missing data"), one column of a range at a time: a text that is
 // not a missing marker in the first row is a header above a column holding a number below it (a
 // value column), or, where every argument is a label column, when it appears nowhere else in its

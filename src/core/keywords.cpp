@@ -243,6 +243,30 @@ const KeywordTable& point_outputs() {
     return t;
 }
 
+const KeywordTable& count_model_methods() {
+    static const KeywordTable t{"count model methods",
+                                {{"auto", "Poisson, or the negative binomial when the Poisson fit's Pearson χ²/df exceeds 1.5"},
+                                 {"poisson", "Poisson regression"},
+                                 {"negative-binomial", "negative binomial (NB2), its aggregation k by maximum likelihood"}}};
+    return t;
+}
+
+const KeywordTable& count_model_outputs() {
+    static const KeywordTable t{"count model outputs",
+                                {{"coefficients", "the coefficient table with rate ratios"}, {"model", "the model table"}}};
+    return t;
+}
+
+const KeywordTable& prediction_outputs() {
+    static const KeywordTable t{"prediction outputs",
+                                {{"predicted", "the model's value at the row"},
+                                 {"mean-ci-low", "lower confidence limit of the mean there"},
+                                 {"mean-ci-high", "upper confidence limit of the mean there"},
+                                 {"reading-low", "lower limit for one new reading there"},
+                                 {"reading-high", "upper limit for one new reading there"}}};
+    return t;
+}
+
 const KeywordTable& regression_checks() {
     static const KeywordTable t{"regression checks",
                                 {{"table", "every check with its verdict"},

@@ -68,6 +68,9 @@ const KeywordTable& expected_outputs();
 const KeywordTable& linear_outputs();       // FIT.LINEAR
 const KeywordTable& logistic_outputs();     // FIT.LOGISTIC
 const KeywordTable& point_outputs();        // FIT.POINTS: one column each
+const KeywordTable& count_model_methods();  // FIT.COUNTS
+const KeywordTable& count_model_outputs();  // FIT.COUNTS
+const KeywordTable& prediction_outputs();   // FIT.PREDICT: one column each
 const KeywordTable& regression_checks();    // CHECK.REGRESSION
 const KeywordTable& factorial_outputs();    // FIT.FACTORIAL
 const KeywordTable& advice_outputs();       // ADVISE.TEST

@@ -414,19 +414,17 @@ RegressionData read_regression(const Range& y, const Range& xs) {
     if (y.empty()) throw Refusal("y is empty");
     if (xs.empty()) throw Refusal("xs is empty");
     if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
-    const Frame f = read_frame({{&y, ColumnKind::numeric, "y"}, {&xs, ColumnKind::numeric, "xs"}});
+    ModelFrame m = read_model_frame({{&y, ColumnKind::numeric, "y"}}, xs);
     RegressionData d;
-    d.y = f.numbers[0];
-    d.predictors.assign(f.numbers.begin() + 1, f.numbers.end());
-    for (std::size_t j = 0; j < xs.columns; ++j) {
-        const Cell& head = xs.at(0, j);
-        const bool named = f.has_header && head.kind == CellKind::text && !f.names[j + 1].empty();
-        d.names.push_back(named ? f.names[j + 1] : "x" + std::to_string(j + 1));
-    }
-    d.used_rows = f.used_rows;
-    d.rows = f.rows;
-    d.n_dropped = f.n_dropped;
-    d.has_header = f.has_header;
+    d.y = std::move(m.frame.numbers[0]);
+    d.predictors = std::move(m.predictors.columns);
+    d.names = std::move(m.predictors.names);
+    d.factors = std::move(m.predictors.factors);
+    d.factor_of_column = std::move(m.predictors.factor_of_column);
+    d.used_rows = std::move(m.frame.used_rows);
+    d.rows = m.frame.rows;
+    d.n_dropped = m.frame.n_dropped;
+    d.has_header = m.frame.has_header;
     return d;
 }
 
@@ -487,18 +485,46 @@ TestResult model_summary(const LinearModel& m, std::size_t n_dropped, double lev
     return r;
 }
 
-Table linear_output(const LinearModel& m, std::size_t n_dropped, const std::string& output, double level) {
+std::vector<FactorTest> factor_tests(const LinearModel& m, const RegressionData& data) {
+    std::vector<FactorTest> tests;
+    for (const Factor& factor : data.factors) {
+        FactorTest test{factor.name, std::numeric_limits<double>::quiet_NaN(), static_cast<double>(factor.terms()),
+                        std::numeric_limits<double>::quiet_NaN()};
+        double reduced_rss = m.tss;  // the factor alone: the model without it is the mean
+        const std::vector<std::size_t> kept = columns_without(factor, data.predictors.size());
+        if (!kept.empty()) {
+            std::vector<std::vector<double>> columns;
+            std::vector<std::string> names;
+            for (std::size_t j : kept) columns.push_back(data.predictors[j]), names.push_back(data.names[j]);
+            reduced_rss = fit_least_squares(data.y, columns, names, true).rss;
+        }
+        if (!m.perfect_fit && m.df_residual > 0) {
+            test.statistic = std::max(0.0, reduced_rss - m.rss) / test.df / (m.rss / m.df_residual);
+            const boost::math::fisher_f f(test.df, m.df_residual);
+            test.p = boost::math::cdf(boost::math::complement(f, test.statistic));
+        }
+        tests.push_back(std::move(test));
+    }
+    return tests;
+}
+
+Table linear_output(const LinearModel& m, std::size_t n_dropped, const std::string& output, double level,
+                    const std::vector<FactorTest>& factors) {
     if (output == "coefficients") return coefficient_table(m, level);
     const TestResult summary = model_summary(m, n_dropped, level);
     if (output == "model") {
         // The catalogue's model table: `model` (not `test`) under the header; undefined values blank.
         Table t = summary.table();
         t[1][0] = std::string("model");
+        append_factor_rows(t, factors, "F");
         for (auto& row : t)
             if (const double* v = std::get_if<double>(&row[1]); v && !std::isfinite(*v)) row[1] = std::monostate{};
         return t;
     }
     if (output == "slope" || output == "intercept") {
+        if (!factors.empty())
+            throw Refusal("output '" + output + "' needs one numeric predictor; " + factors.front().name +
+                          " is a factor (labels): use output 'coefficients' for the whole table");
         if (!m.intercept || m.parameters != 2)
             throw Refusal("output '" + output + "' needs exactly one predictor (xs has " +
                           std::to_string(m.parameters - (m.intercept ? 1 : 0)) +

@@ -13,6 +13,7 @@
 #include <vector>
 
 #include "cells.hpp"
+#include "predictors.hpp"
 #include "result.hpp"
 
 namespace quadrat {
@@ -78,8 +79,10 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
 // a row is used when y and every predictor hold a number.
 struct RegressionData {
     std::vector<double> y;
-    std::vector<std::vector<double>> predictors;  // one per column of xs
-    std::vector<std::string> names;               // a text first row of xs, else x1, x2, …
+    std::vector<std::vector<double>> predictors;  // one per term: a column of xs, or a factor's indicator
+    std::vector<std::string> names;               // a text first row of xs, else x1, x2, …; `zone: high`
+    std::vector<Factor> factors;                  // the label columns of xs (predictors.hpp)
+    std::vector<int> factor_of_column;            // per column of xs: its index in factors, or −1
     std::vector<std::size_t> used_rows;           // range row of each observation
     std::size_t rows = 0;                         // rows of the input ranges, header included
     std::size_t n_dropped = 0;
@@ -96,7 +99,15 @@ Table coefficient_table(const LinearModel& model, double level);
 // report sentence.
 TestResult model_summary(const LinearModel& model, std::size_t n_dropped, double level);
 
-// What FIT.LINEAR shows for `output` (already matched against the keyword table linear_outputs()).
-Table linear_output(const LinearModel& model, std::size_t n_dropped, const std::string& output, double level);
+// The joint F test of one factor's indicator columns, the factor adjusted for every other
+// predictor: F = ((RSS without the factor − RSS) / q) / (RSS / df_residual) with q = its levels − 1
+// (the extra-sum-of-squares principle, Draper & Smith 1998, Applied Regression Analysis, §6.1; with
+// no interaction terms this is the type-2 test). NaN for a perfect fit.
+std::vector<FactorTest> factor_tests(const LinearModel& model, const RegressionData& data);
+
+// What FIT.LINEAR shows for `output` (already matched against the keyword table linear_outputs()):
+// the `model` table adds `<factor>: F`, `<factor>: df`, `<factor>: p` per factor.
+Table linear_output(const LinearModel& model, std::size_t n_dropped, const std::string& output, double level,
+                    const std::vector<FactorTest>& factors = {});
 
 }  // namespace quadrat

@@ -109,19 +109,28 @@ void refuse_single_predictor_separation(const LogisticData& d) {
 
 }  // namespace
 
+namespace {
+
+// The predictor part of a logistic model's data: design columns, their names, the factors.
+LogisticData with_predictors(ModelFrame& m) {
+    LogisticData d;
+    d.n_dropped = m.frame.n_dropped;
+    d.xs = std::move(m.predictors.columns);
+    d.names = std::move(m.predictors.names);
+    d.factors = std::move(m.predictors.factors);
+    return d;
+}
+
+}  // namespace
+
 LogisticData read_logistic_data(const Range& y, const Range& xs) {
     if (y.empty()) throw Refusal("y is empty");
     if (xs.empty()) throw Refusal("xs is empty");
     if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
-    const Frame f = read_frame({{&y, ColumnKind::label, "y"}, {&xs, ColumnKind::numeric, "xs"}});
-
-    if (f.n_used == 0) throw Refusal("no row has both a response and a number in every predictor column");
-    LogisticData d;
-    d.n_dropped = f.n_dropped;
-    for (std::size_t j = 1; j < f.names.size(); ++j) {
-        d.names.push_back(f.names[j].empty() ? "x" + std::to_string(j) : f.names[j]);
-        d.xs.push_back(f.numbers[j]);
-    }
+    ModelFrame m = read_model_frame({{&y, ColumnKind::label, "y"}}, xs);
+    const Frame& f = m.frame;
+    if (f.n_used == 0) throw Refusal("no row has both a response and a value in every predictor column");
+    LogisticData d = with_predictors(m);
 
     // A response of numbers only is 0/1 with event 1; otherwise the cells are labels.
     bool all_numbers = f.n_used > 0;
@@ -162,16 +171,12 @@ LogisticData read_logistic_data(const Range& y, const Range& xs, const Range& tr
     if (xs.empty()) throw Refusal("xs is empty");
     if (y.columns != 1) throw Refusal("y must be one column (found " + std::to_string(y.columns) + ")");
     if (trials.columns != 1) throw Refusal("trials must be one column (found " + std::to_string(trials.columns) + ")");
-    const Frame f = read_frame(
-        {{&y, ColumnKind::numeric, "y"}, {&xs, ColumnKind::numeric, "xs"}, {&trials, ColumnKind::numeric, "trials"}});
-    if (f.n_used == 0) throw Refusal("no row has a number of successes, of trials and in every predictor column");
-    LogisticData d;
-    d.n_dropped = f.n_dropped;
+    ModelFrame model_frame =
+        read_model_frame({{&y, ColumnKind::numeric, "y"}}, xs, {{&trials, ColumnKind::numeric, "trials"}});
+    const Frame& f = model_frame.frame;
+    if (f.n_used == 0) throw Refusal("no row has a number of successes, of trials and a value in every predictor column");
+    LogisticData d = with_predictors(model_frame);
     const std::size_t last = f.numbers.size() - 1;
-    for (std::size_t j = 1; j < last; ++j) {
-        d.names.push_back(f.names[j].empty() ? "x" + std::to_string(j) : f.names[j]);
-        d.xs.push_back(f.numbers[j]);
-    }
     const auto where = [&](const Range& r, std::size_t k) {
         return r.is_reference ? " in " + cell_address(r, f.used_rows[k], 0) : std::string();
     };
@@ -355,6 +360,16 @@ LogisticFit fit_logistic(const LogisticData& d) {
     fit.n = double(n);
     fit.n_dropped = double(d.n_dropped);
     fit.iterations = iterations;
+    // Deviances share the saturated model's constant, so −deviance/2 stands in for ℓ.
+    fit.factor_tests = likelihood_ratio_tests(d.factors, k, -fit.deviance / 2, [&](const std::vector<std::size_t>& kept) {
+        if (kept.empty()) return -fit.null_deviance / 2;  // the factor alone: the model without it is the null model
+        LogisticData reduced = d;
+        reduced.factors.clear();
+        reduced.xs.clear();
+        reduced.names.clear();
+        for (std::size_t j : kept) reduced.xs.push_back(d.xs[j]), reduced.names.push_back(d.names[j]);
+        return -fit_logistic(reduced).deviance / 2;
+    });
     return fit;
 }
 
@@ -393,6 +408,7 @@ Table logistic_model(const LogisticFit& fit) {
         .add("iterations", double(fit.iterations));
     Table t = r.table();
     t[1][0] = std::string("model");  // a model's table opens with `model`, not `test`
+    append_factor_rows(t, fit.factor_tests, "χ²");
     return t;
 }
 

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "cells.hpp"
+#include "predictors.hpp"
 #include "result.hpp"
 
 namespace quadrat {
@@ -15,7 +16,8 @@ namespace quadrat {
 struct LogisticData {
     std::vector<double> y;
     std::vector<std::vector<double>> xs;  // per predictor, n values
-    std::vector<std::string> names;       // per predictor: header text, else x1, x2, …
+    std::vector<std::string> names;       // per predictor: header text, else x1, x2, …; `zone: high`
+    std::vector<Factor> factors;          // the label columns of xs, as indicator columns in xs
     std::string event;                    // the label modelled: "1" for a 0/1 response
     std::size_t n_dropped = 0;
     // With `trials`: y holds successes out of that many trials per row (seeds germinated out of
@@ -41,6 +43,7 @@ struct LogisticFit {
     double aic = 0, pseudo_r2 = 0;
     double n = 0, n_dropped = 0;
     int iterations = 0;
+    std::vector<FactorTest> factor_tests;  // likelihood-ratio χ² per factor of xs
 };
 
 // Maximum-likelihood fit. Refuses too few rows, a constant or collinear predictor, and data where
@@ -53,7 +56,7 @@ LogisticFit fit_logistic(const LogisticData& data);
 // OR ci-high (Wald interval at `level`) for the intercept and each predictor.
 Table logistic_coefficients(const LogisticFit& fit, double level);
 // `model`: label/value table (model, event, deviance, null deviance, statistic, df, p, aic,
-// pseudo-r2, n, n dropped, iterations).
+// pseudo-r2, n, n dropped, iterations, then `<factor>: χ²`, `: df`, `: p` per factor).
 Table logistic_model(const LogisticFit& fit);
 
 }  // namespace quadrat

@@ -13,12 +13,14 @@ namespace quadrat::addin {
 struct FittedRegression {
     RegressionData data;
     LinearModel model;
+    std::vector<FactorTest> factor_tests;  // one joint F per factor (label column) of xs
 };
 
 inline FittedRegression fit_regression(const Request& r) {
     RegressionData data = read_regression(r.range("y"), r.range("xs"));
     LinearModel model = fit_least_squares(data.y, data.predictors, data.names, true);
-    return FittedRegression{std::move(data), std::move(model)};
+    std::vector<FactorTest> tests = factor_tests(model, data);
+    return FittedRegression{std::move(data), std::move(model), std::move(tests)};
 }
 
 template <class Show>
