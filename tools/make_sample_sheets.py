@@ -737,7 +737,7 @@ def forest(office, available):
     rows[30][3], rows[30][4] = None, "windthrow: plot not measured"
     last = 200
 
-    doc, (s, d, q) = new_workbook(office, "plots", ["diagnostics", "chart data"])
+    doc, (s, d, q, th) = new_workbook(office, "plots", ["diagnostics", "chart data", "thinning"])
     s.header("A1", ["plot", "elevation m", "soil moisture %", "biomass t/ha", "note"], wrap=True)
     s.block("A2", rows)
     s.format("B2:B%d" % last, WHOLE)
@@ -816,7 +816,65 @@ def forest(office, available):
                "the model holds. The plots are numbered, not visited in an order that matters, so no order is "
                "given and independence is not judged.", 5, 3, italic=True)
     d.caution("A%d" % (check_rows + 7), "Neighbouring plots on one slope are not always independent.", 5, 3)
-    return finish(doc, [s, d, q], os.path.join(ROOT, "sample_sheets", "forest-regression.fods"))
+    thinning(th, rng)
+    return finish(doc, [s, d, q, th], os.path.join(ROOT, "sample_sheets", "forest-regression.fods"))
+
+
+def thinning(t, rng):
+    """Thirty invented plots of a thinning trial on the same hillside: half thinned five years ago,
+    half left as controls, the plots spread over the slope so that elevation differs between them.
+    Basal-area growth (m²/ha over five years) is compared between treatments adjusted for elevation
+    (a factor and a covariate in FIT.LINEAR), and FIT.PREDICT gives the growth expected at chosen
+    elevations."""
+    rows = []
+    for p in range(30):
+        treatment = "control" if p % 2 == 0 else "thinned"
+        elevation = round(rng.uniform(350, 1100) + (120 if treatment == "thinned" else 0))
+        growth = round(4.6 - 0.0021 * elevation + (0.9 if treatment == "thinned" else 0) + rng.gauss(0, 0.45), 2)
+        rows.append(["T%02d" % (p + 1), treatment, elevation, growth, None])
+    rows[11][3], rows[11][4] = None, "tag lost: plot not remeasured"
+    last = 100
+    t.header("A1", ["plot", "treatment", "elevation m", "basal-area growth m²/ha", "note"], wrap=True)
+    t.block("A2", rows)
+    t.format("C2:C%d" % last, WHOLE)
+    t.format("D2:D%d" % last, "0.00")
+    t.widths([1.3, 2.0, 2.0, 2.6, 4.6, 0.5])
+    Y, X = "$D$1:$D$%d" % last, "$B$1:$C$%d" % last
+    t.label("G1", "Growth by treatment, adjusted for elevation (FIT.LINEAR with a factor; m²/ha over five years)",
+            bold=True)
+    rows_, _ = t.array("G2", "FIT.LINEAR(%s;%s)" % (Y, X))
+    for r, code in ((3, "0.00"), (4, "0.00"), (5, "0.0000")):
+        t.formats("G%d:N%d" % (r, r), ["", code, code, "0.00", P, code, code, "0.00"])
+    r = 2 + rows_ + 1
+    t.label("G%d" % r, "Model, with the joint test of the treatment factor (FIT.LINEAR model)", bold=True)
+    model_rows, _ = t.array("G%d" % (r + 1), 'FIT.LINEAR(%s;%s;"model")' % (Y, X))
+    t.doc.calculateAll()
+    codes = {"r-squared": "0.000", "r-squared-adjusted": "0.000", "statistic": "0.00", "df": WHOLE, "df2": WHOLE,
+             "p": P, "residual-sd": "0.00", "aic": "0.0", "bic": "0.0", "n": WHOLE, "n dropped": WHOLE,
+             "treatment: F": "0.00", "treatment: df": WHOLE, "treatment: p": P}
+    for k in range(model_rows):
+        key = t.sheet.getCellByPosition(6, r + k).getString()
+        if key in codes:
+            t.format("H%d" % (r + 1 + k), codes[key])
+    r += model_rows + 2
+    t.sentence("G%d" % r, "The row ‘treatment: thinned’ is the thinned plots’ growth minus the "
+               "controls’ at the same elevation. The thinned plots happen to lie higher on the slope, where "
+               "growth is slower, so comparing the raw means would understate the difference.", 8, 3, italic=True)
+    r += 4
+    t.label("G%d" % r, "Growth expected at chosen elevations (FIT.PREDICT; m²/ha over five years)", bold=True)
+    t.header("G%d" % (r + 1), ["treatment", "elevation m"])
+    at = [["control", 500], ["thinned", 500], ["control", 900], ["thinned", 900]]
+    t.block("G%d" % (r + 2), at)
+    t.format("H%d:H%d" % (r + 2, r + 5), WHOLE)
+    t.array("I%d" % (r + 1), "FIT.PREDICT(%s;%s;$G$%d:$H$%d)" % (Y, X, r + 1, r + 5), 5, 5)
+    t.format("I%d:M%d" % (r + 2, r + 5), "0.00")
+    t.sentence("G%d" % (r + 7), "‘mean’ limits bound the average growth of such plots; ‘reading’ "
+               "limits are where the growth of one new plot is expected to fall (95%). Both assume the straight "
+               "line holds at that elevation.", 8, 2, italic=True)
+    t.caution("G%d" % (r + 10), "The plots of each treatment were not spread evenly over the slope, the trial has "
+              "one site, and the model assumes the same elevation slope for both treatments.", 8, 3)
+    t.chart("growth", "G%d" % (r + 14), 12.0, 7.5, "C2:D%d" % (len(rows) + 1), "scatter",
+            "Basal-area growth against elevation (both treatments)", "elevation (m)", "growth (m²/ha, 5 years)")
 
 
 # ------------------------------------------------------------------------------------------------
@@ -845,7 +903,7 @@ def fish(office, available):
     catch[120][4], catch[120][5] = "n/a", "measuring board lost"
     last = 400
 
-    doc, (s, t) = new_workbook(office, "catch", ["sites"])
+    doc, (s, t, ps) = new_workbook(office, "catch", ["sites", "passes"])
     s.header("A1", ["date", "reach", "species", "sex", "fork length mm", "note"], wrap=True)
     s.block("A2", catch)
     s.format("E2:E%d" % last, WHOLE)
@@ -926,7 +984,72 @@ def fish(office, available):
                "each % of canopy); the interval says how well the data pin it down.", 8, 2, italic=True)
     t.caution("H%d" % (r + 3), "The sites were not chosen at random, 40 sites give few events per predictor, "
               "and presence depends on detection as well as on the fish: say so when reporting.", 8, 3)
-    return finish(doc, [s, t], os.path.join(ROOT, "sample_sheets", "fish-counts.fods"))
+    passes(ps)
+    return finish(doc, [s, t, ps], os.path.join(ROOT, "sample_sheets", "fish-counts.fods"))
+
+
+def passes(p):
+    """Trout caught per electrofishing pass in the three reaches, with the pass duration (minutes
+    of fishing) as effort and the mean depth of the fished stretch. Passes were of unequal length,
+    so counts are compared as catch rates in FIT.COUNTS (effort as a log offset)."""
+    rng = random.Random(20260825)
+    rate = {"upper": 0.55, "middle": 0.35, "lower": 0.18}  # trout per minute at 0.5 m
+    rows = []
+    for reach in ["upper", "middle", "lower"]:
+        for i in range(12):
+            minutes = rng.choice([10, 12, 15, 15, 20, 25])
+            depth = round(rng.uniform(0.25, 0.95), 2)
+            mean = minutes * rate[reach] * pow(2.718281828459045, -1.1 * (depth - 0.5))
+            # Clumped catches: a gamma-mixed Poisson (negative binomial with k = 3).
+            lam = rng.gammavariate(3.0, mean / 3.0)
+            limit, k, q = pow(2.718281828459045, -lam), 0, 1.0
+            while True:
+                q *= rng.random()
+                if q <= limit:
+                    break
+                k += 1
+            rows.append(["P%02d" % (len(rows) + 1), reach, depth, minutes, k, None])
+    rows[7][4], rows[7][5] = None, "net torn: catch not counted"
+    last = 100
+    p.header("A1", ["pass", "reach", "mean depth m", "minutes fished", "trout caught", "note"], wrap=True)
+    p.block("A2", rows)
+    p.format("C2:C%d" % last, "0.00")
+    p.format("D2:E%d" % last, WHOLE)
+    p.widths([1.3, 1.7, 2.0, 2.0, 2.0, 4.4, 0.5])
+    COUNT, XS, EFFORT = "$E$1:$E$%d" % last, "$B$1:$C$%d" % last, "$D$1:$D$%d" % last
+    p.label("H1", "Trout catch rate by reach and depth (FIT.COUNTS, minutes fished as effort; rate ratios)",
+            bold=True)
+    rows_, _ = p.array("H2", "FIT.COUNTS(%s;%s;%s)" % (COUNT, XS, EFFORT))
+    p.formats("H3:O%d" % (1 + rows_), ["", "0.000", "0.000", "0.00", P, "0.00", "0.00", "0.00"])
+    r = 2 + rows_ + 1
+    p.label("H%d" % r, "Model (FIT.COUNTS model): which count model, and the joint test of the reach", bold=True)
+    model_rows, _ = p.array("H%d" % (r + 1), 'FIT.COUNTS(%s;%s;%s;;"model")' % (COUNT, XS, EFFORT))
+    p.doc.calculateAll()
+    codes = {"deviance": "0.00", "null deviance": "0.00", "statistic": "0.00", "df": WHOLE, "p": P, "aic": "0.0",
+             "pseudo-r-squared": "0.000", "n": WHOLE, "n dropped": WHOLE, "iterations": WHOLE,
+             "overdispersion": "0.00", "aggregation k": "0.00", "reach: χ²": "0.00", "reach: df": WHOLE,
+             "reach: p": P}
+    for k in range(model_rows):
+        key = p.sheet.getCellByPosition(7, r + k).getString()
+        if key in codes:
+            p.format("I%d" % (r + 1 + k), codes[key])
+    r += model_rows + 2
+    p.sentence("H%d" % r, "A rate ratio is the factor by which the catch per minute changes: ‘reach: lower’ "
+               "compares the lower reach with the upper one at equal depth, ‘mean depth m’ is per metre "
+               "deeper. The model row says whether the counts were more clumped than a Poisson model allows.",
+               8, 3, italic=True)
+    r += 4
+    p.header("H%d" % r, ["reach", "trout per minute"])
+    for i, reach in enumerate(["upper", "middle", "lower"]):
+        p.put("H%d" % (r + 1 + i), reach)
+        p.formula("I%d" % (r + 1 + i), 'SUMIFS(%s;$B$1:$B$%d;H%d)/SUMIFS(%s;$B$1:$B$%d;H%d;%s;"<>")'
+                  % (COUNT, last, r + 1 + i, EFFORT, last, r + 1 + i, COUNT), "0.00")
+    p.sentence("H%d" % (r + 4), "Raw catch per minute of each reach (Calc SUMIFS), not adjusted for depth.", 8, 1,
+               italic=True)
+    p.caution("H%d" % (r + 6), "Catchability changes with flow, turbidity and fish size, and one pass catches only "
+              "part of the fish present: a catch rate indexes abundance, it does not measure it.", 8, 3)
+    p.chart("rates", "H%d" % (r + 10), 10.0, 7.0, "H%d:I%d" % (r, r + 3), "columns",
+            "Trout caught per minute of fishing, by reach", "reach", "trout per minute", headers=(True, True))
 
 
 def main():
