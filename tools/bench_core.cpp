@@ -110,8 +110,8 @@ struct Case {
 
 const Function& function(const char* method) {
     const Function* f = quadrat::addin::find_function(method);
-    if (!f || !f->handler) {
-        std::fprintf(stderr, "%s has no handler\n", method);
+    if (!f) {
+        std::fprintf(stderr, "%s is not declared\n", method);
         std::exit(1);
     }
     return *f;
@@ -145,6 +145,12 @@ Case make_case(const std::string& name, std::size_t n) {
     if (name == "fit-logistic") {
         Range xs = block({read_array<double>("x2.f64", n), read_array<double>("x3.f64", n)}, n);
         return {&function("fitLogistic"), {codes_as_numbers("yb", n), std::move(xs), omitted, omitted}};
+    }
+    if (name == "fit-counts") {
+        Range xs = block({read_array<double>("a.f64", n), read_array<double>("b.f64", n), read_array<double>("x2.f64", n),
+                          read_array<double>("x3.f64", n), read_array<double>("v.f64", n)},
+                         n);
+        return {&function("fitCounts"), {numbers("cnt", n), std::move(xs), numbers("eff", n), text("poisson"), omitted, omitted}};
     }
     if (name == "fit-factorial")
         return {&function("fitFactorial"), {numbers("vf", n), labels("f1", n), labels("f2", n), omitted, omitted}};

@@ -55,7 +55,10 @@ def write_arrays(folder, n):
     c1 = rng.integers(0, 3, n).astype(np.int32)                  # habitat, 3 categories
     c2 = np.where(rng.random(n) < 0.1, c1, rng.integers(0, 4, n)).astype(np.int32)  # species, 4
     p = rng.random(n) ** 2                                       # p-values to adjust
-    arrays = dict(g4=g4, g2=g2, v=v, a=a, b=b, x2=x2, x3=x3, y=y, yb=yb, f1=f1, f2=f2, vf=vf, c1=c1, c2=c2, p=p)
+    eff = rng.uniform(5.0, 25.0, n)                              # minutes fished
+    cnt = rng.poisson(eff * np.exp(-2.0 + 0.1 * (a - 8.0) + 0.3 * x2 - 0.2 * x3)).astype(float)  # fish per pass
+    arrays = dict(g4=g4, g2=g2, v=v, a=a, b=b, x2=x2, x3=x3, y=y, yb=yb, f1=f1, f2=f2, vf=vf, c1=c1, c2=c2, p=p,
+                  eff=eff, cnt=cnt)
     for name, x in arrays.items():
         x.astype("<i4" if x.dtype == np.int32 else "<f8").tofile(os.path.join(folder, name + (".i32" if x.dtype == np.int32 else ".f64")))
     return arrays
@@ -95,6 +98,16 @@ def library_cases():
         def run():
             fit = sm.Logit(y, X).fit(disp=0)
             return fit.params, fit.bse, fit.pvalues, fit.conf_int(), fit.llr_pvalue
+        return run
+
+    def counts_table(d, n):
+        # Five predictors: two of them (b, v) carry nothing, as in a survey that measured more than mattered.
+        X = sm.add_constant(np.column_stack([d["a"][:n], d["b"][:n], d["x2"][:n], d["x3"][:n], d["v"][:n]]))
+        y, offset = d["cnt"][:n], np.log(d["eff"][:n])
+
+        def run():
+            fit = sm.GLM(y, X, family=sm.families.Poisson(), offset=offset).fit()
+            return fit.params, fit.bse, fit.pvalues, fit.conf_int(), fit.pearson_chi2
         return run
 
     def factorial_table(d, n):
@@ -160,6 +173,7 @@ def library_cases():
         ("fit-linear", "FIT.LINEAR, 3 predictors", "statsmodels OLS (+ SE, t, p, CI)", ols_table),
         ("fit-logistic", "FIT.LOGISTIC, 2 predictors", "statsmodels Logit (+ SE, p, CI, LR)", logit_table),
         ("fit-factorial", "FIT.FACTORIAL 3×4, type II", "statsmodels ols + anova_lm(typ=2)", factorial_table),
+        ("fit-counts", "FIT.COUNTS poisson, 5 predictors, effort", "statsmodels GLM Poisson with offset", counts_table),
         ("counts-chi-square", "COMPARE.COUNTS chi-square, 3×4 labels", "numpy bincount + scipy chi2_contingency",
          contingency),
         ("describe-groups", "DESCRIBE.GROUPS, 4 groups", "numpy per group (+ scipy t.ppf)", describe),
@@ -259,7 +273,7 @@ def print_core_table(cases, sizes, core, library):
                 flag = " (core answered text!)"
                 notes.append("%s n=%d: the core answered %r" % (name, n, answer))
             elif p is not None and name not in ("posthoc-tukey", "adjust-holm", "fit-linear", "fit-logistic",
-                                                 "fit-factorial", "describe-groups"):
+                                                 "fit-factorial", "fit-counts", "describe-groups"):
                 # a sanity check that both sides ran the same test, not an accuracy test
                 q = float(answer)
                 if abs(q - p) > 1e-3 * max(abs(p), 1e-300) and abs(q - p) > 1e-12:
