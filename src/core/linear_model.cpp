@@ -446,7 +446,7 @@ Table coefficient_table(const LinearModel& m, double level) {
     return t;
 }
 
-TestResult model_summary(const LinearModel& m, std::size_t n_dropped, double level) {
+TestResult model_summary(const LinearModel& m, std::size_t n_dropped, double level, bool with_slope) {
     TestResult r;
     r.test = m.intercept ? "Linear regression (ordinary least squares)"
                          : "Linear regression through the origin (ordinary least squares)";
@@ -473,7 +473,7 @@ TestResult model_summary(const LinearModel& m, std::size_t n_dropped, double lev
     else
         r.words.lead_symbol = "R²", r.words.lead_quantity = "r-squared";
     // With one predictor the sentence ends with the slope and its interval (not rows of the table).
-    if (m.intercept && m.parameters == 2) {
+    if (with_slope && m.intercept && m.parameters == 2) {
         r.words.estimate = "slope";
         r.words.estimate_quantity = "slope";
         r.unlisted.push_back({"slope", m.estimate[1]});
@@ -511,7 +511,7 @@ std::vector<FactorTest> factor_tests(const LinearModel& m, const RegressionData&
 Table linear_output(const LinearModel& m, std::size_t n_dropped, const std::string& output, double level,
                     const std::vector<FactorTest>& factors) {
     if (output == "coefficients") return coefficient_table(m, level);
-    const TestResult summary = model_summary(m, n_dropped, level);
+    const TestResult summary = model_summary(m, n_dropped, level, factors.empty());
     if (output == "model") {
         // The catalogue's model table: `model` (not `test`) under the header; undefined values blank.
         Table t = summary.table();

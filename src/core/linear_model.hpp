@@ -97,7 +97,9 @@ Table coefficient_table(const LinearModel& model, double level);
 
 // The `model` quantities (r-squared, r-squared-adjusted, statistic, df, df2, p, residual-sd, aic, bic, n, n dropped) and the
 // report sentence.
-TestResult model_summary(const LinearModel& model, std::size_t n_dropped, double level);
+// The sentence ends with the slope and its interval where there is one numeric predictor
+// (`with_slope` false where that one column is a factor's indicator: no slope to speak of).
+TestResult model_summary(const LinearModel& model, std::size_t n_dropped, double level, bool with_slope = true);
 
 // The joint F test of one factor's indicator columns, the factor adjusted for every other
 // predictor: F = ((RSS without the factor − RSS) / q) / (RSS / df_residual) with q = its levels − 1

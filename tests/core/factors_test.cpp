@@ -95,6 +95,12 @@ TEST(Factors, LinearModelTableHasJointTestPerFactor) {
     // One predictor column that is a factor has no slope (FUNCTIONS.md: slope needs one predictor).
     const Range zone_only = sheet({"zone"}, {labels(c["zone"])});
     EXPECT_NE(text_of(call("fitLinear", {a.y, zone_only, keyword("slope"), omitted})).find("factor"), std::string::npos);
+    // Nor does the report speak of a slope for a two-level factor alone (one indicator column).
+    const Range two_zones = sheet({"zone"}, {{txt("a"), txt("b"), txt("a"), txt("b"), txt("a"), txt("b")}});
+    const Range y6 = sheet({"y"}, {{num(1), num(2.5), num(1.5), num(3), num(1.2), num(2.9)}});
+    const std::string report = text_of(call("fitLinear", {y6, two_zones, keyword("report"), omitted}));
+    EXPECT_EQ(report.find("slope"), std::string::npos) << report;
+    EXPECT_NE(report.find("R²"), std::string::npos) << report;
 }
 
 // The same generator's get_prediction(at).summary_frame(alpha=0.05): mean, its interval and the
