@@ -241,6 +241,34 @@ TEST(RankSum, SelectionMatchesBruteForce) {
     }
 }
 
+// The medians (Hodges–Lehmann shift and pseudo-median) against listing every difference and Walsh
+// average (brute force, common practice): odd and even counts, ties, sizes up to 400 × 400 so that
+// the median pair comes from the sampled steps, not only from a short list. Exact equality.
+TEST(RankSum, MediansMatchBruteForce) {
+    std::mt19937 rng(11);
+    const auto median_of_sorted = [](const std::vector<double>& v) {
+        const std::size_t n = v.size();
+        return n % 2 == 1 ? v[n / 2] : 0.5 * v[n / 2 - 1] + 0.5 * v[n / 2];
+    };
+    for (int trial = 0; trial < 24; ++trial) {
+        std::uniform_int_distribution<int> size(1, trial < 12 ? 30 : 400), value(0, trial % 2 ? 20 : 5000);
+        std::vector<double> x(size(rng)), y(size(rng));
+        for (double& v : x) v = value(rng) * 0.01;
+        for (double& v : y) v = value(rng) * 0.01 + 0.003;
+        std::sort(x.begin(), x.end());
+        std::sort(y.begin(), y.end());
+        std::vector<double> differences, walsh;
+        for (double a : x)
+            for (double b : y) differences.push_back(round_significant(a - b));
+        for (std::size_t i = 0; i < x.size(); ++i)
+            for (std::size_t j = i; j < x.size(); ++j) walsh.push_back(round_significant(0.5 * x[i] + 0.5 * x[j]));
+        std::sort(differences.begin(), differences.end());
+        std::sort(walsh.begin(), walsh.end());
+        ASSERT_EQ(hodges_lehmann_shift(x, y), median_of_sorted(differences)) << trial;
+        ASSERT_EQ(hodges_lehmann_pseudo_median(x), median_of_sorted(walsh)) << trial;
+    }
+}
+
 // 5·10⁴ values per group: 2.5·10⁹ differences, never listed. Must finish quickly and bounded; the
 // shift between two shifted copies of the same grid is the shift itself (by construction).
 TEST(RankSum, LargeGroupsAreSelectedNotEnumerated) {
