@@ -3,9 +3,9 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <unordered_map>
 
 #include <boost/math/distributions/chi_squared.hpp>
-#include <unordered_map>
 
 #include "keywords.hpp"
 #include "refusal.hpp"
