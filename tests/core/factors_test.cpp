@@ -184,6 +184,61 @@ TEST(Factors, LogisticWithTrialsAndAFactor) {
     expect_relative(row_value(model, "treatment: p"), c["treatment p"].get<double>(), 1e-7, "treatment p");
 }
 
+// Published: Bliss (1935) beetles killed by carbon disulphide, as Dobson & Barnett (2008), An
+// Introduction to Generalized Linear Models, 3rd ed., §7.3.1, fit them (printed values from
+// memory): intercept −60.72 (SE 5.18), dose 34.27 (SE 2.91), deviance 11.23 on 6 df. Held to half a
+// unit of the printed digit; statsmodels GLM Binomial via generate_factors.py to 1e-8 relative.
+TEST(Factors, BlissBeetlesWithTrialsMatchThePrintedFit) {
+    const auto& c = reference()["bliss"];
+    const Range y = sheet({"killed"}, {numbers(c["killed"])});
+    const Range xs = sheet({"dose"}, {numbers(c["dose"])});
+    const Range trials = sheet({"beetles"}, {numbers(c["beetles"])});
+    const Table t = call("fitLogistic", {y, xs, omitted, omitted, trials});
+    ASSERT_EQ(t.size(), 3u) << text_of(t);
+    EXPECT_NEAR(at(t, 1, 1), -60.72, 0.005);
+    EXPECT_NEAR(at(t, 1, 2), 5.18, 0.005);
+    EXPECT_NEAR(at(t, 2, 1), 34.27, 0.005);
+    EXPECT_NEAR(at(t, 2, 2), 2.91, 0.005);
+    for (std::size_t j = 0; j < 2; ++j) {
+        expect_relative(at(t, j + 1, 1), c["coefficient"][j].get<double>(), 1e-8, "coefficient");
+        expect_relative(at(t, j + 1, 2), c["SE"][j].get<double>(), 1e-8, "SE");
+    }
+    const Table model = call("fitLogistic", {y, xs, keyword("model"), omitted, trials});
+    EXPECT_NEAR(row_value(model, "deviance"), 11.23, 0.005);
+    expect_relative(row_value(model, "deviance"), c["deviance"].get<double>(), 1e-9, "deviance");
+}
+
+// Published: Anscombe (1973), Am. Statist. 27, 17–21, set I: fitted line 3.00 + 0.500x, residual
+// SD 1.237 (printed figures from memory). Hand-worked from them at x = 9, the mean of x, where
+// h = 1/n: ŷ = 7.50, the mean's interval 7.50 ± t(0.975; 9)·1.237/√11 = 7.50 ± 0.844, one reading's
+// 7.50 ± t·1.237·√(1 + 1/11) = 7.50 ± 2.922 (t = 2.262). Held to 0.005 (the printed digits);
+// statsmodels get_prediction (generate_factors.py) to 1e-10 relative.
+TEST(Factors, PredictionAtTheMeanOfAnscombesSetI) {
+    const auto& c = reference()["anscombe_prediction"];
+    const Range y = sheet({"y"}, {numbers(c["y"])});
+    const Range xs = sheet({"x"}, {numbers(c["x"])});
+    const Range at_rows = block(1, 1, {num(9)});
+    const Table t = call("fitPredict", {y, xs, at_rows, omitted, omitted});
+    ASSERT_EQ(t.size(), 2u) << text_of(t);  // no header row in at: the result's header on top
+    EXPECT_NEAR(at(t, 1, 0), 7.50, 0.005);
+    EXPECT_NEAR(at(t, 1, 1), 7.50 - 0.844, 0.005);
+    EXPECT_NEAR(at(t, 1, 4), 7.50 + 2.922, 0.005);
+    const char* const columns[] = {"predicted", "mean ci-low", "mean ci-high", "reading low", "reading high"};
+    for (std::size_t j = 0; j < 5; ++j) expect_relative(at(t, 1, j), c[columns[j]].get<double>(), 1e-10, columns[j]);
+}
+
+// Cross-check between functions (no source needed): a factor alone in FIT.LINEAR is a one-way
+// analysis of variance, so its joint F equals COMPARE.GROUPS' pooled F on the same rows.
+TEST(Factors, AFactorAloneIsTheOneWayAnova) {
+    const auto& c = reference()["linear"];
+    const Range y = sheet({"oxygen"}, {numbers(c["oxygen"])});
+    const Range zone = sheet({"zone"}, {labels(c["zone"])});
+    const Table model = call("fitLinear", {y, zone, keyword("model"), omitted});
+    const double anova_f = number_of(call("compareGroups", {y, zone, keyword("pooled"), keyword("statistic"), omitted}));
+    expect_relative(row_value(model, "zone: F"), anova_f, 1e-10, "zone F");
+    expect_relative(row_value(model, "zone: F"), row_value(model, "statistic"), 1e-12, "the model's own F");
+}
+
 // The reading rules of predictors.hpp (common practice, no source: what a person reading the
 // column would call it).
 TEST(Factors, WhichColumnIsAFactor) {

@@ -14,6 +14,8 @@ writes tests/reference/factors.json beside this script. Invented surveys, fixed 
   without it;
 - logistic with trials: seeds germinated out of sown by treatment (two levels) and soil moisture
   (%): GLM Binomial on (successes, failures); the treatment factor's likelihood-ratio χ².
+Published data sets beside them (the tests also check the printed figures): Bliss's beetles
+(binomial with trials) and Anscombe's set I (a prediction at the mean of x).
 """
 import json
 import os
@@ -98,6 +100,29 @@ OUT["binomial"] = {
     "treatment chi2": float(rb.deviance - fb.deviance),
     "treatment p": float(stats.chi2.sf(rb.deviance - fb.deviance, 1)),
 }
+
+# Published: Bliss (1935), Ann. Appl. Biol. 22, 134–167, beetles killed by carbon disulphide, as
+# tabulated in Dobson & Barnett (2008), An Introduction to Generalized Linear Models, 3rd ed.,
+# §7.3.1 (data and printed fit from memory): dose log10 CS2 mg/l, beetles, killed.
+dose = np.array([1.6907, 1.7242, 1.7552, 1.7842, 1.8113, 1.8369, 1.8610, 1.8839])
+beetles = np.array([59, 60, 62, 56, 63, 59, 62, 60], float)
+killed = np.array([6, 13, 18, 28, 52, 53, 61, 60], float)
+bliss = sm.GLM(np.column_stack([killed, beetles - killed]), sm.add_constant(dose), family=sm.families.Binomial()).fit(
+    tol=1e-15, maxiter=200)
+OUT["bliss"] = {"dose": dose.tolist(), "beetles": beetles.tolist(), "killed": killed.tolist(),
+                "coefficient": flt(bliss.params), "SE": flt(bliss.bse), "deviance": float(bliss.deviance)}
+
+# Published: Anscombe (1973), Am. Statist. 27, 17–21, set I; the prediction at x = 9 (the mean of
+# x) by statsmodels get_prediction, beside the hand formula from the printed fit (see the test).
+ax = np.array([10, 8, 13, 9, 11, 14, 6, 4, 12, 7, 5], float)
+ay = np.array([8.04, 6.95, 7.58, 8.81, 8.33, 9.96, 7.24, 4.26, 10.84, 4.82, 5.68])
+anscombe = sm.OLS(ay, sm.add_constant(ax)).fit()
+frame = anscombe.get_prediction(np.array([[1.0, 9.0]])).summary_frame(alpha=0.05)
+OUT["anscombe_prediction"] = {"x": ax.tolist(), "y": ay.tolist(), "at": 9.0,
+                              "predicted": float(frame["mean"][0]), "mean ci-low": float(frame["mean_ci_lower"][0]),
+                              "mean ci-high": float(frame["mean_ci_upper"][0]),
+                              "reading low": float(frame["obs_ci_lower"][0]), "reading high": float(frame["obs_ci_upper"][0]),
+                              "residual sd": float(np.sqrt(anscombe.scale))}
 
 with open(os.path.join(os.path.dirname(os.path.abspath(__file__)), "factors.json"), "w") as f:
     json.dump(OUT, f, indent=1)
