@@ -16,6 +16,7 @@
 #include "refusal.hpp"
 #include "report.hpp"
 #include "result.hpp"
+#include "scaled_design.hpp"
 #include "summary.hpp"
 
 namespace quadrat {
@@ -45,10 +46,10 @@ constexpr double small_count = 64;
 // The model in centred and scaled coordinates, so that a predictor in the thousands and one in
 // thousandths keep their digits; coefficients are transformed back at the end.
 struct Design {
-    MatrixXd Z;              // intercept, then (x − centre)/scale
+    MatrixXd Z;              // intercept, then (x − centre)/scale; only the intercept for the null model
     VectorXd offset;         // log effort, or 0
     VectorXd y;
-    std::vector<double> centre, scale;
+    ScaledDesign scaled;     // its centres and scales: the way back to the predictors' units
     // The distinct counts and how often each occurs: the Γ terms of the negative binomial depend
     // on a row through its count alone, so they are summed once per distinct count.
     std::vector<std::pair<double, double>> distinct_counts;
@@ -323,19 +324,8 @@ CountFit fit_counts(const CountData& data, CountMethod method) {
         total_effort = sum(data.effort);
         for (std::size_t i = 0; i < n; ++i) d.offset[i] = std::log(data.effort[i]);
     }
-    d.Z.resize(n, p);
-    d.Z.col(0).setOnes();
-    d.centre.resize(k);
-    d.scale.resize(k);
-    for (std::size_t j = 0; j < k; ++j) {
-        refuse_beyond_model_scale(data.xs[j], data.names[j]);
-        d.centre[j] = mean(data.xs[j]);
-        d.scale[j] = std::sqrt(sum_of_squares(data.xs[j], d.centre[j]) / double(n));
-        if (!std::isfinite(d.centre[j]) || !std::isfinite(d.scale[j]))
-            throw Refusal("predictor " + data.names[j] + " has values too large to fit (their squares overflow); rescale it");
-        if (!(d.scale[j] > 0)) throw Refusal("predictor " + data.names[j] + " is constant; remove it");
-        for (std::size_t i = 0; i < n; ++i) d.Z(Eigen::Index(i), Eigen::Index(j + 1)) = (data.xs[j][i] - d.centre[j]) / d.scale[j];
-    }
+    d.scaled = scaled_design(data.xs, data.names);
+    d.Z = std::move(d.scaled.Z);  // the centre and scale stay for the way back
     // A predictor that is a linear combination of the others has no estimate. One rank check of
     // the whole design; only when it fails, the columns are added one by one to name the first.
     const auto full_rank = [&](Eigen::Index columns) {
@@ -408,11 +398,7 @@ CountFit fit_counts(const CountData& data, CountMethod method) {
         information -= cross * cross.transpose() / info_log_k;
     }
     const MatrixXd cov_gamma = information.ldlt().solve(MatrixXd::Identity(p, p));
-    MatrixXd T = MatrixXd::Identity(p, p);
-    for (std::size_t j = 0; j < k; ++j) {
-        T(Eigen::Index(j + 1), Eigen::Index(j + 1)) = 1 / d.scale[j];
-        T(0, Eigen::Index(j + 1)) = -d.centre[j] / d.scale[j];
-    }
+    const MatrixXd T = d.scaled.to_original_units();
     const VectorXd beta = T * fit.gamma;
     const MatrixXd cov = T * cov_gamma * T.transpose();
 

@@ -12,6 +12,7 @@
 #include "data.hpp"
 #include "keywords.hpp"
 #include "refusal.hpp"
+#include "scaled_design.hpp"
 #include "summary.hpp"
 
 namespace quadrat {
@@ -214,20 +215,9 @@ LogisticFit fit_logistic(const LogisticData& d) {
                                        : std::string(events == 0 ? "no trial succeeded" : "every trial succeeded") +
                                              "; logistic regression needs both outcomes");
 
-    // Predictors are centred and scaled before the fit, so that a column in the thousands (an
-    // elevation) and one in thousandths keep their digits; the coefficients are transformed back.
-    std::vector<double> centre(k), scale(k);
-    MatrixXd Z(n, p);
-    Z.col(0).setOnes();
-    for (std::size_t j = 0; j < k; ++j) {
-        refuse_beyond_model_scale(d.xs[j], d.names[j]);
-        centre[j] = mean(d.xs[j]);
-        scale[j] = std::sqrt(sum_of_squares(d.xs[j], centre[j]) / double(n));
-        if (!std::isfinite(centre[j]) || !std::isfinite(scale[j]))
-            throw Refusal("predictor " + d.names[j] + " has values too large to fit (their squares overflow); rescale it");
-        if (!(scale[j] > 0)) throw Refusal("predictor " + d.names[j] + " is constant; remove it");
-        for (std::size_t i = 0; i < n; ++i) Z(i, j + 1) = (d.xs[j][i] - centre[j]) / scale[j];
-    }
+    // Predictors centred and scaled for the fit (scaled_design.hpp); coefficients transformed back.
+    const ScaledDesign design = scaled_design(d.xs, d.names);
+    const MatrixXd& Z = design.Z;
     // A predictor that is a linear combination of the others (and the intercept) has no estimate.
     for (std::size_t j = 1; j < p; ++j) {
         Eigen::ColPivHouseholderQR<MatrixXd> qr(Z.leftCols(j + 1));
@@ -325,12 +315,7 @@ LogisticFit fit_logistic(const LogisticData& d) {
     const MatrixXd R_inverse = R.triangularView<Eigen::Upper>().solve(MatrixXd::Identity(p, p));
     const MatrixXd P = qr.colsPermutation();
     const MatrixXd cov_gamma = P * (R_inverse * R_inverse.transpose()) * P.transpose();
-    // β = T γ: slopes divided by their scale, the intercept moved back to the original origin.
-    MatrixXd T = MatrixXd::Identity(p, p);
-    for (std::size_t j = 0; j < k; ++j) {
-        T(j + 1, j + 1) = 1 / scale[j];
-        T(0, j + 1) = -centre[j] / scale[j];
-    }
+    const MatrixXd T = design.to_original_units();
     const VectorXd beta = T * gamma;
     const MatrixXd cov = T * cov_gamma * T.transpose();
 
