@@ -203,6 +203,16 @@ class Builder:
         self.arrays.append((c, r, columns, rows))
         return rows, columns
 
+    def formats_by_label(self, ref, rows, codes):
+        """Number formats for a label/value table whose labels start at `ref`: over `rows` rows,
+        the value beside a label takes codes[label] (labels come from the computed table)."""
+        self.doc.calculateAll()
+        c, r = position(ref)
+        for k in range(rows):
+            key = self.sheet.getCellByPosition(c, r + k).getString()
+            if key in codes:
+                self.format("%s%d" % (column_name(c + 1), r + 1 + k), codes[key])
+
     def widths(self, widths):
         """Column widths in cm, from column A (None keeps a column as it is)."""
         columns = self.sheet.getColumns()
@@ -764,11 +774,7 @@ def forest(office, available):
     model_codes = {"r-squared": "0.000", "r-squared-adjusted": "0.000", "statistic": "0.00", "df": WHOLE,
                    "df2": WHOLE, "p": P, "residual-sd": "0.0", "aic": "0.0", "bic": "0.0", "n": WHOLE,
                    "n dropped": WHOLE}
-    s.doc.calculateAll()
-    for k in range(model_rows):
-        key = s.sheet.getCellByPosition(12, r + k).getString()
-        if key in model_codes:
-            s.format("N%d" % (r + 1 + k), model_codes[key])
+    s.formats_by_label("M%d" % (r + 1), model_rows, model_codes)
     r = r + 1 + model_rows + 1
     s.label("M%d" % r, "Correlation with biomass (Pearson; RELATE.CORRELATION)", bold=True)
     s.header("M%d" % (r + 1), ["variable", "r", "ci-low", "ci-high", "p"])
@@ -806,11 +812,7 @@ def forest(office, available):
     d.sheet.getCellRangeByPosition(0, 1, 4, 1 + check_rows).VertJustify = enum("CellVertJustify", "TOP")
     check_codes = {"normality": "0.000", "spread": "0.00", "independence": "0.00", "linearity": "0.00",
                    "collinearity": "0.00", "influence": "0.000", "outliers": WHOLE}
-    doc.calculateAll()
-    for k in range(check_rows):
-        key = d.sheet.getCellByPosition(0, 1 + k).getString()
-        if key in check_codes:
-            d.format("B%d" % (2 + k), check_codes[key])
+    d.formats_by_label("A2", check_rows, check_codes)
     d.sentence("A%d" % (check_rows + 3), "\u2018look\u2019 means: look at the residual plots on the plots sheet and at "
                "the rows named, not that the model is wrong; \u2018ok\u2019 means the rule found no clear sign of trouble, not that "
                "the model holds. The plots are numbered, not visited in an order that matters, so no order is "
@@ -848,14 +850,10 @@ def thinning(t, rng):
     r = 2 + rows_ + 1
     t.label("G%d" % r, "Model, with the joint test of the treatment factor (FIT.LINEAR model)", bold=True)
     model_rows, _ = t.array("G%d" % (r + 1), 'FIT.LINEAR(%s;%s;"model")' % (Y, X))
-    t.doc.calculateAll()
     codes = {"r-squared": "0.000", "r-squared-adjusted": "0.000", "statistic": "0.00", "df": WHOLE, "df2": WHOLE,
              "p": P, "residual-sd": "0.00", "aic": "0.0", "bic": "0.0", "n": WHOLE, "n dropped": WHOLE,
              "treatment: F": "0.00", "treatment: df": WHOLE, "treatment: p": P}
-    for k in range(model_rows):
-        key = t.sheet.getCellByPosition(6, r + k).getString()
-        if key in codes:
-            t.format("H%d" % (r + 1 + k), codes[key])
+    t.formats_by_label("G%d" % (r + 1), model_rows, codes)
     r += model_rows + 2
     t.sentence("G%d" % r, "The row ‘treatment: thinned’ is the thinned plots’ growth minus the "
                "controls’ at the same elevation. The thinned plots happen to lie higher on the slope, where "
@@ -927,11 +925,7 @@ def fish(office, available):
     rows_, _ = s.array("H15", 'COMPARE.COUNTS(%s;%s;"chi-square";"table")' % (S, R))
     table_codes = {"statistic": "0.00", "df": WHOLE, "p": P, "n": WHOLE, "n dropped": WHOLE, "effect": "0.00",
                    "smallest expected count": "0.0", "cells expected below 5": WHOLE}
-    doc.calculateAll()
-    for k in range(rows_):
-        key = s.sheet.getCellByPosition(7, 14 + k).getString()
-        if key in table_codes:
-            s.format("I%d" % (15 + k), table_codes[key])
+    s.formats_by_label("H15", rows_, table_codes)
     r = 15 + rows_ + 1
     s.label("H%d" % r, "Trout sex ratio 1:1? (COMPARE.EXPECTED)", bold=True)
     s.header("H%d" % (r + 1), ["sex", "trout caught"])
@@ -974,11 +968,7 @@ def fish(office, available):
     model_rows, _ = t.array("H%d" % (r + 1), 'FIT.LOGISTIC(%s;%s;"model")' % (Y, X))
     model_codes = {"deviance": "0.00", "null deviance": "0.00", "statistic": "0.00", "df": WHOLE, "p": P,
                    "aic": "0.0", "pseudo-r-squared": "0.000", "n": WHOLE, "n dropped": WHOLE, "iterations": WHOLE}
-    doc.calculateAll()
-    for k in range(model_rows):
-        key = t.sheet.getCellByPosition(7, r + k).getString()
-        if key in model_codes:
-            t.format("I%d" % (r + 1 + k), model_codes[key])
+    t.formats_by_label("H%d" % (r + 1), model_rows, model_codes)
     r += model_rows + 2
     t.sentence("H%d" % r, "An odds ratio below 1 means lower odds of finding trout for each unit more (each °C, "
                "each % of canopy); the interval says how well the data pin it down.", 8, 2, italic=True)
@@ -1024,15 +1014,11 @@ def passes(p):
     r = 2 + rows_ + 1
     p.label("H%d" % r, "Model (FIT.COUNTS model): which count model, and the joint test of the reach", bold=True)
     model_rows, _ = p.array("H%d" % (r + 1), 'FIT.COUNTS(%s;%s;%s;;"model")' % (COUNT, XS, EFFORT))
-    p.doc.calculateAll()
     codes = {"deviance": "0.00", "null deviance": "0.00", "statistic": "0.00", "df": WHOLE, "p": P, "aic": "0.0",
              "pseudo-r-squared": "0.000", "n": WHOLE, "n dropped": WHOLE, "iterations": WHOLE,
              "overdispersion": "0.00", "aggregation k": "0.00", "reach: χ²": "0.00", "reach: df": WHOLE,
              "reach: p": P}
-    for k in range(model_rows):
-        key = p.sheet.getCellByPosition(7, r + k).getString()
-        if key in codes:
-            p.format("I%d" % (r + 1 + k), codes[key])
+    p.formats_by_label("H%d" % (r + 1), model_rows, codes)
     r += model_rows + 2
     p.sentence("H%d" % r, "A rate ratio is the factor by which the catch per minute changes: ‘reach: lower’ "
                "compares the lower reach with the upper one at equal depth, ‘mean depth m’ is per metre "
