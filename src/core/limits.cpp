@@ -85,13 +85,6 @@ std::string side_words(Side side) {
     return side == Side::upper ? "upper" : side == Side::lower ? "lower" : "two-sided";
 }
 
-// "1st", "22nd", "53rd", "90th".
-std::string ordinal(std::size_t whole) {
-    const std::size_t last = whole % 10, last_two = whole % 100;
-    const char* suffix = (last_two >= 11 && last_two <= 13) ? "th" : last == 1 ? "st" : last == 2 ? "nd" : last == 3 ? "rd" : "th";
-    return std::to_string(whole) + suffix;
-}
-
 // "90th", "95th", "97.5th", "99.9999th".
 std::string percentile_name(double fraction) {
     const double percent = fraction * 100;
@@ -101,40 +94,17 @@ std::string percentile_name(double fraction) {
     return buffer;
 }
 
+std::string capitalized(std::string text) {
+    if (!text.empty()) text[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(text[0])));
+    return text;
+}
+
 // A proportion as a percentage with the digits it needs: "90%", "97.5%", "99.9999%" (format_level
 // would round 0.999999 to "100.0%").
 std::string percent(double proportion) {
     char buffer[32];
     std::snprintf(buffer, sizeof buffer, "%.10g%%", proportion * 100);
     return buffer;
-}
-
-// "the largest value", "the 2nd largest value", "the 3rd smallest value" for order statistic k of n.
-std::string order_words(std::size_t k, std::size_t n) {
-    if (k == n) return "the largest value";
-    if (k == 1) return "the smallest value";
-    return 2 * k > n ? "the " + ordinal(n + 1 - k) + " largest value" : "the " + ordinal(k) + " smallest value";
-}
-
-// "the smallest and largest values", "the 3rd smallest and 3rd largest values".
-std::string outer_words(std::size_t j) {
-    return j == 1 ? std::string("the smallest and largest values")
-                  : "the " + ordinal(j) + " smallest and " + ordinal(j) + " largest values";
-}
-
-std::string capitalized(std::string text) {
-    if (!text.empty()) text[0] = static_cast<char>(std::toupper(static_cast<unsigned char>(text[0])));
-    return text;
-}
-
-// The report sentence of every LIMIT.* function, in one place so that the shared report renderer
-// can take it over: "<what>: <limit or low to high> (<details>, n = <n>)".
-std::string limit_report(const std::string& what, const LimitResult& r, std::vector<std::string> details) {
-    const TestResult& t = r.result;
-    std::string value = r.two_sided ? format_number(t.number("limit-low")) + " to " + format_number(t.number("limit-high"))
-                                    : format_number(t.number("limit"));
-    details.push_back("n = " + format_df(t.number("n")));
-    return what + ": " + value + " (" + join(details) + ")";
 }
 
 // Adds `limit` (one side) or `limit-low` and `limit-high` (two-sided) as centre ∓/± a half-width.
@@ -237,17 +207,39 @@ double share_of_orderings(double gaps, double n, double readings) {
 
 }  // namespace
 
+namespace {
+// The words several output tables share. A function, not a namespace-scope object: the registry's
+// declarations read the tables while the program's static objects are still being made.
+std::vector<Keyword> limit_output_words(std::initializer_list<Keyword> own) {
+    std::vector<Keyword> words = {{"limit", "the limit the function is for"}, {"estimate", "the quantity it bounds"}};
+    words.insert(words.end(), own.begin(), own.end());
+    words.push_back({"table", "the whole result as an array"});
+    words.push_back({"report", "one sentence"});
+    return words;
+}
+Keyword k_factor_word() { return {"k-factor", "the normal methods' multiplier"}; }
+Keyword n_word() { return {"n", "observations used"}; }
+}  // namespace
+
 const KeywordTable& limit_outputs() {
-    static const KeywordTable t{"limit outputs",
-                                {{"limit", "the limit the function is for"},
-                                 {"estimate", "the quantity it bounds"},
-                                 {"k-factor", "the normal methods' multiplier"},
-                                 {"n", "observations used"},
-                                 {"count", "values above the standard"},
-                                 {"limit-low", "lower limit, two-sided"},
-                                 {"limit-high", "upper limit, two-sided"},
-                                 {"table", "the whole result as an array"},
-                                 {"report", "one sentence"}}};
+    static const KeywordTable t{"mean limit outputs", limit_output_words({k_factor_word(), n_word()})};
+    return t;
+}
+
+const KeywordTable& percentile_limit_outputs() {
+    static const KeywordTable t{"percentile limit outputs", limit_output_words({n_word()})};
+    return t;
+}
+
+const KeywordTable& exceedance_outputs() {
+    static const KeywordTable t{"exceedance outputs", limit_output_words({{"count", "values above the standard"}, n_word()})};
+    return t;
+}
+
+const KeywordTable& sided_limit_outputs() {
+    static const KeywordTable t{"sided limit outputs",
+                                limit_output_words({k_factor_word(), n_word(), {"limit-low", "lower limit, two-sided"},
+                                                    {"limit-high", "upper limit, two-sided"}})};
     return t;
 }
 
@@ -271,18 +263,19 @@ const KeywordTable& limit_methods() {
     return t;
 }
 
-Table select_limit_output(const LimitResult& limit, const std::string& output) {
-    const std::string key = limit_outputs().pick(output, "output");
+Table select_limit_output(const LimitResult& limit, const std::string& output, const KeywordTable& allowed) {
+    const std::string key = allowed.pick(output, "output");
     if (key == "limit" && limit.two_sided)
         throw Refusal("side two-sided gives two limits: ask for output limit-low or limit-high");
     if ((key == "limit-low" || key == "limit-high") && !limit.two_sided)
         throw Refusal("output " + key + " needs side two-sided; a one-sided limit is output limit");
+    if (key == "report") return single(render_limit_report(limit));
     if (key == "estimate") {
         if (limit.estimate_label.empty())
             throw Refusal("output 'estimate' is not available for " + limit.result.test);
         return select_output(limit.result, limit.estimate_label, KeywordTable("output", {{limit.estimate_label, ""}}));
     }
-    return select_output(limit.result, key, limit_outputs());
+    return select_output(limit.result, key, allowed);
 }
 
 std::size_t order_statistic_rank(std::size_t n, double p, double confidence) {
@@ -365,8 +358,8 @@ LimitResult limit_mean(std::span<const double> values, const std::string& method
         t.test = "One-sided " + level_text + " upper confidence limit of the mean (" + name + ")";
         t.add("k-factor", k).add("limit", finite_limit(s.unscaled(s.mean + k * s.sd)));
     }
-    t.report = limit_report("Upper " + level_text + " confidence limit of the mean (" + name + ")", r,
-                            {"mean " + format_number(t.number("mean")), "SD " + format_number(t.number("SD"))});
+    r.title = "Upper " + level_text + " confidence limit of the mean (" + name + ")";
+    r.details = {{"mean ", "mean"}, {"SD ", "SD"}};
     return r;
 }
 
@@ -398,9 +391,8 @@ LimitResult limit_percentile(std::span<const double> values, double fraction, do
         .add("order statistic", static_cast<double>(rank))
         .add("confidence", cdf(dist, static_cast<double>(rank - 1)))
         .add("limit", sorted[rank - 1]);
-    t.report = limit_report("Upper " + format_level(level) + " confidence limit of the " + name, r,
-                            {name + " " + format_number(t.number("percentile")),
-                             order_words(rank, n) + ", distribution-free"});
+    r.title = "Upper " + format_level(level) + " confidence limit of the " + name;
+    r.details = {{name + " ", "percentile"}, {"", "order statistic", ", distribution-free", LimitDetail::Form::order}};
     return r;
 }
 
@@ -421,9 +413,9 @@ LimitResult limit_exceedance(std::span<const double> values, double standard, do
         .add("count", count)
         .add("share above standard", count / n)
         .add("limit", clopper_pearson_upper(count, n, level));
-    t.report = limit_report("Upper " + format_level(level) + " confidence limit of the share above " + number_label(standard) +
-                                " (Clopper–Pearson)",
-                            r, {format_df(count) + " of " + format_df(n) + " values above, share " + format_number(count / n)});
+    r.title = "Upper " + format_level(level) + " confidence limit of the share above the standard (Clopper–Pearson)";
+    r.details = {{"standard ", "standard", "", LimitDetail::Form::typed}, {"", "count", " above it", LimitDetail::Form::whole},
+                 {"share ", "share above standard"}};
     return r;
 }
 
@@ -437,7 +429,6 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
                              percent(proportion) + " of the population at " + format_level(level) + " confidence";
     LimitResult r;
     TestResult& t = r.result;
-    std::vector<std::string> details;
     if (method == "normal") {
         const Scaled s = scaled_moments(values, "a normal tolerance limit");
         const double k = side == Side::two_sided ? tolerance_factor_two_sided(s.n, proportion, level)
@@ -451,7 +442,7 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
         }
         t.add("k-factor", k);
         add_limits(r, side, s.unscaled(s.mean - k * s.sd), s.unscaled(s.mean + k * s.sd));
-        details = {"mean " + format_number(t.number("mean")), "SD " + format_number(t.number("SD")), "k = " + format_number(k)};
+        r.details = {{"mean ", "mean"}, {"SD ", "SD"}, {"k = ", "k-factor"}};
     } else {
         // Order statistics (Wilks 1941, Ann. Math. Stat. 12, 91–96): the coverage F(x(r)) is
         // Beta(r, n − r + 1), so P(F(x(r)) ≥ p) = P(Bin(n, p) ≤ r − 1); two-sided with m values set
@@ -481,7 +472,8 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
             t.add("values set aside at each end", static_cast<double>(good))
                 .add("confidence", cdf(dist, static_cast<double>(n - 2 * good - 2)));
             add_limits(r, side, sorted[good], sorted[n - 1 - good]);
-            details = {outer_words(good + 1) + ", distribution-free"};
+            t.unlisted.push_back({"order from each end", static_cast<double>(good + 1)});
+            r.details = {{"", "order from each end", ", distribution-free", LimitDetail::Form::outer}};
         } else {
             const std::size_t rank = order_statistic_rank(n, proportion, level);
             if (rank == 0) {
@@ -498,10 +490,10 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
                 .add("order statistic", static_cast<double>(side == Side::upper ? rank : n + 1 - rank))
                 .add("confidence", cdf(dist, static_cast<double>(rank - 1)));
             add_limits(r, side, sorted[n - rank], sorted[rank - 1]);
-            details = {order_words(side == Side::upper ? rank : n + 1 - rank, n) + ", distribution-free"};
+            r.details = {{"", "order statistic", ", distribution-free", LimitDetail::Form::order}};
         }
     }
-    t.report = limit_report(capitalized(head), r, details);
+    r.title = capitalized(head);
     return r;
 }
 
@@ -517,7 +509,6 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
                              " at " + format_level(level) + " confidence";
     LimitResult r;
     TestResult& t = r.result;
-    std::vector<std::string> details;
     if (method == "normal") {
         // x̄ ± t·s·√(1 + 1/n), with t at 1 − α/m (one side) or 1 − α/(2m) (two-sided) for m readings:
         // the Bonferroni rule of common practice (Hahn & Meeker 1991, Statistical Intervals).
@@ -528,7 +519,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
         r.estimate_label = "mean";
         t.add("n", s.n).add("mean", s.unscaled(s.mean)).add("SD", s.unscaled(s.sd)).add("readings", readings).add("k-factor", k);
         add_limits(r, side, s.unscaled(s.mean - k * s.sd), s.unscaled(s.mean + k * s.sd));
-        details = {"mean " + format_number(t.number("mean")), "SD " + format_number(t.number("SD")), "k = " + format_number(k)};
+        r.details = {{"mean ", "mean"}, {"SD ", "SD"}, {"k = ", "k-factor"}};
     } else {
         // The m new readings all fall in the G gaps of the ordered sample below x(r) (G = r) or between
         // x(j) and x(n + 1 − j) (G = n − 2j + 1) with probability share_of_orderings(G, n, m).
@@ -557,7 +548,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
             t.add("order statistic", static_cast<double>(good))
                 .add("confidence", share_of_orderings(nd - 2.0 * good + 1, nd, readings));
             add_limits(r, side, sorted[good - 1], sorted[n - good]);
-            details = {outer_words(good) + ", distribution-free"};
+            r.details = {{"", "order statistic", ", distribution-free", LimitDetail::Form::outer}};
         } else {
             auto covers = [&](std::size_t rank) { return share_of_orderings(static_cast<double>(rank), nd, readings) >= level; };
             if (!covers(n)) {
@@ -576,10 +567,10 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
             t.add("order statistic", static_cast<double>(side == Side::upper ? good : n + 1 - good))
                 .add("confidence", share_of_orderings(static_cast<double>(good), nd, readings));
             add_limits(r, side, sorted[n - good], sorted[good - 1]);
-            details = {order_words(side == Side::upper ? good : n + 1 - good, n) + ", distribution-free"};
+            r.details = {{"", "order statistic", ", distribution-free", LimitDetail::Form::order}};
         }
     }
-    t.report = limit_report(capitalized(head), r, details);
+    r.title = capitalized(head);
     return r;
 }
 

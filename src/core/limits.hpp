@@ -16,20 +16,40 @@ namespace quadrat {
 // What every LIMIT.* function returns: the named numbers (`n`, `limit` or `limit-low`/`limit-high`,
 // `k-factor` for the normal methods, …), and which row `estimate` shows (the mean, the percentile,
 // the share), so the table keeps readable row names.
+//
+// The report sentence is rendered by report.hpp (render_limit_report) from the title and the
+// details: "<title>: <limit, or limit-low to limit-high> (<details>, n = N)".
+struct LimitDetail {
+    // How the quantity shows: a number as report.hpp formats it, a whole number, a number as the
+    // person typed it (a standard: 50, 0.5), or an order
+    // statistic in words ("the 3rd largest value": `order` counts from the smallest of n,
+    // `outer` from each end, "the 2nd smallest and 2nd largest values").
+    enum class Form { number, whole, typed, order, outer };
+    std::string before, quantity, after;  // words, a named quantity of the result (listed or not), words
+    Form form = Form::number;
+};
+
 struct LimitResult {
     TestResult result;
     std::string estimate_label;  // the row `estimate` selects; empty when the method has none
     bool two_sided = false;      // then `limit` is a refusal pointing to limit-low and limit-high
+    std::string title;           // "Upper 95% confidence limit of the mean (Student's t)"
+    std::vector<LimitDetail> details;
 };
 
-// The outputs of every LIMIT.* function, in the order a refusal lists them, and the keyword tables
-// of their options (keywords.hpp).
-const KeywordTable& limit_outputs();
+// The outputs of the LIMIT.* functions, in the order a refusal lists them (FUNCTIONS.md: `limit`,
+// `estimate`, `k-factor`, `n`, `table`, `report`; LIMIT.EXCEEDANCE's `count`; `limit-low` and
+// `limit-high` where a `side` can be two-sided), and the keyword tables of their options.
+const KeywordTable& limit_outputs();             // LIMIT.MEAN
+const KeywordTable& percentile_limit_outputs();  // LIMIT.PERCENTILE (no multiplier)
+const KeywordTable& exceedance_outputs();        // LIMIT.EXCEEDANCE
+const KeywordTable& sided_limit_outputs();       // LIMIT.TOLERANCE, LIMIT.PREDICTION
 const KeywordTable& limit_sides();         // `side`
 const KeywordTable& mean_limit_methods();  // LIMIT.MEAN
 const KeywordTable& limit_methods();       // LIMIT.TOLERANCE, LIMIT.PREDICTION
-// What a cell shows for `output`.
-Table select_limit_output(const LimitResult& limit, const std::string& output);
+// What a cell shows for `output` (a keyword of `allowed`).
+Table select_limit_output(const LimitResult& limit, const std::string& output,
+                          const KeywordTable& allowed = sided_limit_outputs());
 
 // One-sided upper confidence limit of the mean at `level`. `method`: `t` (mean + t(level, n − 1)·s/√n),
 // `bootstrap` (BCa, Efron 1987, with bootstrap_draws resamples from a fixed seed), `chebyshev`

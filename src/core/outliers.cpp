@@ -18,10 +18,6 @@ namespace quadrat {
 
 namespace {
 
-const char* const normal_note =
-    "the test assumes the other values come from a normal distribution; a flagged value is one to check "
-    "(a transcription slip, a fouled probe), not one to delete";
-
 // Two-sided critical value of the largest studentized deviation among m values at α (Grubbs 1969,
 // Technometrics 11, 1–21; the same λ Rosner 1983 uses at each step): with t the upper α/(2m) point of
 // t(m − 2), λ = (m − 1)·t / √((m − 2 + t²)·m).
@@ -51,26 +47,6 @@ SortedValues sorted_values(std::span<const double> values) {
     return s;
 }
 
-std::string value_list(const OutlierCheck& c) {
-    std::vector<std::string> shown;
-    for (const Suspect& s : c.suspects)
-        if (s.outlier) shown.push_back(format_number(s.value));
-    return join(shown);
-}
-
-// The report sentence, in one place so that the shared report renderer can take it over.
-std::string outlier_report(const OutlierCheck& c, const std::string& scope, const std::string& symbol) {
-    std::string found;
-    if (c.count == 0) {
-        const Suspect& first = c.suspects.front();
-        found = "no clear sign of an outlier (" + symbol + " = " + format_number(first.statistic) + " against a critical " +
-                format_number(first.critical) + ")";
-    } else {
-        found = count_of(c.count, "value") + (c.count == 1 ? " stands out (" : " stand out (") + value_list(c) + ")";
-    }
-    return c.test + ", " + scope + "n = " + std::to_string(c.n) + ": " + found + "; " + c.note + ".";
-}
-
 OutlierCheck generalized_esd(std::span<const double> values, double most_given, double alpha) {
     const std::size_t n = values.size();
     if (n < 25)
@@ -85,8 +61,11 @@ OutlierCheck generalized_esd(std::span<const double> values, double most_given, 
     }
     const SortedValues s = sorted_values(values);
     OutlierCheck c;
+    c.method = "generalized-esd";
     c.test = "Generalized ESD test (Rosner 1983)";
     c.n = n;
+    c.most = most;
+    c.alpha = alpha;
     // Rosner (1983), Technometrics 25, 165–172: at step i the value farthest from the mean of the
     // n − i + 1 values left gives R_i = max|x − x̄|/s; it is set aside for the next step. The number of
     // outliers is the largest i with R_i > λ_i. The farthest value is always the smallest or largest
@@ -128,8 +107,6 @@ OutlierCheck generalized_esd(std::span<const double> values, double most_given, 
             break;
         }
     for (std::size_t i = 0; i < c.count; ++i) c.suspects[i].outlier = true;
-    c.note = normal_note;
-    c.report = outlier_report(c, "up to " + std::to_string(most) + " values at α = " + number_label(alpha) + ", ", "R1");
     return c;
 }
 
@@ -150,12 +127,12 @@ OutlierCheck grubbs(std::span<const double> values, double alpha) {
     suspect.critical = studentized_deviation_critical(static_cast<double>(n), alpha);
     suspect.outlier = suspect.statistic > suspect.critical;
     OutlierCheck c;
+    c.method = "grubbs";
     c.test = "Grubbs' test (two-sided)";
     c.n = n;
+    c.alpha = alpha;
     c.suspects.push_back(suspect);
     c.count = suspect.outlier ? 1 : 0;
-    c.note = normal_note;
-    c.report = outlier_report(c, "α = " + number_label(alpha) + ", ", "G");
     return c;
 }
 
@@ -174,19 +151,17 @@ OutlierCheck fences(std::span<const double> values) {
     if (!std::isfinite(low_fence) || !std::isfinite(high_fence))
         throw Refusal("the fences lie beyond the range of numbers a cell holds; rescale the values (other units)");
     OutlierCheck c;
+    c.method = "fences";
     c.test = "Tukey's fences (1.5 × IQR)";
     c.n = n;
+    c.low_fence = low_fence;
+    c.high_fence = high_fence;
     for (std::size_t i = 0; i < n; ++i) {
         const double x = values[i] * s.scale;
         const double beyond = x > q3 ? (x - q3) / iqr : x < q1 ? (q1 - x) / iqr : 0;
         if (beyond > 1.5) c.suspects.push_back({i, values[i], beyond, 1.5, true});
     }
     c.count = c.suspects.size();
-    c.note = "fences at " + format_number(low_fence) + " and " + format_number(high_fence) +
-             " (quartiles ∓ 1.5 × IQR); a flagged value is one to check (a transcription slip, a fouled probe), not one to delete";
-    const std::string found = c.count == 0 ? std::string("no value beyond the fences")
-                                           : count_of(c.count, "value") + " beyond the fences (" + value_list(c) + ")";
-    c.report = c.test + ", n = " + std::to_string(n) + ": " + found + "; " + c.note + ".";
     return c;
 }
 
@@ -228,12 +203,11 @@ Table outlier_flags(const OutlierCheck& check, std::span<const std::size_t> row_
 
 Table outlier_table(const OutlierCheck& check, const std::vector<std::string>& cell_of) {
     Table t;
-    t.push_back({std::string("cell"), std::string("value"), std::string("statistic"), std::string("critical value"),
-                 std::string("verdict")});
+    t.push_back({std::string("cell"), std::string("statistic"), std::string("critical value"), std::string("verdict")});
     for (const Suspect& s : check.suspects)
-        t.push_back({s.index < cell_of.size() ? CellValue{cell_of[s.index]} : CellValue{}, s.value, s.statistic, s.critical,
+        t.push_back({s.index < cell_of.size() ? CellValue{cell_of[s.index]} : CellValue{}, s.statistic, s.critical,
                      std::string(s.outlier ? "outlier" : "not flagged")});
-    t.push_back({std::string("note"), check.note, CellValue{}, CellValue{}, CellValue{}});
+    t.push_back({std::string("note"), render_outlier_note(check), CellValue{}, CellValue{}});
     return t;
 }
 

@@ -21,13 +21,17 @@ struct Suspect {
     bool outlier = false;
 };
 
+// The sentence and the table's note are rendered from these by report.hpp (render_outlier_report,
+// render_outlier_note): nothing here builds a sentence.
 struct OutlierCheck {
+    std::string method;             // the keyword: generalized-esd, grubbs, fences
     std::string test;               // the method's full name
     std::size_t n = 0;
     std::vector<Suspect> suspects;  // in the order the method takes them
     std::size_t count = 0;          // values that stand out
-    std::string note;               // what the method assumes, and that a flag is not a deletion
-    std::string report;
+    std::size_t most = 0;           // generalized-esd: the most values tested
+    double alpha = 0.05;            // the tests' α = 1 − level
+    double low_fence = 0, high_fence = 0;  // fences: quartiles ∓ 1.5 × IQR, in the values' units
 };
 
 // `method`: generalized-esd (default; Rosner 1983, n ≥ 25, up to `most` values, default 10% of n
@@ -44,8 +48,9 @@ const KeywordTable& outlier_methods();
 // stands out and blank elsewhere; row_of[i] is the raw row of values[i].
 Table outlier_flags(const OutlierCheck& check, std::span<const std::size_t> row_of, std::size_t rows);
 
-// `table`: header `cell | value | statistic | critical value | verdict`, one row per value the method
-// took, then a `note` row; cell_of[i] names values[i] (B7).
+// `table`: header `cell | statistic | critical value | verdict` (FUNCTIONS.md), one row per value the
+// method took, in its order, then a `note` row (what the method assumes; a flag is not a deletion);
+// cell_of[i] names values[i] (B7).
 Table outlier_table(const OutlierCheck& check, const std::vector<std::string>& cell_of);
 
 }  // namespace quadrat

@@ -5,6 +5,10 @@
 #include <variant>
 
 #include "advisor.hpp"
+#include "data.hpp"
+#include "limits.hpp"
+#include "outliers.hpp"
+#include "refusal.hpp"
 
 namespace quadrat {
 
@@ -152,6 +156,88 @@ std::string render_advice(const Advice& a) {
         s += a.steps[i].found + ", so " + a.steps[i].decision;
     }
     return s + ". A guide, not a verdict: check it against the study design.";
+}
+
+// ---- LIMIT.* and CHECK.OUTLIERS -----------------------------------------------------------------
+
+std::string ordinal(std::size_t whole) {
+    const std::size_t last = whole % 10, last_two = whole % 100;
+    const char* suffix = (last_two >= 11 && last_two <= 13) ? "th" : last == 1 ? "st" : last == 2 ? "nd" : last == 3 ? "rd" : "th";
+    return std::to_string(whole) + suffix;
+}
+
+namespace {
+
+// "the largest value", "the 2nd largest value", "the 3rd smallest value" for order statistic k of n.
+std::string order_words(std::size_t k, std::size_t n) {
+    if (k == n) return "the largest value";
+    if (k == 1) return "the smallest value";
+    return 2 * k > n ? "the " + ordinal(n + 1 - k) + " largest value" : "the " + ordinal(k) + " smallest value";
+}
+
+// "the smallest and largest values", "the 3rd smallest and 3rd largest values".
+std::string outer_words(std::size_t j) {
+    return j == 1 ? std::string("the smallest and largest values")
+                  : "the " + ordinal(j) + " smallest and " + ordinal(j) + " largest values";
+}
+
+std::size_t whole_of(double x) { return std::isfinite(x) && x >= 0 ? static_cast<std::size_t>(std::llround(x)) : 0; }
+
+}  // namespace
+
+std::string render_limit_report(const LimitResult& limit) {
+    const TestResult& t = limit.result;
+    const std::string value = limit.two_sided
+                                  ? format_number(t.number("limit-low")) + " to " + format_number(t.number("limit-high"))
+                                  : format_number(t.number("limit"));
+    std::string details;
+    const auto then = [&details](const std::string& piece) { details += (details.empty() ? "" : ", ") + piece; };
+    for (const LimitDetail& d : limit.details) {
+        const double x = t.number(d.quantity);
+        std::string shown;
+        switch (d.form) {
+            case LimitDetail::Form::number: shown = format_number(x); break;
+            case LimitDetail::Form::whole: shown = format_df(x); break;
+            case LimitDetail::Form::typed: shown = number_label(x); break;
+            case LimitDetail::Form::order: shown = order_words(whole_of(x), whole_of(t.number("n"))); break;
+            case LimitDetail::Form::outer: shown = outer_words(whole_of(x)); break;
+        }
+        then(d.before + shown + d.after);
+    }
+    then("n = " + format_df(t.number("n")));
+    return limit.title + ": " + value + " (" + details + ")";
+}
+
+std::string render_outlier_note(const OutlierCheck& c) {
+    const std::string check = "a flagged value is one to check (a transcription slip, a fouled probe), not one to delete";
+    if (c.method == "fences")
+        return "fences at " + format_number(c.low_fence) + " and " + format_number(c.high_fence) +
+               " (quartiles ∓ 1.5 × IQR); " + check;
+    return "the test assumes the other values come from a normal distribution; " + check;
+}
+
+std::string render_outlier_report(const OutlierCheck& c) {
+    std::vector<std::string> flagged;
+    for (const Suspect& s : c.suspects)
+        if (s.outlier) flagged.push_back(format_number(s.value));
+    std::string values;
+    for (const auto& v : flagged) values += (values.empty() ? "" : ", ") + v;
+    const std::string many = count_of(c.count, "value");
+    std::string scope, found;
+    if (c.method == "fences") {
+        found = c.count == 0 ? std::string("no value beyond the fences") : many + " beyond the fences (" + values + ")";
+    } else {
+        const std::string alpha = "α = " + number_label(c.alpha);
+        scope = c.method == "generalized-esd" ? "up to " + std::to_string(c.most) + " values at " + alpha + ", " : alpha + ", ";
+        if (c.count == 0 && !c.suspects.empty()) {
+            const Suspect& first = c.suspects.front();
+            found = "no clear sign of an outlier (" + std::string(c.method == "grubbs" ? "G" : "R1") + " = " +
+                    format_number(first.statistic) + " against a critical " + format_number(first.critical) + ")";
+        } else {
+            found = many + (c.count == 1 ? " stands out (" : " stand out (") + values + ")";
+        }
+    }
+    return c.test + ", " + scope + "n = " + std::to_string(c.n) + ": " + found + "; " + render_outlier_note(c) + ".";
 }
 
 }  // namespace quadrat

@@ -3,6 +3,7 @@
 // with two decimals, three significant digits when smaller than 0.1; Welch df with one decimal.
 #pragma once
 
+#include <cstddef>
 #include <string>
 
 #include "result.hpp"
@@ -10,6 +11,8 @@
 namespace quadrat {
 
 struct Advice;
+struct LimitResult;
+struct OutlierCheck;
 
 // "p = 0.034", "p = 0.002", "p < 0.001".
 std::string format_p(double p);
@@ -30,5 +33,19 @@ std::string render_report(const TestResult& result);
 std::string render_advice(const Advice& advice);
 // The suggestion alone ("Suggested: COMPARE.GROUPS, method 'welch'."), also the advice table's last row.
 std::string render_suggestion(const Advice& advice);
+
+// LIMIT.*'s sentence: "<title>: <limit, or limit-low to limit-high> (<details>, n = N)", e.g.
+// "Upper 95% confidence limit of the mean (Student's t): 0.93 (mean 0.81, SD 0.33, n = 24)".
+std::string render_limit_report(const LimitResult& limit);
+
+// CHECK.OUTLIERS' sentence: the test, what it tested, n, what stands out (or "no clear sign of an
+// outlier (R1 = 3.12 against a critical 3.16)"), then the note.
+std::string render_outlier_report(const OutlierCheck& check);
+// The note of CHECK.OUTLIERS' table and sentence: what the method assumes (the tests: the other
+// values normal; fences: where the fences lie), and that a flagged value is one to check, not to delete.
+std::string render_outlier_note(const OutlierCheck& check);
+
+// "1st", "22nd", "53rd", "90th".
+std::string ordinal(std::size_t whole);
 
 }  // namespace quadrat

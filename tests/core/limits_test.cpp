@@ -8,6 +8,7 @@
 
 #include "core/limits.hpp"
 #include "core/refusal.hpp"
+#include "core/report.hpp"
 #include "reference.hpp"
 
 using namespace quadrat::test_support;
@@ -19,8 +20,8 @@ const nlohmann::json& reference() { return reference_file("limits.json"); }
 
 std::vector<double> ammonia() { return reference()["ammonia"]["values"].get<std::vector<double>>(); }
 
-double number(const LimitResult& r, const std::string& output) {
-    const Table t = select_limit_output(r, output);
+double number(const LimitResult& r, const std::string& output, const KeywordTable& outputs = sided_limit_outputs()) {
+    const Table t = select_limit_output(r, output, outputs);
     return std::get<double>(t.at(0).at(0));
 }
 
@@ -69,7 +70,7 @@ TEST(Limits, ClopperPearsonAgreesWithScipy) {
 TEST(Limits, StandardAboveEveryValue) {
     const std::vector<double> x = ammonia();
     const LimitResult r = limit_exceedance(x, 100, 0.95);
-    EXPECT_EQ(number(r, "count"), 0);
+    EXPECT_EQ(number(r, "count", exceedance_outputs()), 0);
     EXPECT_EQ(number(r, "estimate"), 0);
     EXPECT_NEAR(number(r, "limit"), 1 - std::pow(0.05, 1.0 / 24), 1e-12);
     // Below every value: every reading exceeds, share 1 and limit 1 (exact).
@@ -101,7 +102,7 @@ TEST(Limits, AmmoniaAgreesWithReference) {
     EXPECT_EQ(p50.result.number("order statistic"), a["median_rank"].get<double>());
 
     const LimitResult e = limit_exceedance(x, 1.0, 0.95);
-    EXPECT_EQ(number(e, "count"), a["exceed_count"].get<double>());
+    EXPECT_EQ(number(e, "count", exceedance_outputs()), a["exceed_count"].get<double>());
     expect_relative(number(e, "limit"), a["exceed_upper"], 1e-10, "exceedance upper limit");
 
     expect_relative(number(limit_tolerance(x, 0.9, 0.95, "", ""), "limit"), a["tolerance_upper"], 1e-9, "tolerance upper");
@@ -210,11 +211,16 @@ TEST(Limits, OutputSelection) {
 // Report sentence: numbers as report.hpp formats them (common practice, no source); the values are
 // the ammonia reference above rounded by hand: mean 0.81, SD 0.33, limit 0.926 → 0.93.
 TEST(Limits, ReportSentence) {
-    EXPECT_EQ(limit_mean(ammonia(), "t", 0.95).result.report,
+    EXPECT_EQ(std::get<std::string>(select_limit_output(limit_mean(ammonia(), "t", 0.95), "report")[0][0]),
               "Upper 95% confidence limit of the mean (Student's t): 0.93 (mean 0.81, SD 0.33, n = 24)");
-    EXPECT_EQ(limit_exceedance(ammonia(), 1, 0.95).result.report,
-              "Upper 95% confidence limit of the share above 1 (Clopper–Pearson): 0.34 (4 of 24 values above, share 0.17, "
-              "n = 24)");
+    EXPECT_EQ(render_limit_report(limit_exceedance(ammonia(), 1, 0.95)),
+              "Upper 95% confidence limit of the share above the standard (Clopper–Pearson): 0.34 (standard 1, 4 above it, "
+              "share 0.17, n = 24)");
+    // The order statistic in words, from the rank the binomial rule gives (the generator's
+    // median_rank of 24): rank r of 24 is the (25 − r)th largest value.
+    const std::size_t rank = reference()["ammonia"]["median_rank"].get<std::size_t>();
+    EXPECT_NE(render_limit_report(limit_percentile(ammonia(), 0.5, 0.95)).find("the " + ordinal(25 - rank) + " largest value, distribution-free"),
+              std::string::npos);
 }
 
 // The bootstrap is held to its coverage, not to digits (its resamples are its own): in 400 seeded

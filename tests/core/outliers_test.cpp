@@ -6,8 +6,10 @@
 #include <random>
 #include <vector>
 
+#include "cell_calls.hpp"
 #include "core/outliers.hpp"
 #include "core/refusal.hpp"
+#include "core/report.hpp"
 #include "core/summary.hpp"
 #include "reference.hpp"
 
@@ -54,8 +56,9 @@ TEST(Outliers, GrubbsOnRosnerData) {
     EXPECT_NEAR(c.suspects[0].critical, 3.158794, 5e-7);
     EXPECT_EQ(c.suspects[0].value, 6.01);
     EXPECT_EQ(c.count, 0u);
-    EXPECT_NE(c.report.find("no clear sign of an outlier (G = 3.12 against a critical 3.16)"), std::string::npos);
-    EXPECT_NE(c.report.find("assumes the other values come from a normal distribution"), std::string::npos);
+    const std::string report = render_outlier_report(c);
+    EXPECT_NE(report.find("no clear sign of an outlier (G = 3.12 against a critical 3.16)"), std::string::npos);
+    EXPECT_NE(report.find("assumes the other values come from a normal distribution"), std::string::npos);
 }
 
 // Worked by hand: 1, 2, …, 10, 30 (n = 11). QUARTILE.INC positions (n − 1)·p: Q1 between the 3rd and
@@ -68,7 +71,10 @@ TEST(Outliers, FencesByHand) {
     EXPECT_EQ(c.suspects[0].index, 0u);
     EXPECT_NEAR(c.suspects[0].statistic, 4.3, 1e-12);
     EXPECT_EQ(c.suspects[0].critical, 1.5);
-    EXPECT_NE(c.note.find("fences at -4.00 and 16.00"), std::string::npos);
+    EXPECT_NE(render_outlier_note(c).find("fences at -4.00 and 16.00"), std::string::npos);
+    EXPECT_EQ(render_outlier_report(c),
+              "Tukey's fences (1.5 × IQR), n = 11: 1 value beyond the fences (30.00); fences at -4.00 and 16.00 (quartiles ∓ 1.5 × "
+              "IQR); a flagged value is one to check (a transcription slip, a fouled probe), not one to delete.");
 }
 
 // Flags sit beside the raw rows: values from rows 0, 2, 3 of a 5-row range (rows 1 and 4 empty);
@@ -86,10 +92,15 @@ TEST(Outliers, FlagsAlignWithRawRows) {
     std::vector<std::string> cells;
     for (std::size_t r : rows) cells.push_back("B" + std::to_string(r + 2));
     const Table t = outlier_table(c, cells);
+    // The catalogue's columns: cell, statistic, critical value, verdict; then the note row.
     ASSERT_EQ(t.size(), 3u);
-    EXPECT_EQ(std::get<std::string>(t[0][3]), "critical value");
+    ASSERT_EQ(t[0].size(), 4u);
+    EXPECT_EQ(std::get<std::string>(t[0][0]), "cell");
+    EXPECT_EQ(std::get<std::string>(t[0][1]), "statistic");
+    EXPECT_EQ(std::get<std::string>(t[0][2]), "critical value");
+    EXPECT_EQ(std::get<std::string>(t[0][3]), "verdict");
     EXPECT_EQ(std::get<std::string>(t[1][0]), "B2");
-    EXPECT_EQ(std::get<std::string>(t[1][4]), "outlier");
+    EXPECT_EQ(std::get<std::string>(t[1][3]), "outlier");
     EXPECT_EQ(std::get<std::string>(t[2][0]), "note");
 }
 
@@ -152,6 +163,43 @@ TEST(Outliers, ExtremeValues) {
         } catch (const Refusal&) {
         }
     }
+}
+
+}  // namespace
+}  // namespace quadrat
+
+namespace quadrat {
+namespace {
+
+using test_support::call;
+using test_support::keyword;
+using test_support::text_of;
+
+// Through the registry, as a cell: a header row, an `n/a` row and the fence-breaking 30 in a
+// 14-row column. `flags` has exactly the input's 14 rows, `outlier` beside the 30 (row 4 of the
+// range) and blank elsewhere, header and n/a rows included; the table names the cell B5 (the range
+// starts at B2). Worked by hand as in FencesByHand (the same 11 values); common practice, no source.
+TEST(Outliers, FlagsThroughTheRegistrySitBesideTheRawRows) {
+    Range r = Range::column({0, 1, 2, 30, 3, 0, 4, 5, 6, 7, 8, 9, 10, 0});
+    r.cells[0] = Cell::make_text("reading");
+    r.cells[5] = Cell::make_text("n/a");
+    r.cells[13] = Cell{};  // an empty row at the end: neither used nor dropped
+    r.is_reference = true;
+    r.first_row = 1;
+    r.first_column = 1;
+    const Table flags = call("checkOutliers", {r, keyword("fences")});
+    ASSERT_EQ(flags.size(), 14u);
+    for (std::size_t row = 0; row < 14; ++row) {
+        if (row == 3) EXPECT_EQ(std::get<std::string>(flags[row][0]), "outlier");
+        else EXPECT_TRUE(std::holds_alternative<std::monostate>(flags[row][0])) << row;
+    }
+    EXPECT_EQ(test_support::number_of(call("checkOutliers", {r, keyword("fences"), keyword("count")})), 1);
+    const Table table = call("checkOutliers", {r, keyword("fences"), keyword("table")});
+    ASSERT_EQ(table.size(), 3u);
+    EXPECT_EQ(std::get<std::string>(table[1][0]), "B5");
+    EXPECT_EQ(text_of(call("checkOutliers", {r})),
+              "method generalized-esd needs at least 25 values (Rosner 1983), found 11; method grubbs tests the one most "
+              "extreme value from 3 values");
 }
 
 }  // namespace

@@ -426,13 +426,59 @@ TEST(ReportSentence, TwoGroupsTooFewForAnInterval) {
               "(spring − ditch; too few values for a 95% interval), rank-biserial r = 1.00");
 }
 
+// ---------------------------------------------------------------- LIMIT.*, CHECK.OUTLIERS
+
+// The invented ammonia samples (mg/L, 24 weeks) and Rosner's 54 values (NIST/SEMATECH e-Handbook
+// §1.3.5.17), as generate_limits.py holds them (limits.json), each under a header.
+Range limits_column(const char* name, const char* header) {
+    return numbers_with_header(header, reference_file("limits.json")[name]["values"].get<std::vector<double>>());
+}
+
+TEST(ReportSentence, Limits) {
+    const Range ammonia = limits_column("ammonia", "ammonia");
+    expect_sentence(call("limitMean", {ammonia, omitted, keyword("report")}),
+                    "Upper 95% confidence limit of the mean (Student's t): 0.93 (mean 0.81, SD 0.33, n = 24)", "limits",
+                    "ammonia t");
+    expect_sentence(call("limitExceedance", {ammonia, typed(1), keyword("report")}),
+                    "Upper 95% confidence limit of the share above the standard (Clopper–Pearson): 0.34 (standard 1, "
+                    "4 above it, share 0.17, n = 24)",
+                    "limits", "ammonia exceedance 1");
+    expect_sentence(call("limitTolerance", {ammonia, typed(0.9), keyword("report")}),
+                    "Upper tolerance limit for 90% of the population at 95% confidence: 1.42 (mean 0.81, SD 0.33, "
+                    "k = 1.85, n = 24)",
+                    "limits", "ammonia tolerance 0.9");
+    expect_sentence(call("limitPercentile", {ammonia, typed(0.5), keyword("report")}),
+                    "Upper 95% confidence limit of the 50th percentile: 0.83 (50th percentile 0.72, the 8th largest value, "
+                    "distribution-free, n = 24)",
+                    "limits", "ammonia median");
+    expect_sentence(call("limitPrediction", {ammonia, omitted, keyword("report")}),
+                    "Upper prediction limit for the next reading at 95% confidence: 1.39 (mean 0.81, SD 0.33, k = 1.75, "
+                    "n = 24)",
+                    "limits", "ammonia prediction");
+}
+
+TEST(ReportSentence, Outliers) {
+    const Range rosner = limits_column("rosner", "value");
+    expect_sentence(call("checkOutliers", {rosner, omitted, keyword("report")}),
+                    "Generalized ESD test (Rosner 1983), up to 5 values at α = 0.05, n = 54: 3 values stand out (6.01, "
+                    "5.42, 5.34); the test assumes the other values come from a normal distribution; a flagged value is "
+                    "one to check (a transcription slip, a fouled probe), not one to delete.",
+                    "outliers", "rosner generalized-esd");
+    expect_sentence(call("checkOutliers", {rosner, keyword("grubbs"), keyword("report")}),
+                    "Grubbs' test (two-sided), α = 0.05, n = 54: no clear sign of an outlier (G = 3.12 against a "
+                    "critical 3.16); the test assumes the other values come from a normal distribution; a flagged value "
+                    "is one to check (a transcription slip, a fouled probe), not one to delete.",
+                    "outliers", "rosner grubbs");
+}
+
 // ---------------------------------------------------------------- coverage and refusals
 
 // Every function whose wizard text offers `report` is exercised above.
 TEST(ReportSentence, EveryFunctionWithReportIsCovered) {
     const std::set<std::string> covered = {"COMPARE.GROUPS", "COMPARE.PAIRED", "CHECK.NORMAL",       "CHECK.VARIANCE",
                                            "COMPARE.COUNTS", "COMPARE.EXPECTED", "RELATE.CORRELATION", "FIT.LINEAR",
-                                           "ADVISE.TEST"};
+                                           "ADVISE.TEST",    "LIMIT.MEAN",       "LIMIT.EXCEEDANCE",   "LIMIT.TOLERANCE",
+                                           "LIMIT.PERCENTILE", "LIMIT.PREDICTION", "CHECK.OUTLIERS"};
     for (const Function* f : registry()) {
         for (const Argument& a : f->arguments) {
             if (a.keywords && a.name == "output" && a.keywords->contains("report")) {

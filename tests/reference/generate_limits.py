@@ -211,4 +211,5 @@ def main():
     print("wrote", path)
 
 
-main()
+if __name__ == "__main__":
+    main()

@@ -38,6 +38,7 @@ from statsmodels.stats.diagnostic import lilliefors, normal_ad
 
 from generate_categorical import freeman_halton_p
 from generate_compare import k_reference, paired_reference, rank_sum_reference, t_reference
+from generate_limits import AMMONIA, ROSNER, esd_steps
 from generate_normality import royston_shapiro_francia, royston_shapiro_wilk
 from quadrat_sheets.report_numbers import fmt_df, fmt_number, fmt_p
 from quadrat_sheets.report_scenarios import (  # invented field scenarios, one comment each there
@@ -286,6 +287,50 @@ def advisor_cases():
                        "tokens": {"spread p": P(bf.pvalue), "normality p": P(sw_p)}}}
 
 
+def limit_cases():
+    """LIMIT.* on the invented ammonia samples (generate_limits.py): the t limit (SciPy's t
+    quantile), the share above 1 mg/L with its one-sided 95% Clopper–Pearson limit (the upper end of
+    SciPy's two-sided 90% exact interval), and the normal upper tolerance limit for 90% (k from
+    SciPy's noncentral t)."""
+    a = np.asarray(AMMONIA)
+    n, m, s = len(a), float(a.mean()), float(a.std(ddof=1))
+    ucl = m + st.t.ppf(0.95, n - 1) * s / math.sqrt(n)
+    out = {"ammonia t": {"reference": {"limit": ucl, "mean": m, "SD": s, "n": n},
+                         "tokens": {"limit": N(ucl), "mean": N(m), "SD": N(s), "n": DF(n)}}}
+    count = int((a > 1).sum())
+    upper = float(st.binomtest(count, n).proportion_ci(0.90, method="exact").high)
+    out["ammonia exceedance 1"] = {"reference": {"limit": upper, "count": count, "share": count / n},
+                                   "tokens": {"limit": N(upper), "count": DF(count), "share": N(count / n), "n": DF(n)}}
+    k = float(st.nct.ppf(0.95, n - 1, st.norm.ppf(0.9) * math.sqrt(n)) / math.sqrt(n))
+    # The median with its distribution-free limit: the smallest order statistic x(r) with
+    # P(Bin(24, 0.5) ≤ r − 1) ≥ 0.95 (SciPy's binomial), the median as NumPy's (PERCENTILE.INC's) one.
+    r = next(r for r in range(1, n + 1) if st.binom.cdf(r - 1, n, 0.5) >= 0.95)
+    median, sorted_a = float(np.percentile(a, 50)), sorted(AMMONIA)
+    out["ammonia median"] = {"reference": {"limit": sorted_a[r - 1], "rank": r, "median": median},
+                             "tokens": {"limit": N(sorted_a[r - 1]), "median": N(median), "n": DF(n)}}
+    # The next reading: mean + t(0.95, n − 1)·SD·√(1 + 1/n).
+    kp = float(st.t.ppf(0.95, n - 1) * math.sqrt(1 + 1 / n))
+    out["ammonia prediction"] = {"reference": {"limit": m + kp * s, "k-factor": kp},
+                                 "tokens": {"limit": N(m + kp * s), "mean": N(m), "SD": N(s), "k": N(kp)}}
+    out["ammonia tolerance 0.9"] = {"reference": {"limit": m + k * s, "k-factor": k},
+                                    "tokens": {"limit": N(m + k * s), "mean": N(m), "SD": N(s), "k": N(k)}}
+    return out
+
+
+def outlier_cases():
+    """CHECK.OUTLIERS on Rosner's 54 values (NIST/SEMATECH e-Handbook §1.3.5.17, generate_limits.py):
+    the generalized ESD's three outliers with 5 tested (10% of 54), and Grubbs' G = R1 against λ1,
+    both from Rosner's procedure written out in generate_limits.py."""
+    steps = esd_steps(ROSNER, 5, 0.05)
+    flagged = [st_["value"] for st_ in steps[:3]]
+    out = {"rosner generalized-esd": {"reference": {"outliers": flagged},
+                                      "tokens": {"value%d" % (i + 1): N(v) for i, v in enumerate(flagged)}}}
+    first = steps[0]
+    out["rosner grubbs"] = {"reference": {"G": first["R"], "critical": first["lambda"]},
+                            "tokens": {"G": N(first["R"]), "critical": N(first["lambda"])}}
+    return out
+
+
 def main():
     out = {"generator": "tests/reference/generate_reports.py", "scipy": scipy.__version__,
            "statsmodels": statsmodels.__version__}
@@ -297,6 +342,8 @@ def main():
     out["correlation"] = correlation_cases()
     out["linear"] = linear_cases()
     out["advisor"] = advisor_cases()
+    out["limits"] = limit_cases()
+    out["outliers"] = outlier_cases()
     path = os.path.join(HERE, "reports.json")
     with open(path, "w") as fh:
         json.dump(out, fh, indent=1, sort_keys=True, default=float)
