@@ -141,6 +141,7 @@ def main():
     out["ammonia"] = {
         "values": AMMONIA, "mean": m, "sd": s,
         "t_ucl": m + t95 * s / math.sqrt(n),
+        "t_ucl_99": m + t_quantile(0.99, n - 1) * s / math.sqrt(n),
         "chebyshev_ucl": m + math.sqrt(1 / 0.05 - 1) * s / math.sqrt(n),
         "percentile_80": float(np.percentile(x, 80)),  # linear interpolation = PERCENTILE.INC
         "p80_rank": rank_by_binomial(n, 0.8, 0.95),
