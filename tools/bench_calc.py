@@ -241,14 +241,14 @@ def workbook_formulas():
             for o in ("p", "estimate"):
                 f.append('=RELATE.CORRELATION(%s;%s;"%s";"%s")' % (r(x), r(y), m, o))
     xs = "$E$2:$F$%d" % (ROWS + 1)
-    for o in ("r2", "p", "sigma"):
+    for o in ("r-squared", "p", "residual-sd"):
         f.append('=FIT.LINEAR(%s;%s;"%s")' % (r("D"), xs, o))
     f.append("=INDEX(FIT.LINEAR(%s;%s);3;2)" % (r("D"), xs))
-    for o in ("slope", "intercept", "r2", "p"):
+    for o in ("slope", "intercept", "r-squared", "p"):
         f.append('=FIT.LINEAR(%s;%s;"%s")' % (r("D"), r("E"), o))
     for row, column in ((2, 2), (3, 2), (3, 5)):
         f.append("=INDEX(FIT.LOGISTIC(%s;%s);%d;%d)" % (r("I"), xs, row, column))
-    for o in ("p-first", "p-second", "p-interaction"):
+    for o in ("p-factor1", "p-factor2", "p-interaction"):
         f.append('=FIT.FACTORIAL(%s;%s;%s;"%s")' % (r("D"), r("B"), r("C"), o))
     for m in ("chi-square", "g"):
         for o in ("p", "statistic", "effect"):

@@ -177,7 +177,7 @@ def run_set(doc, index, name, certified, ceiling):
         result["fit"] = None
     else:
         header = [cell_content(fit.getCellByPosition(c, 0)) for c in range(3)]
-        if header[1:] != ["estimate", "std. error"]:
+        if header[1:] != ["coefficient", "SE"]:
             result["fit"] = "FIT.LINEAR gave %r in its header row" % (header,)
         else:
             got_b = [cell_content(fit.getCellByPosition(1, 1 + j)) for j in range(k + 1)]

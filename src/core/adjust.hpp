@@ -25,8 +25,9 @@ inline constexpr std::size_t hommel_limit = 5000;
 //   hochberg    step-up, min over j ≥ i of (m − j + 1)·p(j) (Hochberg 1988, Biometrika 75, 800–802)
 //   hommel      closed Simes tests (Hommel 1988, Biometrika 75, 383–386), adjusted p-values by
 //               Wright's algorithm (Wright 1992, Biometrics 48, 1005–1013)
-//   bh          min over j ≥ i of m·p(j)/j (Benjamini & Hochberg 1995, JRSS B 57, 289–300)
-//   by          bh times Σ 1/i, i = 1..m (Benjamini & Yekutieli 2001, Ann. Statist. 29, 1165–1188)
+//   benjamini-hochberg   min over j ≥ i of m·p(j)/j (Benjamini & Hochberg 1995, JRSS B 57, 289–300)
+//   benjamini-yekutieli  benjamini-hochberg times Σ 1/i, i = 1..m (Benjamini & Yekutieli 2001,
+//                        Ann. Statist. 29, 1165–1188)
 std::vector<double> adjust_p(std::span<const double> p, Adjustment method);
 
 }  // namespace quadrat

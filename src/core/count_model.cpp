@@ -427,7 +427,7 @@ CountFit fit_counts(const CountData& data, CountMethod method) {
     out.df = double(k);
     out.lr_p = boost::math::cdf(boost::math::complement(boost::math::chi_squared_distribution<double>(out.df), out.lr_statistic));
     out.aic = -2 * out.log_likelihood + 2 * double(p + (negative_binomial ? 1 : 0));
-    out.pseudo_r2 = 1 - out.log_likelihood / out.null_log_likelihood;
+    out.pseudo_r_squared = 1 - out.log_likelihood / out.null_log_likelihood;
     out.overdispersion = overdispersion;
     out.aggregation_k = negative_binomial ? fit.k : std::numeric_limits<double>::quiet_NaN();
     out.n = double(n);
@@ -494,7 +494,7 @@ Table count_model_table(const CountFit& fit) {
         .add("df", fit.df)
         .add("p", fit.lr_p)
         .add("aic", fit.aic)
-        .add("pseudo-r-squared", fit.pseudo_r2)
+        .add("pseudo-r-squared", fit.pseudo_r_squared)
         .add("n", fit.n)
         .add("n dropped", fit.n_dropped)
         .add("iterations", double(fit.iterations))

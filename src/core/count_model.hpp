@@ -45,7 +45,7 @@ struct CountFit {
     double deviance = 0, null_deviance = 0;    // the negative binomial's both at the fitted k
     double lr_statistic = 0, df = 0, lr_p = 0; // 2(ℓ − ℓ₀), ℓ₀ the intercept-only model (own k)
     double aic = 0;
-    double pseudo_r2 = 0;                      // McFadden: 1 − ℓ/ℓ₀
+    double pseudo_r_squared = 0;               // McFadden: 1 − ℓ/ℓ₀
     double overdispersion = 0;                 // Pearson χ²/df of the Poisson fit
     double aggregation_k = 0;                  // NB2's k; NaN for Poisson
     double n = 0, n_dropped = 0;

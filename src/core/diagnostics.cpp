@@ -64,10 +64,10 @@ Influence influence_measures(const LinearModel& m) {
     Influence inf;
     inf.standardized.assign(n, not_defined);
     inf.studentized.assign(n, not_defined);
-    inf.cooks.assign(n, not_defined);
-    if (m.perfect_fit || !(m.sigma > 0)) return inf;  // σ = 0: no residual is out of scale
+    inf.cook.assign(n, not_defined);
+    if (m.perfect_fit || !(m.residual_sd > 0)) return inf;  // σ = 0: no residual is out of scale
 
-    const double s = m.sigma;
+    const double s = m.residual_sd;
     const double df = m.df_residual;
     const double p = static_cast<double>(m.parameters);
     for (std::size_t i = 0; i < n; ++i) {
@@ -76,7 +76,7 @@ Influence influence_measures(const LinearModel& m) {
         const double e = m.residuals[i];
         const double r = e / (s * std::sqrt(1.0 - h));
         inf.standardized[i] = r;
-        inf.cooks[i] = r * r * h / (p * (1.0 - h));
+        inf.cook[i] = r * r * h / (p * (1.0 - h));
         // Deleting row i: s₍ᵢ₎² = (rss − e²/(1 − h)) / (df − 1) (Belsley, Kuh & Welsch 1980, eq. 2.8).
         if (df > 1) {
             const double deleted = (m.rss - e * e / (1.0 - h)) / (df - 1.0);
@@ -95,7 +95,7 @@ const std::vector<std::string>& point_headers() {
 Table fit_points_table(const LinearModel& m, const RegressionData& data, const std::string& output) {
     const Influence inf = influence_measures(m);
     const std::vector<const std::vector<double>*> columns = {&m.fitted,      &m.residuals, &inf.standardized,
-                                                             &inf.studentized, &m.leverage, &inf.cooks};
+                                                             &inf.studentized, &m.leverage, &inf.cook};
     if (!output.empty()) {
         // The columns above keep the order of the keyword table point_outputs().
         const std::size_t c = point_outputs().index(output, "output");
@@ -140,7 +140,7 @@ ModelChecks check_regression(const LinearModel& m, const RegressionData& data, c
         std::vector<double> squared(n);
         for (std::size_t i = 0; i < n; ++i) squared[i] = m.residuals[i] * m.residuals[i];
         const LinearModel aux = fit_least_squares(squared, data.predictors, data.names, true);
-        c.spread_lm = nn * aux.r2;
+        c.spread_lm = nn * aux.r_squared;
         c.spread_df = static_cast<double>(k);
         const boost::math::chi_squared dist(c.spread_df);
         c.spread_p = boost::math::cdf(boost::math::complement(dist, std::max(0.0, c.spread_lm)));
@@ -216,15 +216,15 @@ ModelChecks check_regression(const LinearModel& m, const RegressionData& data, c
     // beyond the centre of their joint confidence region. 4/n and 2p/n are counted for information.
     const Influence inf = influence_measures(m);
     const double p = static_cast<double>(m.parameters);
-    c.cooks_cut = m.df_residual >= 1 ? boost::math::median(boost::math::fisher_f(p, m.df_residual)) : not_defined;
-    const double cooks_cut = 4.0 / nn;
+    c.cook_cut = m.df_residual >= 1 ? boost::math::median(boost::math::fisher_f(p, m.df_residual)) : not_defined;
+    const double four_over_n = 4.0 / nn;
     const double leverage_cut = 2.0 * p / nn;
-    c.max_cooks = not_defined;
+    c.max_cook = not_defined;
     for (std::size_t i = 0; i < n; ++i) {
-        if (std::isfinite(inf.cooks[i])) {
-            c.max_cooks = std::isfinite(c.max_cooks) ? std::max(c.max_cooks, inf.cooks[i]) : inf.cooks[i];
-            if (inf.cooks[i] > cooks_cut) ++c.cooks_above;
-            if (inf.cooks[i] > c.cooks_cut) ++c.cooks_above_cut;
+        if (std::isfinite(inf.cook[i])) {
+            c.max_cook = std::isfinite(c.max_cook) ? std::max(c.max_cook, inf.cook[i]) : inf.cook[i];
+            if (inf.cook[i] > four_over_n) ++c.cook_above;
+            if (inf.cook[i] > c.cook_cut) ++c.cook_above_cut;
         }
         if (m.leverage[i] > leverage_cut) ++c.high_leverage;
         if (std::isfinite(inf.studentized[i]) && std::fabs(inf.studentized[i]) > 3.0) ++c.outliers;
@@ -255,7 +255,7 @@ Table check_regression_output(const LinearModel& m, const RegressionData& data, 
     }
     if (output == "linearity") return need(c.reset_p, "the linearity check", c.linearity_note);
     if (output == "collinearity") return single(c.max_vif);
-    if (output == "influence") return need(c.max_cooks, "the influence check", "");
+    if (output == "influence") return need(c.max_cook, "the influence check", "");
     if (output == "outliers") return single(static_cast<double>(c.outliers));
 
     // The table. Screening rules, stated in the rule column: p < 0.05 and Durbin–Watson 1.5 to 2.5
@@ -301,12 +301,12 @@ Table check_regression_output(const LinearModel& m, const RegressionData& data, 
                  c.max_vif > 10 ? look : ok});
     const std::string influence_rule =
         "largest Cook's distance; look when above the median of F(" + format_df(static_cast<double>(m.parameters)) + ", " +
-        format_df(m.df_residual) + ") = " + format_number(c.cooks_cut) + " (Cook & Weisberg 1982); for information, " +
-        count_rows(c.cooks_above) + " above 4/n = " + format_number(4.0 / nn) + ", " + count_rows(c.high_leverage) +
+        format_df(m.df_residual) + ") = " + format_number(c.cook_cut) + " (Cook & Weisberg 1982); for information, " +
+        count_rows(c.cook_above) + " above 4/n = " + format_number(4.0 / nn) + ", " + count_rows(c.high_leverage) +
         " with leverage above 2p/n = " + format_number(2.0 * static_cast<double>(m.parameters) / nn);
-    t.push_back({std::string("influence"), number_or_blank(c.max_cooks), std::monostate{}, influence_rule,
-                 !std::isfinite(c.max_cooks) || !std::isfinite(c.cooks_cut) ? CellValue{std::monostate{}}
-                 : c.max_cooks > c.cooks_cut                                  ? CellValue{look}
+    t.push_back({std::string("influence"), number_or_blank(c.max_cook), std::monostate{}, influence_rule,
+                 !std::isfinite(c.max_cook) || !std::isfinite(c.cook_cut) ? CellValue{std::monostate{}}
+                 : c.max_cook > c.cook_cut                                  ? CellValue{look}
                                                                               : CellValue{ok}});
     t.push_back({std::string("outliers"), static_cast<double>(c.outliers), std::monostate{},
                  std::string("rows with |externally studentized residual| > 3; look when any"),

@@ -17,14 +17,14 @@ namespace quadrat {
 struct Influence {
     std::vector<double> standardized;  // internally studentized: e / (s √(1 − h))
     std::vector<double> studentized;   // externally studentized: e / (s₍ᵢ₎ √(1 − h))
-    std::vector<double> cooks;         // Cook's distance: r² h / (p (1 − h))
+    std::vector<double> cook;          // Cook's distance: r² h / (p (1 − h))
 };
 Influence influence_measures(const LinearModel& model);
 
 // The header words of FIT.POINTS' six-column table, in the order of point_outputs().
 const std::vector<std::string>& point_headers();
 
-// FIT.POINTS: `what` empty gives all six columns under a header row (in place of the input's
+// FIT.POINTS: `output` empty gives all six columns under a header row (in place of the input's
 // header row when it has one, else on top); a keyword gives that column alone with exactly the
 // input's rows. Rows not used stay blank.
 Table fit_points_table(const LinearModel& model, const RegressionData& data, const std::string& output);
@@ -41,10 +41,10 @@ struct ModelChecks {
     double reset_f = 0, reset_p = 0, reset_df = 0, reset_df2 = 0;  // RESET, fitted² and fitted³
     std::string linearity_note;
     double max_vif = 0;
-    double max_cooks = 0;
-    double cooks_cut = 0;             // median of F(p, n − p) (Cook & Weisberg 1982)
-    std::size_t cooks_above_cut = 0;  // rows above that median
-    std::size_t cooks_above = 0;      // rows with Cook's distance > 4/n (for information)
+    double max_cook = 0;
+    double cook_cut = 0;              // median of F(p, n − p) (Cook & Weisberg 1982)
+    std::size_t cook_above_cut = 0;   // rows above that median
+    std::size_t cook_above = 0;       // rows with Cook's distance > 4/n (for information)
     std::size_t high_leverage = 0;    // rows with leverage > 2p/n (for information)
     std::size_t outliers = 0;         // rows with |externally studentized residual| > 3
 };

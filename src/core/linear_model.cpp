@@ -329,7 +329,7 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         m.rss = 0.0;
         residual.setZero();
     }
-    m.sigma = std::sqrt(m.rss / m.df_residual);
+    m.residual_sd = std::sqrt(m.rss / m.df_residual);
 
     // (B'B)⁻¹ = G G' with G = P R⁻¹ (B P = Q R).
     const Matrix g = qr.colsPermutation() * Matrix(upper.solve(Matrix::Identity(columns, columns)));
@@ -339,13 +339,13 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         RowVector combination(columns);
         combination(0) = ones;
         for (std::size_t j = 0; j < k; ++j) combination(offset + static_cast<Eigen::Index>(j)) = -centre[j] / scale[j];
-        m.std_error.push_back(m.sigma * std::sqrt(static_cast<double>((combination * g).squaredNorm())));
+        m.std_error.push_back(m.residual_sd * std::sqrt(static_cast<double>((combination * g).squaredNorm())));
         m.vif.push_back(not_defined);
     }
     for (std::size_t j = 0; j < k; ++j) {
         const Eigen::Index jj = offset + static_cast<Eigen::Index>(j);
         const double row_norm2 = static_cast<double>(g.row(jj).squaredNorm());
-        m.std_error.push_back(m.sigma * std::sqrt(row_norm2) / scale[j]);
+        m.std_error.push_back(m.residual_sd * std::sqrt(row_norm2) / scale[j]);
         // VIF_j = (C⁻¹)_jj C_jj for the centred cross-product C: scale-free, and equal to
         // 1/(1 − R²_j) of x_j on the other predictors (Marquardt 1970, Technometrics 12, 591–612).
         // With an intercept the predictor block of (B'B)⁻¹ is C⁻¹ of the exactly centred columns.
@@ -363,9 +363,9 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
         m.p.push_back(two_sided_t_p(t, m.df_residual));
     }
 
-    m.r2 = m.perfect_fit ? 1.0 : std::min(1.0, explained / tss);
+    m.r_squared = m.perfect_fit ? 1.0 : std::min(1.0, explained / tss);
     const double df_total = m.df_residual + m.df_model;
-    m.adj_r2 = m.perfect_fit ? 1.0 : 1.0 - (m.rss / m.df_residual) / (tss / df_total);
+    m.r_squared_adjusted = m.perfect_fit ? 1.0 : 1.0 - (m.rss / m.df_residual) / (tss / df_total);
     if (m.perfect_fit || k == 0) {
         m.f_statistic = not_defined;
         m.f_p = not_defined;
@@ -450,13 +450,13 @@ TestResult model_summary(const LinearModel& m, std::size_t n_dropped, double lev
     TestResult r;
     r.test = m.intercept ? "Linear regression (ordinary least squares)"
                          : "Linear regression through the origin (ordinary least squares)";
-    r.add("r-squared", m.r2);
-    r.add("r-squared-adjusted", m.adj_r2);
+    r.add("r-squared", m.r_squared);
+    r.add("r-squared-adjusted", m.r_squared_adjusted);
     r.add("statistic", m.f_statistic);
     r.add("df", m.df_model);
     r.add("df2", m.df_residual);
     r.add("p", m.f_p);
-    r.add("residual-sd", m.sigma);
+    r.add("residual-sd", m.residual_sd);
     r.add("aic", m.aic);
     r.add("bic", m.bic);
     r.add("n", static_cast<double>(m.n));

@@ -35,11 +35,11 @@ struct LinearModel {
     double df_residual = 0;              // n − parameters (F's second df)
     double rss = 0;                      // residual sum of squares
     double tss = 0;                      // total sum of squares: centred with an intercept, Σy² without
-    double r2 = 0;
-    double adj_r2 = 0;
+    double r_squared = 0;
+    double r_squared_adjusted = 0;
     double f_statistic = 0;              // NaN for a perfect fit
     double f_p = 0;                      // NaN for a perfect fit
-    double sigma = 0;                    // residual standard deviation, √(rss / df_residual)
+    double residual_sd = 0;              // residual standard deviation, √(rss / df_residual)
     double log_likelihood = 0;           // Gaussian, with its constants; NaN for a perfect fit
     double aic = 0;                      // −2 log L + 2 (parameters + 1): σ² counts as a parameter
     double bic = 0;                      // −2 log L + log(n) (parameters + 1)

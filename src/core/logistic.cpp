@@ -341,7 +341,7 @@ LogisticFit fit_logistic(const LogisticData& d) {
     fit.aic = -2 * log_l + 2.0 * double(p);
     // McFadden's pseudo-R² = 1 − log L / log L₀ (McFadden 1974, in Frontiers in Econometrics,
     // 105–142); for 0/1 data, 1 − deviance / null deviance.
-    fit.pseudo_r2 = 1 - log_l / log_l0;
+    fit.pseudo_r_squared = 1 - log_l / log_l0;
     fit.n = double(n);
     fit.n_dropped = double(d.n_dropped);
     fit.iterations = iterations;
@@ -387,7 +387,7 @@ Table logistic_model(const LogisticFit& fit) {
         .add("df", fit.df)
         .add("p", fit.lr_p)
         .add("aic", fit.aic)
-        .add("pseudo-r-squared", fit.pseudo_r2)
+        .add("pseudo-r-squared", fit.pseudo_r_squared)
         .add("n", fit.n)
         .add("n dropped", fit.n_dropped)
         .add("iterations", double(fit.iterations));

@@ -40,7 +40,7 @@ struct LogisticFit {
     std::string event;
     double deviance = 0, null_deviance = 0;
     double lr_statistic = 0, df = 0, lr_p = 0;
-    double aic = 0, pseudo_r2 = 0;
+    double aic = 0, pseudo_r_squared = 0;
     double n = 0, n_dropped = 0;
     int iterations = 0;
     std::vector<FactorTest> factor_tests;  // likelihood-ratio χ² per factor of xs
@@ -52,11 +52,12 @@ struct LogisticFit {
 LogisticFit fit_logistic(const LogisticData& data);
 
 // The outputs of FIT.LOGISTIC.
-// `coefficients`: header row, then term, estimate, std. error, z, p, odds ratio, OR ci-low,
-// OR ci-high (Wald interval at `level`) for the intercept and each predictor.
+// `coefficients`: header row, then variable, coefficient, SE, z, p, odds ratio, ci-low, ci-high
+// (Wald interval of the odds ratio at `level`) for each predictor; the intercept's odds-ratio
+// cells stay blank.
 Table logistic_coefficients(const LogisticFit& fit, double level);
 // `model`: label/value table (model, event, deviance, null deviance, statistic, df, p, aic,
-// pseudo-r2, n, n dropped, iterations, then `<factor>: χ²`, `: df`, `: p` per factor).
+// pseudo-r-squared, n, n dropped, iterations, then `<factor>: χ²`, `: df`, `: p` per factor).
 Table logistic_model(const LogisticFit& fit);
 
 }  // namespace quadrat

@@ -344,7 +344,7 @@ Moments sample_moments(const Deviations& s) {
 }
 }  // namespace
 
-TestResult dagostino(std::span<const double> values) {
+TestResult dagostino_pearson(std::span<const double> values) {
     const Deviations s = prepare(values, 8, no_upper_limit);
     const double n = static_cast<double>(s.n);
     const Moments m = sample_moments(s);
@@ -388,7 +388,7 @@ TestResult normality_test(std::span<const double> values, const std::string& met
     if (m == "shapiro-francia") return shapiro_francia(values);
     if (m == "anderson-darling") return anderson_darling(values);
     if (m == "lilliefors") return lilliefors(values);
-    if (m == "dagostino-pearson") return dagostino(values);
+    if (m == "dagostino-pearson") return dagostino_pearson(values);
     return jarque_bera(values);
 }
 

@@ -31,7 +31,7 @@ TestResult lilliefors(std::span<const double> values);
 
 // D'Agostino's K² omnibus of skewness and kurtosis (n >= 8): D'Agostino, Belanger & D'Agostino
 // (1990) American Statistician 44, 316–321; kurtosis by Anscombe & Glynn (1983) Biometrika 70, 227–234.
-TestResult dagostino(std::span<const double> values);
+TestResult dagostino_pearson(std::span<const double> values);
 
 // Jarque–Bera JB = n/6 (S² + (K − 3)²/4), χ² with 2 df (n >= 8); Jarque & Bera (1987)
 // International Statistical Review 55, 163–172.

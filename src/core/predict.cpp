@@ -17,8 +17,8 @@ Prediction predict_at(const LinearModel& m, std::span<const double> x, double le
     Prediction p;
     p.predicted = m.predicted_at(x);
     const double h = m.leverage_at(x);
-    const double mean_half = t * m.sigma * std::sqrt(h);
-    const double reading_half = t * m.sigma * std::sqrt(1 + h);
+    const double mean_half = t * m.residual_sd * std::sqrt(h);
+    const double reading_half = t * m.residual_sd * std::sqrt(1 + h);
     p.mean_low = p.predicted - mean_half;
     p.mean_high = p.predicted + mean_half;
     p.reading_low = p.predicted - reading_half;

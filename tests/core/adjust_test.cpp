@@ -47,10 +47,10 @@ TEST(AdjustP, PublishedDefinitionsByHand) {
     EXPECT_NEAR(hochberg[1], 0.04, 1e-15);
     EXPECT_NEAR(hochberg[2], 0.04, 1e-15);
     // Benjamini & Hochberg (1995), JRSS B 57, 289–300, step-up m·p(i)/i: (0.03, 0.04, 0.04).
-    const auto bh = adjust_p(p, Adjustment::benjamini_hochberg);
-    EXPECT_NEAR(bh[0], 0.03, 1e-15);
-    EXPECT_NEAR(bh[1], 0.04, 1e-15);
-    EXPECT_NEAR(bh[2], 0.04, 1e-15);
+    const auto benjamini_hochberg = adjust_p(p, Adjustment::benjamini_hochberg);
+    EXPECT_NEAR(benjamini_hochberg[0], 0.03, 1e-15);
+    EXPECT_NEAR(benjamini_hochberg[1], 0.04, 1e-15);
+    EXPECT_NEAR(benjamini_hochberg[2], 0.04, 1e-15);
     // Šidák single step with p = 1e-12, m = 3: 1 − (1 − p)³ = 3e-12 − 3e-24 …; relative 1e-12 needs log1p.
     const auto sidak = adjust_p(std::vector<double>{1e-12, 0.5, 1.0}, Adjustment::sidak);
     EXPECT_NEAR(sidak[0], 3e-12, 1e-23);

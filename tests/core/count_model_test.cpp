@@ -266,7 +266,7 @@ TEST(FitLogistic, WithTrialsAgreesWithStatsmodels) {
     expect_relative(fit.deviance, c["deviance"].get<double>(), 1e-9, "deviance");
     expect_relative(fit.null_deviance, c["null deviance"].get<double>(), 1e-11, "null deviance");
     expect_relative(fit.aic, c["aic"].get<double>(), 1e-11, "aic");
-    expect_relative(fit.pseudo_r2, c["pseudo-r-squared"].get<double>(), 1e-10, "McFadden R²");
+    expect_relative(fit.pseudo_r_squared, c["pseudo-r-squared"].get<double>(), 1e-10, "McFadden R²");
     // With one trial per row the same fit is the 0/1 model: trials of 1 change nothing.
     LogisticData ones = d;
     ones.y = {1, 0, 1, 1, 0, 0, 1, 0};

@@ -51,7 +51,7 @@ TEST(Influence, MatchesStatsmodelsOLSInfluence) {
             // statsmodels OLSInfluence resid_studentized_internal / _external, cooks_distance[0].
             expect_relative(inf.standardized[i], ref["standardized"][i], 1e-9, name + " standardized");
             expect_relative(inf.studentized[i], ref["studentized"][i], 1e-9, name + " studentized");
-            expect_relative(inf.cooks[i], ref["cooks"][i], 1e-9, name + " cooks");
+            expect_relative(inf.cook[i], ref["cook"][i], 1e-9, name + " cook");
         }
     }
 }
@@ -74,13 +74,13 @@ TEST(ModelChecks, MatchStatsmodelsDiagnostics) {
         // statsmodels durbin_watson on the residuals sorted by sampling day (stable: ties keep row order).
         expect_relative(c.durbin_watson, ref["durbin_watson"], 1e-12, name + " DW");
         // scipy.stats.f.median(p, n − p), Cook and Weisberg's cut-off; 1e-9 relative (two quantile codes).
-        expect_relative(c.cooks_cut, ref["cooks_cut"], 1e-9, name + " Cook cut-off");
-        EXPECT_EQ(c.cooks_above_cut, ref["cooks_above_cut"].get<std::size_t>()) << name;
+        expect_relative(c.cook_cut, ref["cook_cut"], 1e-9, name + " Cook cut-off");
+        EXPECT_EQ(c.cook_above_cut, ref["cook_above_cut"].get<std::size_t>()) << name;
         // statsmodels variance_inflation_factor, largest; OLSInfluence Cook's distance, largest.
         expect_relative(c.max_vif, ref["max_vif"], 1e-10, name + " VIF");
-        expect_relative(c.max_cooks, ref["max_cooks"], 1e-9, name + " Cook");
+        expect_relative(c.max_cook, ref["max_cook"], 1e-9, name + " Cook");
         // Counts over the same statsmodels values (generator): Cook > 4/n, leverage > 2p/n, |t| > 3.
-        EXPECT_EQ(c.cooks_above, ref["cooks_above"].get<std::size_t>()) << name;
+        EXPECT_EQ(c.cook_above, ref["cook_above"].get<std::size_t>()) << name;
         EXPECT_EQ(c.high_leverage, ref["high_leverage"].get<std::size_t>()) << name;
         EXPECT_EQ(c.outliers, ref["outliers"].get<std::size_t>()) << name;
     }
@@ -195,7 +195,7 @@ TEST(Influence, UndefinedWhereTheRowFitsItselfOrNoDfIsLeft) {
     // A lone x value has leverage 1 (the row fits itself): its ratios are blank.
     const LinearModel lone = fit_least_squares(std::vector<double>{1, 2, 1.5, 2.5, 9}, {{0, 0, 0, 0, 1}}, {"x"}, true);
     EXPECT_NEAR(lone.leverage[4], 1.0, 1e-12);
-    EXPECT_TRUE(std::isnan(influence_measures(lone).cooks[4]));
+    EXPECT_TRUE(std::isnan(influence_measures(lone).cook[4]));
 }
 
 }  // namespace

@@ -106,8 +106,8 @@ TEST(FitPointsGlue, RowsAlignWithTheSheet) {
     EXPECT_TRUE(std::holds_alternative<std::monostate>(all[7][3]));
     for (std::size_t i = 0; i < s.data_rows.size(); ++i) {
         // statsmodels OLSInfluence (generate_linear.py), 1e-9 relative.
-        const double cooks = ref["cooks"][i];
-        EXPECT_NEAR(std::get<double>(all[s.data_rows[i]][5]), cooks, 1e-9 * cooks);
+        const double cook = ref["cook"][i];
+        EXPECT_NEAR(std::get<double>(all[s.data_rows[i]][5]), cook, 1e-9 * cook);
     }
     // One column: exactly the input's rows, the header row blank.
     const Table leverage = call("fitPoints", {s.y, s.xs, keyword("Leverage")});

@@ -50,13 +50,13 @@ TEST(LinearModel, MatchesStatsmodelsOnBothFieldSets) {
             if (j > 0) expect_relative(m.vif[j], ref["vif"][j - 1], 1e-10, name + " VIF");
         }
         EXPECT_TRUE(std::isnan(m.vif[0]));
-        expect_relative(m.r2, ref["r2"], 1e-12, name + " r2");
-        expect_relative(m.adj_r2, ref["adj_r2"], 1e-12, name + " adj r2");
+        expect_relative(m.r_squared, ref["r_squared"], 1e-12, name + " r-squared");
+        expect_relative(m.r_squared_adjusted, ref["r_squared_adjusted"], 1e-12, name + " r-squared-adjusted");
         expect_relative(m.f_statistic, ref["f"], 1e-10, name + " F");
         expect_relative(m.f_p, ref["f_p"], 1e-8, name + " F p");
         EXPECT_EQ(m.df_model, ref["df"].get<double>());
         EXPECT_EQ(m.df_residual, ref["df2"].get<double>());
-        expect_relative(m.sigma, ref["sigma"], 1e-12, name + " sigma");
+        expect_relative(m.residual_sd, ref["residual_sd"], 1e-12, name + " residual-sd");
         // AIC/BIC: −2 llf + (2 or log n)(parameters + 1), llf from statsmodels (generator).
         expect_relative(m.log_likelihood, ref["log_likelihood"], 1e-12, name + " log-likelihood");
         expect_relative(m.aic, ref["aic"], 1e-12, name + " aic");
@@ -139,8 +139,8 @@ TEST(LinearModel, PerfectFitSaysWhatIsAndIsNotDefined) {
     // Common practice, no source: y = 3 + 0.5x exactly.
     const LinearModel m = fit_least_squares(std::vector<double>{3.5, 4, 4.5, 5, 5.5}, {{1, 2, 3, 4, 5}}, {"x"}, true);
     EXPECT_TRUE(m.perfect_fit);
-    EXPECT_EQ(m.sigma, 0.0);
-    EXPECT_EQ(m.r2, 1.0);
+    EXPECT_EQ(m.residual_sd, 0.0);
+    EXPECT_EQ(m.r_squared, 1.0);
     EXPECT_NEAR(m.estimate[1], 0.5, 1e-15);
     EXPECT_TRUE(std::isnan(m.t[1]));
     EXPECT_TRUE(std::isnan(m.f_p));
@@ -170,7 +170,7 @@ TEST(LinearModel, HundredThousandRowsStayLinearInN) {
     // Uniform noise of width 0.1 has SD 0.1/√12 ≈ 0.0289: estimates within a few SEs (~1e-3).
     EXPECT_NEAR(m.estimate[1], 3.0, 2e-3);
     EXPECT_NEAR(m.estimate[2], -1.0, 2e-3);
-    EXPECT_NEAR(m.sigma, 0.1 / std::sqrt(12.0), 1e-3);
+    EXPECT_NEAR(m.residual_sd, 0.1 / std::sqrt(12.0), 1e-3);
 }
 
 // Numbers whose squares overflow or underflow a double are refused with what to do, not called

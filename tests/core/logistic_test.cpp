@@ -78,7 +78,7 @@ TEST(FitLogistic, AgreesWithStatsmodels) {
         EXPECT_LT(relative_error(fit.lr_statistic, c["statistic"].get<double>()), 1e-10);
         EXPECT_LT(relative_error(fit.lr_p, c["lr_p"].get<double>()), 1e-10);
         EXPECT_LT(relative_error(fit.aic, c["aic"].get<double>()), 1e-10);
-        EXPECT_LT(relative_error(fit.pseudo_r2, c["pseudo_r2"].get<double>()), 1e-10);
+        EXPECT_LT(relative_error(fit.pseudo_r_squared, c["pseudo_r_squared"].get<double>()), 1e-10);
         EXPECT_EQ(fit.df, c["df"].get<double>());
         EXPECT_EQ(fit.n, c["n"].get<double>());
         EXPECT_LT(fit.iterations, 15);

@@ -24,10 +24,10 @@ TEST(FitPredict, StraightLineByHand) {
     const LinearModel m = fit_least_squares(y, {{1, 2, 3, 4, 5}}, {"x"}, true);
     const std::vector<double> x0 = {6};
     const Prediction p = predict_at(m, x0, 0.95);
-    const double t = 3.182446305284263, sigma = std::sqrt(1.9 / 3);
+    const double t = 3.182446305284263, residual_sd = std::sqrt(1.9 / 3);
     expect_relative(p.predicted, 6.7, 1e-12, "ŷ");
-    expect_relative(p.mean_high - p.predicted, t * sigma * std::sqrt(1.1), 1e-12, "mean half-width");
-    expect_relative(p.reading_high - p.predicted, t * sigma * std::sqrt(2.1), 1e-12, "reading half-width");
+    expect_relative(p.mean_high - p.predicted, t * residual_sd * std::sqrt(1.1), 1e-12, "mean half-width");
+    expect_relative(p.reading_high - p.predicted, t * residual_sd * std::sqrt(2.1), 1e-12, "reading half-width");
     // At a data row the new-row leverage equals the fitted one, and ŷ the fitted value.
     const std::vector<double> x3 = {3};
     expect_relative(m.leverage_at(x3), m.leverage[2], 1e-13, "leverage at x = 3");

@@ -172,9 +172,9 @@ TEST(PublishedChecks, LillieforsPValueAtStephensPoints) {
 // 0.001–0.002) and 0.03 for kurtosis, where Anscombe–Glynn is known to run low: measured z = 1.639
 // at n = 50 and 1.625 at n = 100 for the 5% points (the Monte Carlo in the generator confirms the
 // tabled b2 points: 3.98 and 3.77). scipy.stats normaltest on the same samples: 1e-9 relative.
-TEST(PublishedChecks, DagostinoAtPearsonHartleyPoints) {
-    for (const auto& c : published().at("dagostino")) {
-        const TestResult r = dagostino(c.at("values").get<std::vector<double>>());
+TEST(PublishedChecks, DagostinoPearsonAtPearsonHartleyPoints) {
+    for (const auto& c : published().at("dagostino_pearson")) {
+        const TestResult r = dagostino_pearson(c.at("values").get<std::vector<double>>());
         const std::string part = c["part"], level = c["level"], point = c["point"];
         const double z_level = level == "0.05" ? 1.6449 : 2.3263;
         const double tolerance = part == "skewness" ? 0.005 : 0.03;
@@ -319,12 +319,12 @@ TEST(PublishedChecks, ModelChecksWorkedByHand) {
     expect_relative(c.durbin_watson, 3.6, 1e-12, "Durbin–Watson");
     const ModelChecks signs_first = check_regression(m, d, Range::column({1, 6, 2, 7, 3, 8, 4, 9, 5, 10}));
     expect_relative(signs_first.durbin_watson, 0.4, 1e-12, "Durbin–Watson, +1 rows first");
-    expect_relative(c.cooks_cut, 4 * (std::pow(2.0, 0.25) - 1), 1e-10, "median of F(2, 8)");
-    EXPECT_EQ(c.cooks_above_cut, 0u);
+    expect_relative(c.cook_cut, 4 * (std::pow(2.0, 0.25) - 1), 1e-10, "median of F(2, 8)");
+    EXPECT_EQ(c.cook_above_cut, 0u);
     const std::vector<double> leverage = {0.3, 0.3, 0.15, 0.15, 0.1, 0.1, 0.15, 0.15, 0.3, 0.3};
     for (std::size_t i = 0; i < 10; ++i) expect_relative(m.leverage[i], leverage[i], 1e-12, "leverage " + std::to_string(i));
-    expect_relative(c.max_cooks, 0.3 / (2 * 1.25 * 0.49), 1e-12, "largest Cook's distance");
-    EXPECT_EQ(c.cooks_above, 0u);
+    expect_relative(c.max_cook, 0.3 / (2 * 1.25 * 0.49), 1e-12, "largest Cook's distance");
+    EXPECT_EQ(c.cook_above, 0u);
     EXPECT_EQ(c.high_leverage, 0u);
     expect_relative(c.max_vif, 1.0, 1e-12, "VIF of one predictor");
 }

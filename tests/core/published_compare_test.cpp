@@ -241,7 +241,7 @@ TEST(PublishedCompare, ZeaMaysSignedRankAndSignCountedByHand) {
 // at level 0.05 their step-up procedure rejects the four smallest, while the Bonferroni procedure and
 // Hochberg's (1988) reject only the three smallest. Counted as adjusted p ≤ 0.05.
 TEST(PublishedCompare, BenjaminiHochbergFifteenPValues) {
-    const auto& c = published()["bh_1995"];
+    const auto& c = published()["benjamini_hochberg_1995"];
     const auto p = c["p"].get<std::vector<double>>();
     auto rejected = [&](Adjustment method) {
         int count = 0;
@@ -407,8 +407,8 @@ TEST(PublishedCompare, DunnAtTheNormalTablePoint) {
 // Then Student's t table, 8 df, two-sided 5%: 2.306 (Fisher & Yates, Statistical Tables, Table III;
 // from memory; SciPy 2.30600). A pair built with t = −2.306 (generator): unadjusted p = 0.05 within
 // 2 × the t(8) density at 2.306 × 0.0005 (3.9e-5).
-TEST(PublishedCompare, TPairsByHandAndAtTheTTablePoint) {
-    const auto& c = built()["t_pairs_by_hand"];
+TEST(PublishedCompare, PairwiseTByHandAndAtTheTTablePoint) {
+    const auto& c = built()["pairwise_t_by_hand"];
     const PosthocResult r = compare_posthoc(sheet_groups_of(c), PosthocMethod::pairwise_t, std::nullopt, Transform::none, 0.95);
     ASSERT_EQ(r.pairs.size(), 3u);
     const double hand[] = {-2, -4, -2};
@@ -417,7 +417,7 @@ TEST(PublishedCompare, TPairsByHandAndAtTheTTablePoint) {
         expect_relative(r.pairs[i].p, c["scipy"][i]["p"].get<double>(), 1e-12, "p, scipy");
         expect_relative(r.pairs[i].adjusted_p, c["scipy"][i]["statsmodels_holm"].get<double>(), 1e-12, "Holm, statsmodels");
     }
-    const auto& t = built()["t_pairs_table_point"];
+    const auto& t = built()["pairwise_t_table_point"];
     const PosthocResult at = compare_posthoc(sheet_groups_of(t), PosthocMethod::pairwise_t, std::nullopt, Transform::none, 0.95);
     expect_relative(at.pairs.at(0).statistic, -2.306, 1e-12, "t at the table point");
     EXPECT_NEAR(at.pairs[0].p, 0.05, 2 * boost::math::pdf(boost::math::students_t(8), 2.306) * 0.0005);
@@ -435,8 +435,8 @@ TEST(PublishedCompare, TPairsByHandAndAtTheTTablePoint) {
 // it by enumerating the 252 arrangements): at U₁ = 2 the exact p is 8/252 = 2/63 ≤ 0.05, at U₁ = 3
 // it is 14/252 = 1/18 > 0.05. scipy.stats.mannwhitneyu(method='exact') gives the same U and p.
 // Tolerance 1e-13 relative: sums of a few hundred probabilities.
-TEST(PublishedCompare, RankPairsCountedByHandAndAtTheMannWhitneyTablePoint) {
-    const auto& c = built()["rank_pairs_by_hand"];
+TEST(PublishedCompare, PairwiseRanksCountedByHandAndAtTheMannWhitneyTablePoint) {
+    const auto& c = built()["pairwise_ranks_by_hand"];
     const PosthocResult r = compare_posthoc(sheet_groups_of(c), PosthocMethod::pairwise_ranks, std::nullopt, Transform::none, 0.95);
     ASSERT_EQ(r.pairs.size(), 3u);
     const double hand_u[] = {9, 0, 0};
@@ -449,7 +449,7 @@ TEST(PublishedCompare, RankPairsCountedByHandAndAtTheMannWhitneyTablePoint) {
     }
     const double table_p[] = {2.0 / 63.0, 1.0 / 18.0};
     for (std::size_t u = 2; u <= 3; ++u) {
-        const auto& t = built()["rank_pairs_table_point"][u - 2];
+        const auto& t = built()["pairwise_ranks_table_point"][u - 2];
         const PosthocResult at = compare_posthoc(sheet_groups_of(t), PosthocMethod::pairwise_ranks, std::nullopt, Transform::none, 0.95);
         EXPECT_EQ(at.pairs.at(0).statistic, static_cast<double>(u));
         expect_relative(at.pairs[0].p, table_p[u - 2], 1e-13, "p at U = " + std::to_string(u));
@@ -510,7 +510,7 @@ TEST(PublishedCompare, HodgesLehmannPseudoMedianAtTheSignedRankTablePoint) {
 }
 
 // ---------------------------------------------------------------------------------------------
-// ADJUST.P holm, hommel, by, sidak, worked by hand on p = 0.04, 0.02, 0.10, 0.03 (m = 4; sorted
+// ADJUST.P holm, hommel, benjamini-yekutieli, sidak, worked by hand on p = 0.04, 0.02, 0.10, 0.03 (m = 4; sorted
 // 0.02, 0.03, 0.04, 0.10), each from its definition:
 //   Holm (1979, Scand. J. Statist. 6, 65–70), step-down running maximum of (m − j + 1)·p₍ⱼ₎:
 //     0.08, 0.09, max(0.09, 0.08), 0.10 → 0.09, 0.08, 0.10, 0.09.

@@ -55,7 +55,7 @@ TEST(PublishedModels, AnscombeQuartetCorrelation) {
         SCOPED_TRACE(name);
         const TestResult r = pearson_correlation(numbers(c["x"]), numbers(c["y"]), 0.95);
         const double rho = r.number("estimate");
-        if (name == "I" || name == "IV") expect_printed(rho * rho, c["r2"].get<double>(), 0.667, 0.0005, "r²");
+        if (name == "I" || name == "IV") expect_printed(rho * rho, c["r_squared"].get<double>(), 0.667, 0.0005, "r²");
         expect_relative(rho, c["r"].get<double>(), 1e-12, "r");
         expect_relative(r.number("p"), c["p"].get<double>(), 1e-10, "p");
         expect_relative(r.number("ci-low"), c["ci_low"].get<double>(), 1e-12, "ci-low");

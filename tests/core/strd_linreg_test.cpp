@@ -24,7 +24,7 @@ using namespace test_support;
 
 struct StrdSet {
     std::vector<double> estimate, sd;  // certified B0.. and their standard deviations
-    double residual_sd = 0, r2 = 0;
+    double residual_sd = 0, r_squared = 0;
     std::vector<std::vector<double>> rows;  // data: y then x columns
 };
 
@@ -37,17 +37,17 @@ StrdSet read_linreg(const std::string& name) {
         s.estimate.push_back(parameter[0]);
         s.sd.push_back(parameter[1]);
     }
-    const auto residual_sd = file.certified("Standard Deviation"), r2 = file.certified("R-Squared");
-    EXPECT_TRUE(residual_sd.size() == 1 && r2.size() == 1) << name << ": certified values not found";
+    const auto residual_sd = file.certified("Standard Deviation"), r_squared = file.certified("R-Squared");
+    EXPECT_TRUE(residual_sd.size() == 1 && r_squared.size() == 1) << name << ": certified values not found";
     if (!residual_sd.empty()) s.residual_sd = residual_sd[0];
-    if (!r2.empty()) s.r2 = r2[0];
+    if (!r_squared.empty()) s.r_squared = r_squared[0];
     s.rows = std::move(file.rows);
     return s;
 }
 
 struct Ceiling {
     const char* name;
-    double coefficients, sds, residual_sd, r2;  // README table: binary64 ceilings
+    double coefficients, sds, residual_sd, r_squared;  // README table: binary64 ceilings
 };
 
 TEST(StrdLinearRegression, AllElevenSetsReachTheirDigits) {
@@ -59,7 +59,7 @@ TEST(StrdLinearRegression, AllElevenSetsReachTheirDigits) {
         {"Wampler4", 15.0, 14.5, 14.8, 15.0}, {"Wampler5", 15.0, 14.5, 14.8, 15.0}};
     // Filip with its powers built in binary64 (see the top of this file).
     const Ceiling filip_as_built = {"Filip", 7.90, 8.65, 8.47, 10.65};
-    std::printf("\n%-9s  %-14s  %-14s  %-14s  %-14s\n", "set", "coef (ceil)", "SD (ceil)", "resid SD (ceil)", "R2 (ceil)");
+    std::printf("\n%-9s  %-14s  %-14s  %-14s  %-14s\n", "set", "coef (ceil)", "SD (ceil)", "resid SD (ceil)", "R² (ceil)");
     for (const auto& c : sets) {
         const std::string name = c.name;
         const StrdSet s = read_linreg(name);
@@ -98,16 +98,16 @@ TEST(StrdLinearRegression, AllElevenSetsReachTheirDigits) {
             worst_estimate = std::min(worst_estimate, lre(m.estimate[j], s.estimate[j]));
             worst_sd = std::min(worst_sd, lre(m.std_error[j], s.sd[j]));
         }
-        const double sd_lre = lre(m.sigma, s.residual_sd);
-        const double r2_lre = lre(m.r2, s.r2);
+        const double sd_lre = lre(m.residual_sd, s.residual_sd);
+        const double r_squared_lre = lre(m.r_squared, s.r_squared);
         std::printf("%-9s  %5.1f (%4.1f)    %5.1f (%4.1f)    %5.1f (%4.1f)    %5.1f (%4.1f)\n", c.name, worst_estimate,
-                    c.coefficients, worst_sd, c.sds, sd_lre, c.residual_sd, r2_lre, c.r2);
+                    c.coefficients, worst_sd, c.sds, sd_lre, c.residual_sd, r_squared_lre, c.r_squared);
 
         const Ceiling& ceiling = name == "Filip" ? filip_as_built : c;
         EXPECT_GE(worst_estimate, ceiling.coefficients - 0.3) << name << " coefficients";
         EXPECT_GE(worst_sd, ceiling.sds - 0.3) << name << " standard deviations";
         EXPECT_GE(sd_lre, ceiling.residual_sd - 0.3) << name << " residual SD";
-        EXPECT_GE(r2_lre, ceiling.r2 - 0.3) << name << " R²";
+        EXPECT_GE(r_squared_lre, ceiling.r_squared - 0.3) << name << " R²";
     }
 }
 

@@ -135,7 +135,7 @@ for j, term in enumerate(["intercept", "depth"]):
 lg.rows("D25", coef)
 model = [["quantity", "value"], ["model", "Logistic regression (logit link, maximum likelihood)"], ["event", "1"],
          ["deviance", mussel["deviance"]], ["null deviance", mussel["null_deviance"]], ["statistic", mussel["statistic"]],
-         ["df", mussel["df"]], ["p", mussel["lr_p"]], ["aic", mussel["aic"]], ["pseudo-r-squared", mussel["pseudo_r2"]],
+         ["df", mussel["df"]], ["p", mussel["lr_p"]], ["aic", mussel["aic"]], ["pseudo-r-squared", mussel["pseudo_r_squared"]],
          ["n", mussel["n"]], ["n dropped", 0], ["iterations", "=[$logistic.E18]"]]
 lg.rows("D30", model)
 checks_rows += [

@@ -64,17 +64,17 @@ check("stream.E1:L4", "block expected.A1:H4", TOL_P, SRC_SM + "; p and limits at
 # Model table (array 13 × 2).
 sheet.formula("E7", 'FIT.LINEAR(%s;%s;"model")' % (Y, XS), array=(13, 2))
 model = [["quantity", "value"], ["model", "Linear regression (ordinary least squares)"],
-         ["r-squared", ref["r2"]], ["r-squared-adjusted", ref["adj_r2"]], ["statistic", ref["f"]], ["df", ref["df"]],
-         ["df2", ref["df2"]], ["p", ref["f_p"]], ["residual-sd", ref["sigma"]], ["aic", ref["aic"]],
+         ["r-squared", ref["r_squared"]], ["r-squared-adjusted", ref["r_squared_adjusted"]], ["statistic", ref["f"]], ["df", ref["df"]],
+         ["df2", ref["df2"]], ["p", ref["f_p"]], ["residual-sd", ref["residual_sd"]], ["aic", ref["aic"]],
          ["bic", ref["bic"]], ["n", 40], ["n dropped", 2]]
 expected.block("A7", model)
 check("stream.E7:F19", "block expected.A7:B19", TOL_P,
       SRC_SM + "; AIC/BIC from its llf with σ² counted as a parameter; n and n dropped by count")
 
 sheet.formula("E21", 'FIT.LINEAR(%s;%s;"r-squared")' % (Y, XS))
-check("stream.E21", ref["r2"], TOL_EST, SRC_SM)
+check("stream.E21", ref["r_squared"], TOL_EST, SRC_SM)
 sheet.formula("E22", 'FIT.LINEAR([.A:.A];[.B:.C];"residual-sd")')
-check("stream.E22", ref["sigma"], TOL_EST, SRC_SM + "; whole-column references")
+check("stream.E22", ref["residual_sd"], TOL_EST, SRC_SM + "; whole-column references")
 sheet.formula("E23", 'FIT.LINEAR(%s;%s;"slope")' % (Y, XS))
 check("stream.E23", "output 'slope' needs exactly one predictor (xs has 2 columns); "
       "use output 'coefficients' for the whole table", None, SRC_TEXT)
@@ -88,7 +88,7 @@ expected.row("D21", ["fitted value", "residual", "standardized residual", "stude
                      "Cook's distance"])
 for i, r in enumerate(data_rows):
     expected.row("D%d" % (20 + r), [ref["fitted"][i], ref["residual"][i], ref["standardized"][i],
-                                    ref["studentized"][i], ref["leverage"][i], ref["cooks"][i]])
+                                    ref["studentized"][i], ref["leverage"][i], ref["cook"][i]])
 check("stream.N1:S%d" % last, "block expected.D21:I%d" % (20 + last), 1e-8,
       SRC_SM + " OLSInfluence; residuals near 0 limit the relative tolerance to 1e-8; dropped rows blank")
 sheet.formula("U1", 'FIT.POINTS(%s;%s;"studentized")' % (Y, XS), array=(last, 1))
@@ -105,7 +105,7 @@ for address, output, value, tol, source in [
          "distances); rows in no particular order cannot be judged", None, "FUNCTIONS.md: no order, no Durbin–Watson"),
         ("E29", "linearity", c["reset_p"], TOL_P, SRC_SM + " linear_reset(power=3, fitted, F)"),
         ("E30", "collinearity", c["max_vif"], TOL_EST, SRC_SM + " variance_inflation_factor"),
-        ("E31", "influence", c["max_cooks"], TOL_EST, SRC_SM + " OLSInfluence.cooks_distance"),
+        ("E31", "influence", c["max_cook"], TOL_EST, SRC_SM + " OLSInfluence.cooks_distance"),
         ("E32", "outliers", c["outliers"], None, SRC_SM + " OLSInfluence: rows with |t| > 3, a count"),
         ("E33", "normality", c["shapiro_p"], 1e-3, SRC_SP + " shapiro computes in single precision: 1e-3")]:
     sheet.formula(address, 'CHECK.REGRESSION(%s;%s;"%s")' % (Y, XS, output))
@@ -134,7 +134,7 @@ check("marsh.D3", mref["f_p"], TOL_P, SRC_SM)
 msheet.formula("D4", 'FIT.LINEAR(%s;%s;"report")' % (MY, MX))
 lo, hi = mref["ci"]["0.95"][1]
 report = "Linear regression (ordinary least squares): R² = %s, F(1, %d) = %s, %s, n = %d; slope %s (95%% CI %s to %s)" % (
-    fmt_number(mref["r2"]), n - 2, fmt_number(mref["f"]), fmt_p(mref["f_p"]), n,
+    fmt_number(mref["r_squared"]), n - 2, fmt_number(mref["f"]), fmt_p(mref["f_p"]), n,
     fmt_number(mref["estimate"][1]), fmt_number(lo), fmt_number(hi))
 check("marsh.D4", report, None, SRC_SM + " numbers, formatted by the catalogue's report rules; exact")
 msheet.formula("D5", "ROWS(FIT.POINTS(%s;%s))" % (MY, MX))

@@ -162,7 +162,7 @@ def logistic_case(y, xs, names, level=0.95):
     # statsmodels fits the null model by a second optimisation (llnull, converged only to its
     # default tolerance, about 1e-10 relative); the intercept-only maximum has the closed form
     # -2 sum(y log ybar + (1 - y) log(1 - ybar)), used here for the null deviance, the LR test
-    # and McFadden's pseudo-R2.
+    # and McFadden's pseudo-R².
     yy = np.asarray(y, float)
     ybar = yy.mean()
     null_dev = -2 * np.sum(yy * np.log(ybar) + (1 - yy) * np.log(1 - ybar))
@@ -174,7 +174,7 @@ def logistic_case(y, xs, names, level=0.95):
         "deviance": fnum(dev), "null_deviance": fnum(null_dev),
         "statistic": fnum(null_dev - dev), "df": fnum(res.df_model),
         "lr_p": fnum(st.chi2.sf(null_dev - dev, res.df_model)),
-        "aic": fnum(res.aic), "pseudo_r2": fnum(1 - dev / null_dev), "n": int(res.nobs),
+        "aic": fnum(res.aic), "pseudo_r_squared": fnum(1 - dev / null_dev), "n": int(res.nobs),
         "statsmodels_llnull_deviance": fnum(-2 * res.llnull),
     }
 
@@ -277,11 +277,11 @@ def type2_by_projection(y, a, b):
 
     full, rf = fit(A, B, AB)
     add, ra = fit(A, B)
-    oa, r1 = fit(A)
-    ob, r2 = fit(B)
+    oa, rank_a = fit(A)
+    ob, rank_b = fit(B)
     res_ss, res_df = float(np.sum((y - full) ** 2)), len(y) - rf
     rows = []
-    for big, small, dfb, dfs in [(add, ob, ra, r2), (add, oa, ra, r1), (full, add, rf, ra)]:
+    for big, small, dfb, dfs in [(add, ob, ra, rank_b), (add, oa, ra, rank_a), (full, add, rf, ra)]:
         ss, dfe = float(np.sum((big - small) ** 2)), dfb - dfs
         F = ss / dfe / (res_ss / res_df)
         rows.append({"ss": ss, "df": float(dfe), "f": F, "p": fnum(st.f.sf(F, dfe, res_df)),

@@ -51,13 +51,13 @@ def regression_reference(y, xs, order, levels=(0.95, 0.90)):
         'p': res.pvalues.tolist(),
         'ci': {str(level): res.conf_int(alpha=1 - level).tolist() for level in levels},
         'vif': [variance_inflation_factor(X, j) for j in range(1, p)],
-        'r2': float(res.rsquared),
-        'adj_r2': float(res.rsquared_adj),
+        'r_squared': float(res.rsquared),
+        'r_squared_adjusted': float(res.rsquared_adj),
         'f': float(res.fvalue),
         'f_p': float(res.f_pvalue),
         'df': float(res.df_model),
         'df2': float(res.df_resid),
-        'sigma': float(math.sqrt(res.scale)),
+        'residual_sd': float(math.sqrt(res.scale)),
         'log_likelihood': llf,
         'aic': -2 * llf + 2 * (p + 1),
         'bic': -2 * llf + math.log(n) * (p + 1),
@@ -72,7 +72,7 @@ def regression_reference(y, xs, order, levels=(0.95, 0.90)):
     out['leverage'] = infl.hat_matrix_diag.tolist()
     out['standardized'] = infl.resid_studentized_internal.tolist()
     out['studentized'] = infl.resid_studentized_external.tolist()
-    out['cooks'] = infl.cooks_distance[0].tolist()
+    out['cook'] = infl.cooks_distance[0].tolist()
     lm, lm_p, _, _ = het_breuschpagan(res.resid, X, robust=True)
     reset = linear_reset(res, power=3, test_type='fitted', use_f=True)
     w, w_p = st.shapiro(res.resid)
@@ -85,10 +85,10 @@ def regression_reference(y, xs, order, levels=(0.95, 0.90)):
         'shapiro_w': float(w),
         'shapiro_p': float(w_p),
         'max_vif': max(out['vif']),
-        'max_cooks': float(np.max(infl.cooks_distance[0])),
-        'cooks_above': int(np.sum(infl.cooks_distance[0] > 4 / n)),
-        'cooks_cut': float(st.f.median(p, n - p)),
-        'cooks_above_cut': int(np.sum(infl.cooks_distance[0] > st.f.median(p, n - p))),
+        'max_cook': float(np.max(infl.cooks_distance[0])),
+        'cook_above': int(np.sum(infl.cooks_distance[0] > 4 / n)),
+        'cook_cut': float(st.f.median(p, n - p)),
+        'cook_above_cut': int(np.sum(infl.cooks_distance[0] > st.f.median(p, n - p))),
         'high_leverage': int(np.sum(infl.hat_matrix_diag > 2 * p / n)),
         'outliers': int(np.sum(np.abs(infl.resid_studentized_external) > 3)),
     }

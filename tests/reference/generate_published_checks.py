@@ -20,7 +20,7 @@ Cases:
 - lilliefors: samples (n = 20, 50, 100) built so that Stephens' modified statistic
   D* = D(√n − 0.01 + 0.85/√n) equals each point of his table for case 3, and the true upper tail at
   each point by a seeded Monte Carlo of 400,000 normal samples (the table is an approximation).
-- dagostino: samples whose √b1 sits at the Pearson–Hartley percentage points while the kurtosis
+- dagostino-pearson: samples whose √b1 sits at the Pearson–Hartley percentage points while the kurtosis
   part of K² is zero, and symmetric samples whose b2 sits at the upper b2 points; scipy.stats
   normaltest gives K² and p; a seeded Monte Carlo confirms each quoted table value roughly.
 - bartlett on Montgomery's etch-rate data (read from published_examples.json); scipy.stats.bartlett.
@@ -180,7 +180,7 @@ def skewness_and_kurtosis(x):
     return (d**3).mean(1) / m2**1.5, (d**4).mean(1) / m2**2
 
 
-def dagostino_cases():
+def dagostino_pearson_cases():
     # Pearson, E. S. & Hartley, H. O. (1966), Biometrika Tables for Statisticians I, 3rd ed.,
     # Table 34B (percentage points of √b1) and 34C (of b2), from memory. Both tables come from
     # Pearson curves fitted to the moments, so they are approximations themselves; a seeded Monte
@@ -320,7 +320,7 @@ def main():
         "jarque_bera": jarque_bera_case(),
         "f_ratio": f_ratio_case(),
         "lilliefors": lilliefors_cases(),
-        "dagostino": dagostino_cases(),
+        "dagostino_pearson": dagostino_pearson_cases(),
         "bartlett_etch": bartlett_etch(),
         "variance_points": variance_points(),
         "fligner_by_hand": fligner_by_hand(),

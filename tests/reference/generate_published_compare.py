@@ -244,7 +244,7 @@ if OUT["dunn_table_point"]["formula"][0]["z_squared"] != frac(Fraction(196, 100)
 # Pairwise Welch t (Welch 1947; Satterthwaite 1946): scipy.stats.ttest_ind(equal_var=False) per pair,
 # then statsmodels' Holm over the pairs.
 
-def t_pairs_reference(values):
+def pairwise_t_reference(values):
     rows = []
     for i, j in combinations(range(len(values)), 2):
         r = st.ttest_ind(values[i], values[j], equal_var=False)
@@ -254,12 +254,12 @@ def t_pairs_reference(values):
     return rows
 
 
-OUT["t_pairs_by_hand"] = dict(BY_HAND, scipy=t_pairs_reference(BY_HAND["values"]))
+OUT["pairwise_t_by_hand"] = dict(BY_HAND, scipy=pairwise_t_reference(BY_HAND["values"]))
 # Built: s² = 2.5 in groups of 5, so the standard error √(2s²/n) is 1 and t is the difference: −2.306.
 built = [[10 + s for s in SPREAD_2_5], [10 + 2.306 + s for s in SPREAD_2_5], [20 + s for s in SPREAD_2_5]]
-OUT["t_pairs_table_point"] = {"names": ["a", "b", "c"], "values": built, "point": 2.306,
-                              "scipy": t_pairs_reference(built)}
-if abs(OUT["t_pairs_table_point"]["scipy"][0]["t"] / -2.306 - 1) > 1e-12:
+OUT["pairwise_t_table_point"] = {"names": ["a", "b", "c"], "values": built, "point": 2.306,
+                              "scipy": pairwise_t_reference(built)}
+if abs(OUT["pairwise_t_table_point"]["scipy"][0]["t"] / -2.306 - 1) > 1e-12:
     refuse("the built t pair does not have t = −2.306")
 
 
@@ -267,7 +267,7 @@ if abs(OUT["t_pairs_table_point"]["scipy"][0]["t"] / -2.306 - 1) > 1e-12:
 # Pairwise Wilcoxon–Mann–Whitney, each pair ranked on its own: U₁ = R₁ − n₁(n₁+1)/2 and the exact
 # two-sided p counted over the C(n₁+n₂, n₁) arrangements; scipy.stats.mannwhitneyu(method='exact').
 
-def rank_pairs_reference(values):
+def pairwise_ranks_reference(values):
     rows = []
     for i, j in combinations(range(len(values)), 2):
         x, y = values[i], values[j]
@@ -281,15 +281,15 @@ def rank_pairs_reference(values):
 # Fully separated groups of three, the middle one first: U₁ = 9 for (middle, low), 0 for the others,
 # and each exact p = 2/C(6, 3) = 0.1.
 SEPARATED = {"names": ["middle", "low", "high"], "values": [[4, 5, 6], [1, 2, 3], [7, 8, 9]]}
-OUT["rank_pairs_by_hand"] = dict(SEPARATED, exact=rank_pairs_reference(SEPARATED["values"]))
-OUT["rank_pairs_by_hand"]["statsmodels_holm"] = flt(multipletests([0.1, 0.1, 0.1], method="holm")[1])
+OUT["pairwise_ranks_by_hand"] = dict(SEPARATED, exact=pairwise_ranks_reference(SEPARATED["values"]))
+OUT["pairwise_ranks_by_hand"]["statsmodels_holm"] = flt(multipletests([0.1, 0.1, 0.1], method="holm")[1])
 # At the table point n₁ = n₂ = 5: U₁ = 2 (first group ranks 1, 2, 3, 5, 6) and U₁ = 3 (1, 2, 3, 5, 7).
-OUT["rank_pairs_table_point"] = [
+OUT["pairwise_ranks_table_point"] = [
     {"names": ["a", "b"], "values": [[1, 2, 3, 5, 6], [4, 7, 8, 9, 10]]},
     {"names": ["a", "b"], "values": [[1, 2, 3, 5, 7], [4, 6, 8, 9, 10]]},
 ]
-for case in OUT["rank_pairs_table_point"]:
-    case["exact"] = rank_pairs_reference(case["values"])
+for case in OUT["pairwise_ranks_table_point"]:
+    case["exact"] = pairwise_ranks_reference(case["values"])
 
 
 # ----------------------------------------------------------------------------------------------
@@ -349,7 +349,7 @@ def hommel(p):
     return out
 
 
-def by(p):
+def benjamini_yekutieli(p):
     m, run, out = len(p), Fraction(1), [None] * len(p)
     c = sum(Fraction(1, i) for i in range(1, m + 1))
     order = sorted(range(m), key=lambda i: p[i])
@@ -364,7 +364,7 @@ def sidak(p):
 
 
 OUT["adjust"] = {"p": flt(P4)}
-for key, exact, theirs in [("holm", holm, "holm"), ("hommel", hommel, "hommel"), ("benjamini-yekutieli", by, "fdr_by"),
+for key, exact, theirs in [("holm", holm, "holm"), ("hommel", hommel, "hommel"), ("benjamini-yekutieli", benjamini_yekutieli, "fdr_by"),
                            ("sidak", sidak, "sidak")]:
     values = exact(P4)
     library = multipletests(flt(P4), alpha=0.05, method=theirs)[1]

@@ -139,13 +139,13 @@ OUT["zea_mays"] = {
 # ----------------------------------------------------------------------------------------------
 # ADJUST.P: Benjamini & Hochberg (1995), JRSS B 57, 289–300, §4, the 15 p-values of their example.
 
-BH_1995 = [0.0001, 0.0004, 0.0019, 0.0095, 0.0201, 0.0278, 0.0298, 0.0344, 0.0459,
+BENJAMINI_HOCHBERG_1995 = [0.0001, 0.0004, 0.0019, 0.0095, 0.0201, 0.0278, 0.0298, 0.0344, 0.0459,
            0.3240, 0.4262, 0.5719, 0.6528, 0.7590, 1.000]
-OUT["bh_1995"] = {"p": BH_1995}
+OUT["benjamini_hochberg_1995"] = {"p": BENJAMINI_HOCHBERG_1995}
 for method, key in [("bonferroni", "bonferroni"), ("holm", "holm"), ("simes-hochberg", "hochberg"),
                     ("hommel", "hommel"), ("fdr_bh", "benjamini-hochberg"), ("fdr_by", "benjamini-yekutieli"), ("sidak", "sidak")]:
     with np.errstate(divide="ignore"):  # Šidák takes log1p(−p), −inf for p = 1, which gives 1
-        OUT["bh_1995"][key] = flt(multipletests(BH_1995, 0.05, method)[1])
+        OUT["benjamini_hochberg_1995"][key] = flt(multipletests(BENJAMINI_HOCHBERG_1995, 0.05, method)[1])
 
 
 # ----------------------------------------------------------------------------------------------
@@ -167,7 +167,7 @@ for name, (x, y) in ANSCOMBE.items():
     OUT["anscombe"][name] = {"x": flt(x), "y": flt(y), "r": float(r.statistic), "p": float(r.pvalue),
                              "ci_low": float(ci.low), "ci_high": float(ci.high),
                              "estimate": flt(ols_fit.params), "std_error": flt(ols_fit.bse),
-                             "r2": float(ols_fit.rsquared)}
+                             "r_squared": float(ols_fit.rsquared)}
 
 
 def kendall_exact_two_sided(y):

@@ -265,15 +265,15 @@ def linear_cases():
     res = sm.OLS(np.asarray(CANOPY, float), X).fit(method="qr")
     low, high = res.conf_int(alpha=0.05)[1]
     out["canopy on width"] = {
-        "reference": {"r2": float(res.rsquared), "f": float(res.fvalue), "p": float(res.f_pvalue),
+        "reference": {"r-squared": float(res.rsquared), "f": float(res.fvalue), "p": float(res.f_pvalue),
                       "slope": float(res.params[1]), "ci-low": float(low), "ci-high": float(high)},
-        "tokens": {"r2": N(res.rsquared), "statistic": N(res.fvalue), "p": P(res.f_pvalue),
+        "tokens": {"r-squared": N(res.rsquared), "statistic": N(res.fvalue), "p": P(res.f_pvalue),
                    "estimate": N(res.params[1]), "ci-low": N(low), "ci-high": N(high)}}
     X = sm.add_constant(np.column_stack([WIDTH, WILLOW]).astype(float))
     res = sm.OLS(np.asarray(CANOPY, float), X).fit(method="qr")
     out["canopy on width and willow"] = {
-        "reference": {"r2": float(res.rsquared), "f": float(res.fvalue), "p": float(res.f_pvalue)},
-        "tokens": {"r2": N(res.rsquared), "statistic": N(res.fvalue), "p": P(res.f_pvalue)}}
+        "reference": {"r-squared": float(res.rsquared), "f": float(res.fvalue), "p": float(res.f_pvalue)},
+        "tokens": {"r-squared": N(res.rsquared), "statistic": N(res.fvalue), "p": P(res.f_pvalue)}}
     return out
 
 
