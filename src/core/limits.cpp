@@ -26,8 +26,6 @@ namespace quadrat {
 
 namespace {
 
-constexpr double not_available = std::numeric_limits<double>::quiet_NaN();
-
 // The values scaled by a power of two (exact) so that squares of 1e200 or 1e-200 stay in range, with
 // their mean and SD on that scale; a refusal for fewer than 2 values or no spread.
 struct Scaled {
@@ -92,6 +90,13 @@ std::string percentile_name(double fraction) {
     char buffer[32];
     std::snprintf(buffer, sizeof buffer, "%.10gth", percent);
     return buffer;
+}
+
+using Form = LimitDetail::Form;
+
+// One part of a report sentence's parenthesis (report.hpp renders it).
+LimitDetail detail(std::string before, std::string quantity, std::string after = "", Form form = Form::number) {
+    return {std::move(before), std::move(quantity), std::move(after), form};
 }
 
 std::string capitalized(std::string text) {
@@ -359,7 +364,7 @@ LimitResult limit_mean(std::span<const double> values, const std::string& method
         t.add("k-factor", k).add("limit", finite_limit(s.unscaled(s.mean + k * s.sd)));
     }
     r.title = "Upper " + level_text + " confidence limit of the mean (" + name + ")";
-    r.details = {{"mean ", "mean"}, {"SD ", "SD"}};
+    r.details = {detail("mean ", "mean"), detail("SD ", "SD")};
     return r;
 }
 
@@ -392,7 +397,7 @@ LimitResult limit_percentile(std::span<const double> values, double fraction, do
         .add("confidence", cdf(dist, static_cast<double>(rank - 1)))
         .add("limit", sorted[rank - 1]);
     r.title = "Upper " + format_level(level) + " confidence limit of the " + name;
-    r.details = {{name + " ", "percentile"}, {"", "order statistic", ", distribution-free", LimitDetail::Form::order}};
+    r.details = {detail(name + " ", "percentile"), detail("", "order statistic", ", distribution-free", Form::order)};
     return r;
 }
 
@@ -414,8 +419,8 @@ LimitResult limit_exceedance(std::span<const double> values, double standard, do
         .add("share above standard", count / n)
         .add("limit", clopper_pearson_upper(count, n, level));
     r.title = "Upper " + format_level(level) + " confidence limit of the share above the standard (Clopper–Pearson)";
-    r.details = {{"standard ", "standard", "", LimitDetail::Form::typed}, {"", "count", " above it", LimitDetail::Form::whole},
-                 {"share ", "share above standard"}};
+    r.details = {detail("standard ", "standard", "", Form::typed), detail("", "count", " above it", Form::whole),
+                 detail("share ", "share above standard")};
     return r;
 }
 
@@ -442,7 +447,7 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
         }
         t.add("k-factor", k);
         add_limits(r, side, s.unscaled(s.mean - k * s.sd), s.unscaled(s.mean + k * s.sd));
-        r.details = {{"mean ", "mean"}, {"SD ", "SD"}, {"k = ", "k-factor"}};
+        r.details = {detail("mean ", "mean"), detail("SD ", "SD"), detail("k = ", "k-factor")};
     } else {
         // Order statistics (Wilks 1941, Ann. Math. Stat. 12, 91–96): the coverage F(x(r)) is
         // Beta(r, n − r + 1), so P(F(x(r)) ≥ p) = P(Bin(n, p) ≤ r − 1); two-sided with m values set
@@ -473,7 +478,7 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
                 .add("confidence", cdf(dist, static_cast<double>(n - 2 * good - 2)));
             add_limits(r, side, sorted[good], sorted[n - 1 - good]);
             t.unlisted.push_back({"order from each end", static_cast<double>(good + 1)});
-            r.details = {{"", "order from each end", ", distribution-free", LimitDetail::Form::outer}};
+            r.details = {detail("", "order from each end", ", distribution-free", Form::outer)};
         } else {
             const std::size_t rank = order_statistic_rank(n, proportion, level);
             if (rank == 0) {
@@ -490,7 +495,7 @@ LimitResult limit_tolerance(std::span<const double> values, double proportion, d
                 .add("order statistic", static_cast<double>(side == Side::upper ? rank : n + 1 - rank))
                 .add("confidence", cdf(dist, static_cast<double>(rank - 1)));
             add_limits(r, side, sorted[n - rank], sorted[rank - 1]);
-            r.details = {{"", "order statistic", ", distribution-free", LimitDetail::Form::order}};
+            r.details = {detail("", "order statistic", ", distribution-free", Form::order)};
         }
     }
     r.title = capitalized(head);
@@ -519,7 +524,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
         r.estimate_label = "mean";
         t.add("n", s.n).add("mean", s.unscaled(s.mean)).add("SD", s.unscaled(s.sd)).add("readings", readings).add("k-factor", k);
         add_limits(r, side, s.unscaled(s.mean - k * s.sd), s.unscaled(s.mean + k * s.sd));
-        r.details = {{"mean ", "mean"}, {"SD ", "SD"}, {"k = ", "k-factor"}};
+        r.details = {detail("mean ", "mean"), detail("SD ", "SD"), detail("k = ", "k-factor")};
     } else {
         // The m new readings all fall in the G gaps of the ordered sample below x(r) (G = r) or between
         // x(j) and x(n + 1 − j) (G = n − 2j + 1) with probability share_of_orderings(G, n, m).
@@ -548,7 +553,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
             t.add("order statistic", static_cast<double>(good))
                 .add("confidence", share_of_orderings(nd - 2.0 * good + 1, nd, readings));
             add_limits(r, side, sorted[good - 1], sorted[n - good]);
-            r.details = {{"", "order statistic", ", distribution-free", LimitDetail::Form::outer}};
+            r.details = {detail("", "order statistic", ", distribution-free", Form::outer)};
         } else {
             auto covers = [&](std::size_t rank) { return share_of_orderings(static_cast<double>(rank), nd, readings) >= level; };
             if (!covers(n)) {
@@ -567,7 +572,7 @@ LimitResult limit_prediction(std::span<const double> values, double readings, do
             t.add("order statistic", static_cast<double>(side == Side::upper ? good : n + 1 - good))
                 .add("confidence", share_of_orderings(static_cast<double>(good), nd, readings));
             add_limits(r, side, sorted[n - good], sorted[good - 1]);
-            r.details = {{"", "order statistic", ", distribution-free", LimitDetail::Form::order}};
+            r.details = {detail("", "order statistic", ", distribution-free", Form::order)};
         }
     }
     r.title = capitalized(head);
