@@ -134,7 +134,8 @@ std::string forwarding_text(const std::vector<const Function*>& functions) {
         }
         inc << ") override\n{\n    return answer(\"" << f->method << "\", [&](Call& call) {\n";
         for (const Argument& a : f->arguments)
-            inc << "        call." << (a.reference() ? "reference(" : "value(") << idl_name(a.name) << ");\n";
+            inc << "        call." << (a.reference() ? "reference(" : "value(") << idl_name(a.name)
+                << (a.reference() && a.dates ? ", true" : "") << ");\n";
         inc << "    });\n}\n\n";
     }
     return inc.str();

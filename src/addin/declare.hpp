@@ -58,6 +58,7 @@ struct Argument {
     bool optional = false;    // may be left out (the wizard then shows it as optional)
     const KeywordTable* keywords = nullptr;  // keyword and output arguments
     std::string fallback;     // the default keyword ("" where the core decides, e.g. adjust)
+    bool dates = false;       // a reference whose cells the seam asks for date formatting (Range::dates)
 
     // A required cell argument reaches the add-in as a cell range (used rows only, error cells
     // named); everything else is an `any`, which the office treats as optional.
@@ -73,6 +74,9 @@ Argument number(std::string name, std::string description);
 Argument level();  // "level", optional, 0.95 by default
 // The same argument, optional: `optional(labels("groups", "…"))`.
 Argument optional(Argument a);
+// A required reference whose date formatting the seam reads (Range::dates); only where the core
+// uses it, so other long columns pay nothing: `dated(data("times", "…"))`.
+Argument dated(Argument a);
 
 class Function;
 

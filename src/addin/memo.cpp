@@ -36,7 +36,7 @@ std::size_t key_size(std::string_view kind, const Arguments& arguments, const st
         size += sizeof i;
         if (i >= arguments.size()) continue;
         const Range& r = arguments[i];
-        size += sizeof r.rows + sizeof r.columns + sizeof r.omitted + sizeof r.is_reference + sizeof r.first_row +
+        size += sizeof r.rows + sizeof r.columns + sizeof r.omitted + sizeof r.is_reference + sizeof r.dates + sizeof r.first_row +
                 sizeof r.first_column;
         for (const Cell& c : r.cells) {
             size += 1;
@@ -60,6 +60,7 @@ std::string make_key(std::string_view kind, const Arguments& arguments, const st
         append_value(key, r.columns);
         append_value(key, r.omitted);
         append_value(key, r.is_reference);
+        append_value(key, r.dates);  // the same day numbers formatted as dates give a slope per year
         append_value(key, r.first_row);
         append_value(key, r.first_column);
         for (const Cell& c : r.cells) {

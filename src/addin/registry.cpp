@@ -39,6 +39,10 @@ Argument optional(Argument a) {
     a.optional = true;
     return a;
 }
+Argument dated(Argument a) {
+    a.dates = true;
+    return a;
+}
 
 Function::Function(std::string display_name_, std::string method_, std::string description_, std::vector<Argument> arguments_,
                    Entry entry_, std::string category_)

@@ -30,6 +30,9 @@ struct Range {
     std::vector<Cell> cells;
     bool omitted = false;
     bool is_reference = false;
+    // Only for an argument declared to ask for it (TRACK.TREND `times`): its used cells hold date or
+    // time content (numbers formatted as dates), so they are day numbers.
+    bool dates = false;
     std::size_t first_row = 0;
     std::size_t first_column = 0;
 

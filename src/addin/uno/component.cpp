@@ -14,10 +14,13 @@
 
 #include <com/sun/star/lang/XServiceInfo.hpp>
 #include <com/sun/star/lang/XServiceName.hpp>
+#include <com/sun/star/sheet/CellFlags.hpp>
 #include <com/sun/star/sheet/FormulaResult.hpp>
 #include <com/sun/star/sheet/XCellRangeAddressable.hpp>
 #include <com/sun/star/sheet/XCellRangeData.hpp>
+#include <com/sun/star/sheet/XCellRangesQuery.hpp>
 #include <com/sun/star/sheet/XSheetCellCursor.hpp>
+#include <com/sun/star/sheet/XSheetCellRanges.hpp>
 #include <com/sun/star/sheet/XSheetCellRange.hpp>
 #include <com/sun/star/sheet/XSpreadsheet.hpp>
 #include <com/sun/star/sheet/XUsedAreaCursor.hpp>
@@ -113,8 +116,9 @@ constexpr sal_Int32 rows_read_whole = 10000;
 // A reference argument. A long one is read only down to the last row of the sheet's used area,
 // so a whole column (A:A) costs its used rows; the start is never moved, so row positions and
 // cell names stay true. Cells come in one getDataArray() call; an error cell arrives as a
-// void value and is looked up to name its error (#DIV/0!, Err:504, …).
-Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows) {
+// void value and is looked up to name its error (#DIV/0!, Err:504, …). `dates`: also say
+// whether the used cells hold date or time content (Range::dates).
+Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows, bool dates) {
     sheet_rows = 0;
     if (!reference.is()) return Range::omitted_argument();
     Range range;
@@ -171,6 +175,15 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
             css::uno::Reference<css::table::XCell> cell = used_part->getCellByPosition(c, r);
             const sal_Int32 code = cell.is() ? cell->getError() : 0;
             range.cells.push_back(code != 0 ? Cell::make_error(error_name(code)) : Cell{});
+        }
+    }
+    // Date formatting, only where the declaration asks (one query over the used part): numbers
+    // formatted as dates or times are day numbers (TRACK.TREND's slope per year).
+    if (dates) {
+        css::uno::Reference<css::sheet::XCellRangesQuery> query(used_part, css::uno::UNO_QUERY);
+        if (query.is()) {
+            const css::uno::Reference<css::sheet::XSheetCellRanges> found = query->queryContentCells(css::sheet::CellFlags::DATETIME);
+            range.dates = found.is() && found->getRangeAddresses().getLength() > 0;
         }
     }
     return range;
@@ -243,9 +256,9 @@ class Call {
 public:
     explicit Call(std::size_t count) { arguments_.reserve(count); }
 
-    void reference(const css::uno::Reference<css::table::XCellRange>& argument) {
+    void reference(const css::uno::Reference<css::table::XCellRange>& argument, bool dates = false) {
         std::size_t sheet_rows = 0;
-        arguments_.push_back(from_reference(argument, sheet_rows));
+        arguments_.push_back(from_reference(argument, sheet_rows, dates));
         if (sheet_rows > arguments_.back().rows) clips_.push_back({sheet_rows, arguments_.back().rows});
     }
     // The Any lives in the caller's frame for the whole call.
