@@ -411,37 +411,6 @@ double PairwiseSlopes::median() const {
 
 namespace {
 
-// The numbers of a result that the report sentence reads, besides the result's own quantities.
-struct TrendReport {
-    std::string test;
-    std::size_t seasons = 1;
-    bool exact = false;
-    double s = 0, z = 0, p = 0, tau = 0, slope = 0;
-    CellValue ci_low, ci_high, percent;
-    std::string unit;
-    double level = 0.95;
-    std::size_t n = 0, censored = 0;
-    double limit = 0;
-};
-
-// One sentence from the trend's numbers (kept in one place so that it can move to the shared
-// renderer).
-std::string trend_sentence(const TrendReport& r) {
-    std::string s = r.test;
-    if (r.seasons > 1) s += ", " + std::to_string(r.seasons) + " seasons";
-    s += ": S = " + format_df(r.s);
-    if (!r.exact) s += ", z = " + format_number(r.z);
-    s += ", " + format_p(r.p) + ", τ = " + format_number(r.tau) + "; Sen slope " + format_number(r.slope) + " " + r.unit;
-    if (std::holds_alternative<double>(r.ci_low) && std::holds_alternative<double>(r.ci_high))
-        s += " (" + format_level(r.level) + " CI " + format_number(std::get<double>(r.ci_low)) + " to " +
-             format_number(std::get<double>(r.ci_high)) + ")";
-    if (std::holds_alternative<double>(r.percent)) s += ", " + format_number(std::get<double>(r.percent)) + "% of the median " + r.unit;
-    s += ", n = " + std::to_string(r.n);
-    if (r.censored > 0)
-        s += "; " + count_of(r.censored, "reading") + " below the detection limit (<" + number_label(r.limit) + ")";
-    return s;
-}
-
 CellValue finite_or(double x, const std::string& text) { return std::isfinite(x) ? CellValue{x} : CellValue{text}; }
 
 void add_value(TestResult& r, const std::string& label, const CellValue& v) {
@@ -617,15 +586,75 @@ TestResult mann_kendall_trend(const TrendSeries& series, const TrendOptions& opt
     add_value(result, "lag-1 correlation", lag1);
     result.add("caution", std::string("serial correlation makes p too small (Hamed & Rao 1998, J. Hydrology 204, 182–196)"));
 
-    TrendReport r;
-    r.test = result.test;
-    r.seasons = season_count;
-    r.exact = exact;
-    r.s = s, r.z = z, r.p = p, r.tau = tau, r.slope = slope;
-    r.ci_low = ci_low, r.ci_high = ci_high, r.percent = percent;
-    r.unit = unit, r.level = options.level, r.n = n, r.censored = censored, r.limit = limit;
-    result.report = trend_sentence(r);
+    // The sentence's words (report.hpp renders it): S, p and n; the Sen slope with its interval and τ;
+    // the percent; seasons and censored readings in the closing words.
+    ReportWords& w = result.words;
+    w.shown = true;
+    w.statistic_form = ReportWords::Statistic::whole;
+    w.statistic_symbol = "S";
+    w.n_after_p = true;
+    w.estimate = "Sen slope " + unit;
+    w.effect = "τ";
+    w.extra = "change " + unit + " as % of the median";
+    w.extra_quantity = "percent";
+    w.level = options.level;
+    std::string closing;
+    if (seasonal) closing = count_of(season_count, "season");
+    if (censored > 0)
+        closing += (closing.empty() ? "" : "; ") + count_of(censored, "reading") + " below the detection limit <" + number_label(limit);
+    w.closing = closing;
     return result;
+}
+
+const KeywordTable& trend_units() {
+    static const KeywordTable t{"trend units",
+                                {{"auto", "per year when times are formatted as dates, else per unit of times"},
+                                 {"year", "per year of 365.25 days (times read as day numbers)"},
+                                 {"day", "per day (times read as day numbers)"},
+                                 {"none", "per unit of times"}}};
+    return t;
+}
+
+const KeywordTable& trend_outputs() {
+    static const KeywordTable t{"trend outputs",
+                                {{"p", "the p-value"},
+                                 {"statistic", "Kendall's S"},
+                                 {"n", "readings used"},
+                                 {"estimate", "the Sen slope per unit"},
+                                 {"ci-low", "lower confidence limit of the slope"},
+                                 {"ci-high", "upper confidence limit of the slope"},
+                                 {"intercept", "the line's value at time zero, or at the first date"},
+                                 {"percent", "the slope as a percentage of the median"},
+                                 {"effect", "Kendall's τ"},
+                                 {"table", "the whole result as an array"},
+                                 {"report", "one sentence"}}};
+    return t;
+}
+
+TrendUnit parse_trend_unit(const std::string& keyword) {
+    return static_cast<TrendUnit>(trend_units().index(keyword, "unit"));
+}
+
+TestResult track_trend(const Range& values, const Range& times, const Range& seasons, TrendUnit unit, double level) {
+    const bool seasonal = !seasons.empty();
+    for (const auto& [range, name] : {std::pair<const Range*, const char*>{&values, "values"}, {&times, "times"}, {&seasons, "seasons"}})
+        if (!range->empty() && range->columns != 1)
+            throw Refusal(std::string(name) + " must be one column, found " + std::to_string(range->columns));
+    std::vector<FrameBlock> blocks{{&values, ColumnKind::censored, "values"}, {&times, ColumnKind::numeric, "times"}};
+    if (seasonal) blocks.push_back({&seasons, ColumnKind::label, "seasons"});
+    const Frame f = read_frame(blocks);
+    std::vector<unsigned char> censored(f.censored[0].begin(), f.censored[0].end());
+    TrendSeries series;
+    series.values = f.numbers[0];
+    series.times = f.numbers[1];
+    series.censored = censored;
+    if (seasonal) series.seasons = f.labels[2];
+    series.n_dropped = f.n_dropped;
+    TrendOptions options;
+    options.level = level;
+    options.times_are_dates = times.dates;
+    options.unit = unit;
+    return mann_kendall_trend(series, options);
 }
 
 }  // namespace quadrat

@@ -14,6 +14,8 @@
 #include <string>
 #include <vector>
 
+#include "cells.hpp"
+#include "keywords.hpp"
 #include "result.hpp"
 
 namespace quadrat {
@@ -70,6 +72,10 @@ private:
 // How the slope is expressed (FUNCTIONS.md, TRACK.TREND `unit`).
 enum class TrendUnit { automatic, year, day, none };
 
+const KeywordTable& trend_units();    // TRACK.TREND `unit`: auto, year, day, none (order of TrendUnit)
+const KeywordTable& trend_outputs();  // TRACK.TREND `output`
+TrendUnit parse_trend_unit(const std::string& keyword);  // a matched keyword of trend_units()
+
 // One series of readings. A censored reading (`<0.05`) holds its detection limit in `values` and a 1
 // in `censored`.
 struct TrendSeries {
@@ -90,5 +96,10 @@ struct TrendOptions {
 // `z`, `p`, `effect` (τ), `estimate` (Sen slope per unit), `ci-low`, `ci-high`, `unit`, `intercept`,
 // `percent`, `censored`, `lag-1 correlation`, `caution`, and the report sentence.
 TestResult mann_kendall_trend(const TrendSeries& series, const TrendOptions& options = {});
+
+// TRACK.TREND from cells: `values` numbers or readings below a detection limit (`<0.5`), `times`
+// numbers (day numbers formatted as dates when times.dates is set), `seasons` labels (omitted or
+// empty: no seasons). The data layer's rules for headers, missing cells and refusals.
+TestResult track_trend(const Range& values, const Range& times, const Range& seasons, TrendUnit unit, double level);
 
 }  // namespace quadrat

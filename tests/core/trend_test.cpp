@@ -16,6 +16,7 @@
 
 #include "core/correlation.hpp"
 #include "core/refusal.hpp"
+#include "core/report.hpp"
 #include "core/trend.hpp"
 #include "reference.hpp"
 
@@ -320,7 +321,7 @@ TEST(Trend, CensoredReadings) {
     EXPECT_EQ(r.number("statistic"), 7);
     expect_relative(r.number("variance"), 234.0 / 18.0, 1e-12, "censored variance");
     EXPECT_EQ(r.number("censored"), 2);
-    EXPECT_NE(r.report.find("2 readings below the detection limit (<1)"), std::string::npos) << r.report;
+    EXPECT_NE(render_report(r).find("2 readings below the detection limit <1"), std::string::npos) << render_report(r);
     // Several limits: a refusal that names them.
     const std::string several = refusal_text([] { trend({1, 0.5, 2, 3}, consecutive(4), {}, {}, {1, 1, 0, 0}); });
     EXPECT_NE(several.find("2 different detection limits (<0.5, <1)"), std::string::npos) << several;
@@ -348,11 +349,48 @@ TEST(Trend, ReportSentence) {
     // Sen slope 1 (by hand: the median of the 55 slopes), interval 0 to 2 (generate_trend.py),
     // percent = 1/15 (the median reading: 5 10 10 10 10 [15] 15 17 18 20 24) = 6.67%.
     const TestResult r = trend({10, 10, 10, 5, 10, 20, 18, 17, 15, 24, 15}, consecutive(11));
-    EXPECT_EQ(r.report,
-              "Mann–Kendall trend test (normal approximation): S = 22, z = 1.68, p = 0.092, τ = 0.43; Sen slope 1.00 per "
-              "unit of time (95% CI 0.00 to 2.00), 6.67% of the median per unit of time, n = 11");
-    const TestResult exact = trend({1, 3, 2, 5, 4, 6}, consecutive(6));
-    EXPECT_EQ(exact.report.find("z ="), std::string::npos) << exact.report;  // exact: no z in the sentence
+    EXPECT_EQ(render_report(r),
+              "Mann–Kendall trend test (normal approximation): S = 22, p = 0.092, n = 11; Sen slope per unit of time 1.00 "
+              "(95% CI 0.00 to 2.00), τ = 0.43; change per unit of time as % of the median 6.67");
+    // Seasons and censored readings in the closing words (the hand-counted series of Seasons and
+    // CensoredReadings above).
+    const TestResult seasonal = trend({1, 9, 5, 2, 8, 4}, {1, 1, 1, 2, 2, 3}, {"winter", "summer", "spring", "winter", "summer", "winter"});
+    EXPECT_NE(render_report(seasonal).find("(3 seasons)"), std::string::npos) << render_report(seasonal);
+}
+
+// From cells (the data layer's rules): a header row, `<1` read as censored at 1, a text reading
+// dropped and counted, month labels as seasons, and date formatting read from Range::dates.
+TEST(Trend, FromCells) {
+    Range values = Range::text_column({"nitrate", "<1", "0.8", "<1", "2", "n/a", "3"});
+    for (std::size_t i : {2u, 4u, 6u}) values.cells[i] = Cell::make_number(std::stod(values.cells[i].text));
+    Range times = Range::column({0, 1, 2, 3, 4, 5, 6});
+    times.cells[0] = Cell::make_text("day");
+    const TestResult r = track_trend(values, times, Range::omitted_argument(), TrendUnit::automatic, 0.95);
+    // The same readings as CensoredReadings (by hand: S = 7, Var = 234/18), the n/a row dropped.
+    EXPECT_EQ(r.number("statistic"), 7);
+    EXPECT_EQ(r.number("n"), 5);
+    EXPECT_EQ(r.number("n dropped"), 1);
+    EXPECT_EQ(r.number("censored"), 2);
+    EXPECT_EQ(std::get<std::string>(*r.find("unit")), "per unit of time");
+    // The same day numbers formatted as dates: per year, 365.25 times the slope per day.
+    Range dated = times;
+    dated.dates = true;
+    const TestResult y = track_trend(values, dated, Range::omitted_argument(), TrendUnit::automatic, 0.95);
+    EXPECT_EQ(std::get<std::string>(*y.find("unit")), "per year");
+    expect_relative(y.number("estimate"), 365.25 * r.number("estimate"), 1e-12, "per year from dates");
+    EXPECT_EQ(track_trend(values, dated, Range::omitted_argument(), TrendUnit::none, 0.95).number("estimate"), r.number("estimate"));
+    // Seasons as labels (numbers in a label column are labels): the Seasons series by hand, S = 2.
+    const Range v = Range::column({1, 9, 5, 2, 8, 4}), t = Range::column({1, 1, 1, 2, 2, 3});
+    const TestResult s = track_trend(v, t, Range::column({1, 7, 4, 1, 7, 1}), TrendUnit::automatic, 0.95);
+    EXPECT_EQ(s.number("statistic"), 2);
+    EXPECT_EQ(s.number("seasons"), 3);
+    // A non-detect without its limit is refused everywhere (FUNCTIONS.md, "Missing data").
+    EXPECT_NE(refusal_text([&] { track_trend(Range::text_column({"1", "ND", "3"}), Range::column({1, 2, 3}), Range::omitted_argument(),
+                                             TrendUnit::automatic, 0.95); })
+                  .find("ND"),
+              std::string::npos);
+    EXPECT_EQ(parse_trend_unit("year"), TrendUnit::year);
+    EXPECT_EQ(parse_trend_unit("auto"), TrendUnit::automatic);
 }
 
 }  // namespace
