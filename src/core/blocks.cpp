@@ -4,11 +4,13 @@
 #include <cmath>
 #include <string_view>
 #include <unordered_map>
+#include <utility>
 
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/fisher_f.hpp>
 #include <boost/math/distributions/students_t.hpp>
 
+#include "data.hpp"
 #include "keywords.hpp"
 #include "paired.hpp"
 #include "ranks.hpp"
@@ -25,6 +27,36 @@ const KeywordTable& block_methods() {
                                  {"ranks", "Friedman test; Wilcoxon signed-rank for two groups"},
                                  {"sign", "exact sign test, two groups"}}};
     return t;
+}
+
+const KeywordTable& block_outputs() {
+    static const KeywordTable t{"block outputs",
+                                {{"p", "the p-value"},
+                                 {"statistic", "F, χ², t, T⁺ or the count of positive differences"},
+                                 {"df", "degrees of freedom (the first for F)"},
+                                 {"df2", "the second degrees of freedom of F"},
+                                 {"n", "readings used"},
+                                 {"effect", "partial η² (pooled) or Kendall's W (ranks)"},
+                                 {"table", "the whole result as an array"},
+                                 {"report", "one sentence"},
+                                 {"pairs", "every pair of groups, in COMPARE.POSTHOC's layout"}}};
+    return t;
+}
+
+LabelledColumns read_labelled_columns(const Range& values, const Range& groups, const Range& structure,
+                                      const std::string& structure_name) {
+    for (const auto& [range, name] : {std::pair<const Range*, std::string>{&values, "values"}, {&groups, "groups"}, {&structure, structure_name}})
+        if (!range->empty() && range->columns != 1)
+            throw Refusal(name + " must be one column, found " + std::to_string(range->columns));
+    const Frame f = read_frame({{&values, ColumnKind::numeric, "values"},
+                                {&groups, ColumnKind::label, "groups"},
+                                {&structure, ColumnKind::label, structure_name}});
+    LabelledColumns c;
+    c.values = f.numbers[0];
+    c.groups = f.labels[1];
+    c.structure = f.labels[2];
+    c.n_dropped = f.n_dropped;
+    return c;
 }
 
 namespace {

@@ -10,14 +10,16 @@
 #include <vector>
 
 #include "adjust.hpp"
+#include "cells.hpp"
 #include "posthoc.hpp"
 #include "result.hpp"
 #include "keywords.hpp"
 
 namespace quadrat {
 
-// COMPARE.BLOCKS' methods (a keyword table, keywords.hpp).
+// COMPARE.BLOCKS' methods and outputs (keyword tables, keywords.hpp).
 const KeywordTable& block_methods();
+const KeywordTable& block_outputs();
 
 // Labels → indices in order of first appearance (the catalogue's group order), one hash look-up per
 // row and one string copy per distinct label. Shared with COMPARE.NESTED.
@@ -44,6 +46,18 @@ struct BlockReadings {
     std::span<const std::string> blocks;
     std::size_t n_dropped = 0;
 };
+
+// The three columns read from cells (the data layer's rules: a header row, missing cells dropped and
+// counted, a number in a label column is a label): values, groups, and blocks or units, the last named
+// `structure_name` in refusals.
+struct LabelledColumns {
+    std::vector<double> values;
+    std::vector<std::string> groups, structure;
+    std::size_t n_dropped = 0;
+    BlockReadings blocks() const { return {values, groups, structure, n_dropped}; }
+};
+LabelledColumns read_labelled_columns(const Range& values, const Range& groups, const Range& structure,
+                                      const std::string& structure_name);
 
 // The readings laid out as blocks × groups. Several readings of one group in one block are
 // averaged (they are subsamples of one plot, not replicates); a block missing a group is dropped

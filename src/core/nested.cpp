@@ -23,16 +23,6 @@ std::string percent(double share) {
     return (p >= 1 ? std::to_string(std::lround(p)) : p == 0 ? std::string("0") : format_number(p)) + "%";
 }
 
-// The report sentence (kept in this one function so that it can move to the report renderer).
-std::string nested_report(const TestResult& r, std::size_t units, bool unequal) {
-    return "Nested ANOVA: F(" + format_df(r.number("df")) + ", " + format_df(r.number("df2")) + ") = " +
-           format_number(r.number("statistic")) + ", " + format_p(r.number("p")) + " (groups tested over " +
-           count_of(units, "unit") + (unequal ? ", on the unit means: subsample counts differ" : "") + "; " +
-           count_of(static_cast<std::size_t>(r.number("n")), "reading") + "); variance components: between groups " +
-           percent(r.number("share between groups")) + ", between units " + percent(r.number("share between units")) +
-           ", within units " + percent(r.number("share within units"));
-}
-
 }  // namespace
 
 TestResult compare_nested(const NestedReadings& in) {
@@ -162,9 +152,36 @@ TestResult compare_nested(const NestedReadings& in) {
         r.add(group.names[g] + ": units", static_cast<double>(units_of[g].size()));
         r.add(group.names[g] + ": mean", mean(unit_means[g]) / scale);
     }
-    r.report = nested_report(r, u_count, unequal);
+    // The sentence's words (report.hpp renders it); the shares as one phrase it reads, not a table row.
+    r.unlisted.push_back({"variance shares", "between groups " + percent(var_groups / var_total) + ", between units " +
+                                                 percent(var_units / var_total) + ", within units " + percent(var_within / var_total)});
+    r.words.shown = true;
+    r.words.title = "Nested ANOVA";
+    r.words.statistic_symbol = "F";
+    r.words.statistic_df = true;
+    r.words.extra = "variance components:";
+    r.words.extra_quantity = "variance shares";
+    r.words.closing = "groups tested over " + count_of(u_count, "unit") + (unequal ? ", on the unit means: subsample counts differ" : "") +
+                      "; " + count_of(static_cast<std::size_t>(total), "reading");
     mark_non_finite(r);
     return r;
+}
+
+const KeywordTable& nested_outputs() {
+    static const KeywordTable t{"nested outputs",
+                                {{"p", "the p-value"},
+                                 {"statistic", "F of groups over units"},
+                                 {"df", "degrees of freedom of groups"},
+                                 {"df2", "degrees of freedom of units within groups"},
+                                 {"n", "readings used"},
+                                 {"table", "the whole result with the variance components"},
+                                 {"report", "one sentence"}}};
+    return t;
+}
+
+TestResult compare_nested(const Range& values, const Range& groups, const Range& units) {
+    const LabelledColumns c = read_labelled_columns(values, groups, units, "units");
+    return compare_nested(NestedReadings{c.values, c.groups, c.structure, c.n_dropped});
 }
 
 }  // namespace quadrat

@@ -7,6 +7,8 @@
 #include <span>
 #include <string>
 
+#include "cells.hpp"
+#include "keywords.hpp"
 #include "result.hpp"
 
 namespace quadrat {
@@ -32,5 +34,9 @@ struct NestedReadings {
 //   n₀‴ = (N − Σᵢ nᵢ²/N) / (a − 1);
 // a negative estimate is set to 0 (and the table says so); shares are of the sum of the three.
 TestResult compare_nested(const NestedReadings& readings);
+
+// COMPARE.NESTED's outputs; and the test from cells (values, groups, units: the data layer's rules).
+const KeywordTable& nested_outputs();
+TestResult compare_nested(const Range& values, const Range& groups, const Range& units);
 
 }  // namespace quadrat
