@@ -471,6 +471,38 @@ TEST(ReportSentence, Outliers) {
                     "outliers", "rosner grubbs");
 }
 
+// ---------------------------------------------------------------- TRACK.TREND, COMPARE.BLOCKS, COMPARE.NESTED
+// The published examples as their generators store them (trend.json, blocks.json).
+
+Range numbers_of(const nlohmann::json& xs) { return Range::column(xs.get<std::vector<double>>()); }
+Range labels_of(const nlohmann::json& xs) { return Range::text_column(xs.get<std::vector<std::string>>()); }
+
+TEST(ReportSentence, OverTimeBlocksNested) {
+    // US EPA QA/G-9S (2006), Mann–Kendall example, times 1..11 as plain numbers: per unit of time.
+    const auto& epa = reference_file("trend.json")["cases"]["epa"];
+    expect_sentence(call("trackTrend", {numbers_of(epa["y"]), numbers_of(epa["t"]), omitted, keyword("report")}),
+                    "Mann–Kendall trend test (normal approximation): S = 22, p = 0.092, n = 11; Sen slope per unit of "
+                    "time 1.00 (95% CI 0.00 to 2.00), τ = 0.43; change per unit of time as % of the median 6.67",
+                    "over time", "epa");
+    // Montgomery's hardness example: four tips on four coupons.
+    const auto& hard = reference_file("blocks.json")["hardness"];
+    const Range v = numbers_of(hard["values"]), g = labels_of(hard["groups"]), b = labels_of(hard["blocks"]);
+    expect_sentence(call("compareBlocks", {v, g, b, keyword("pooled"), keyword("report")}),
+                    "Randomized complete block ANOVA: F(3, 9) = 14.44, p < 0.001; partial η² = 0.83 (4 groups; 4 blocks "
+                    "used)",
+                    "over time", "hardness pooled");
+    expect_sentence(call("compareBlocks", {v, g, b, keyword("ranks"), keyword("report")}),
+                    "Friedman test: χ²(3) = 8.85, p = 0.031; Kendall's W = 0.74 (4 groups; 4 blocks used)", "over time",
+                    "hardness ranks");
+    // Sokal & Rohlf's rat livers: three treatments, two rats each, six readings per rat.
+    const auto& rats = reference_file("blocks.json")["rats"];
+    expect_sentence(call("compareNested", {numbers_of(rats["values"]), labels_of(rats["groups"]), labels_of(rats["units"]),
+                                           keyword("report")}),
+                    "Nested ANOVA: F(2, 3) = 2.93, p = 0.197; variance components: between groups 37%, between units "
+                    "34%, within units 28% (groups tested over 6 units; 36 readings)",
+                    "over time", "rats");
+}
+
 // ---------------------------------------------------------------- coverage and refusals
 
 // Every function whose wizard text offers `report` is exercised above.
@@ -478,7 +510,8 @@ TEST(ReportSentence, EveryFunctionWithReportIsCovered) {
     const std::set<std::string> covered = {"COMPARE.GROUPS", "COMPARE.PAIRED", "CHECK.NORMAL",       "CHECK.VARIANCE",
                                            "COMPARE.COUNTS", "COMPARE.EXPECTED", "RELATE.CORRELATION", "FIT.LINEAR",
                                            "ADVISE.TEST",    "LIMIT.MEAN",       "LIMIT.EXCEEDANCE",   "LIMIT.TOLERANCE",
-                                           "LIMIT.PERCENTILE", "LIMIT.PREDICTION", "CHECK.OUTLIERS"};
+                                           "LIMIT.PERCENTILE", "LIMIT.PREDICTION", "CHECK.OUTLIERS",
+                                           "TRACK.TREND",      "COMPARE.BLOCKS",   "COMPARE.NESTED"};
     for (const Function* f : registry()) {
         for (const Argument& a : f->arguments) {
             if (a.keywords && a.name == "output" && a.keywords->contains("report")) {

@@ -331,6 +331,34 @@ def outlier_cases():
     return out
 
 
+def over_time_cases():
+    """TRACK.TREND, COMPARE.BLOCKS and COMPARE.NESTED on the published examples their own generators
+    hold: the EPA Mann-Kendall example (generate_trend.py: S and p by brute force from the definitions,
+    tau-b and the Theil slope from scipy.stats.kendalltau/theilslopes, the Sen interval from the listed
+    slopes), Montgomery's hardness example (generate_blocks.py: statsmodels OLS anova_lm, SciPy
+    friedmanchisquare) and Sokal & Rohlf's rat livers (generate_blocks.py: SciPy f_oneway on the rat
+    means, the variance components in exact fractions)."""
+    with open(os.path.join(HERE, "trend.json")) as fh:
+        epa = json.load(fh)["cases"]["epa"]
+    with open(os.path.join(HERE, "blocks.json")) as fh:
+        blocks = json.load(fh)
+    ref, sp = epa["reference"], epa["scipy"]
+    out = {"epa": {"reference": ref, "tokens": {
+        "statistic": DF(ref["S"]), "p": P(ref["p"]), "n": DF(ref["n"]), "estimate": N(sp["theil_slope"]),
+        "ci-low": N(ref["ci_low"]), "ci-high": N(ref["ci_high"]), "effect": N(sp["tau_b"]), "percent": N(ref["percent"])}}}
+    hard = blocks["hardness"]
+    for method in ("pooled", "ranks"):
+        r = hard[method]
+        out["hardness " + method] = {"reference": r, "tokens": {
+            "statistic": N(r["statistic"]), "df": DF(r["df"]), "p": P(r["p"]), "effect": N(r["effect"])}}
+    rats = blocks["rats"]
+    shares = {k: "%d%%" % round(100 * rats["share " + k]) for k in ("between groups", "between units", "within units")}
+    out["rats"] = {"reference": {k: rats[k] for k in ("statistic", "df", "df2", "p")},
+                   "tokens": {"statistic": N(rats["statistic"]), "df": DF(rats["df"]), "df2": DF(rats["df2"]),
+                              "p": P(rats["p"]), **shares}}
+    return out
+
+
 def main():
     out = {"generator": "tests/reference/generate_reports.py", "scipy": scipy.__version__,
            "statsmodels": statsmodels.__version__}
@@ -344,6 +372,7 @@ def main():
     out["advisor"] = advisor_cases()
     out["limits"] = limit_cases()
     out["outliers"] = outlier_cases()
+    out["over time"] = over_time_cases()
     path = os.path.join(HERE, "reports.json")
     with open(path, "w") as fh:
         json.dump(out, fh, indent=1, sort_keys=True, default=float)

@@ -3,8 +3,10 @@
 
 #include "addin/families/common.hpp"
 #include "core/adjust.hpp"
+#include "core/blocks.hpp"
 #include "core/counts.hpp"
 #include "core/letters.hpp"
+#include "core/nested.hpp"
 #include "core/oneway.hpp"
 #include "core/paired.hpp"
 #include "core/posthoc.hpp"
@@ -23,6 +25,22 @@ std::vector<Argument> posthoc_arguments() {
 std::optional<Adjustment> adjustment_of(const Request& r) {
     const std::string& adjust = r.keyword("adjust");
     return adjust.empty() ? std::nullopt : std::optional<Adjustment>(parse_adjustment(adjust));
+}
+
+// COMPARE.BLOCKS: the test is remembered on the data and method (`adjust` changes only `pairs`);
+// `pairs` is COMPARE.POSTHOC's array, computed when asked.
+Entry blocks_entry() {
+    const auto columns = [](const Request& r) {
+        return read_labelled_columns(r.range("values"), r.range("groups"), r.range("blocks"), "blocks");
+    };
+    Entry e = test([columns](const Request& r) { return compare_blocks(columns(r).blocks(), r.keyword("method")); });
+    e.keyed = {"values", "groups", "blocks", "method"};
+    e.show = [columns](const void* result, const Request& r) -> Table {
+        if (r.keyword("output") == "pairs")
+            return compare_blocks_pairs(columns(r).blocks(), r.keyword("method"), adjustment_of(r)).table();
+        return show_test(*static_cast<const TestResult*>(result), r);
+    };
+    return e;
 }
 
 const Declare compare{
@@ -85,6 +103,22 @@ const Declare compare{
                  const ExpectedInput in = read_expected_input(r.range("observed"), r.range("expected"));
                  return compare_expected(in.observed, in.expected, in.n_dropped);
              })},
+
+    Function{"COMPARE.BLOCKS", "compareBlocks",
+             "Compares groups within blocks (site, transect, date): block ANOVA, Friedman, or paired tests for two groups.",
+             {values_argument(), labels("groups", "Group (treatment, zone, visit) of each row."),
+              labels("blocks", "Block (transect, site, date) of each row; a block missing a group is dropped."),
+              keyword("method", block_methods(), "pooled", "Test"),
+              output(block_outputs(), "p", "What the cell shows (p from 0 to 1); pairs: array of every pair"),
+              keyword("adjust", adjustment_methods(), "holm", "Adjustment of the pairs' p")},
+             blocks_entry()},
+
+    Function{"COMPARE.NESTED", "compareNested",
+             "Compares groups when several subsamples come from each sampling unit (nested ANOVA, variance components).",
+             {values_argument(), labels("groups", "Group of each row."),
+              labels("units", "Sampling unit (plot, net, well) each subsample came from; one group per unit."),
+              output(nested_outputs(), "p", "What the cell shows (p from 0 to 1)")},
+             test([](const Request& r) { return compare_nested(r.range("values"), r.range("groups"), r.range("units")); })},
 };
 
 }  // namespace
