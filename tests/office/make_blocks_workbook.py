@@ -15,12 +15,9 @@ core's, exact.
 
 import json
 import os
-import sys
 
-from fods import Checks, Workbook
-
-sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "reference"))
-from report_numbers import fmt_df, fmt_number, fmt_p  # noqa: E402
+from quadrat_sheets.fods import Checks, Workbook
+from quadrat_sheets.report_numbers import fmt_df, fmt_number, fmt_p
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 with open(os.path.join(HERE, "..", "reference", "blocks.json")) as f:
@@ -186,19 +183,20 @@ order = two["groups in order"]
 sheet.block("K1", [[order[0], order[1]]] + [[a, b] for a, b in zip(two["first"], two["second"])])
 m = len(two["first"]) + 1
 call = "COMPARE.BLOCKS([.C1:.C%d];[.B1:.B%d];[.A1:.A%d]" % (n, n, n)
-paired = "COMPARE.PAIRED([.K1:.K%d];[.L1:.L%d]" % (m, m)
+paired = "COMPARE.PAIRED([$methods.K1:.K%d];[$methods.L1:.L%d]" % (m, m)
 row = 2
 for method, test, key in (("pooled", "t", "t"), ("ranks", "signed-rank", "signed-rank"), ("sign", "sign", "sign")):
     sheet.formula("E%d" % row, call + ';"%s")' % method)
-    check("methods.E%d" % row, "=%s;\"%s\")" % (paired, test), 1e-14,
-          "COMPARE.PAIRED on the cell means matched by hand (generate_blocks.py): the same computation")
+    check("methods.E%d" % row, "=%s;\"%s\")" % (paired, test), 1e-12,
+          "COMPARE.PAIRED on the cell means matched by hand (generate_blocks.py): the same computation; 1e-12 for "
+          "the 15 digits a saved file keeps of the expected cell")
     sheet.formula("F%d" % row, call + ';"%s")' % method)
     check("methods.F%d" % row, two[key]["p"], 1e-9, "SciPy 1.10 ttest_rel / wilcoxon / binomtest on the matched "
           "pairs (generate_blocks.py); 1e-9")
     row += 1
 sheet.formula("E5", call + ';"pooled";"n")')
 check("methods.E5", two["counts"]["n"], None, SRC_COUNT)
-sheet.formula("E6", "VLOOKUP(\"blocks dropped\";%s;\"pooled\";\"table\");2;0)" % call)
+sheet.formula("E6", "INDEX(%s;\"pooled\";\"table\");9;2)" % call)  # row 9: blocks dropped
 check("methods.E6", two["counts"]["blocks dropped"], None, SRC_COUNT)
 
 # --- nested: Sokal & Rohlf's rat livers, and wells with unequal subsamples ------------------------------
@@ -214,11 +212,11 @@ sheet.formula("E3", call + ';"statistic")')
 check("rats.E3", 2.929, 0.0005 / 2.929, "Sokal & Rohlf, Biometry, Box 10.1 (from memory): F from the printed SS, "
       "(1557.56/2)/(797.67/3) = 2.929; half a unit of the last digit")
 sheet.formula("E4", call + ';"report")')
-check("rats.E4", "Nested ANOVA: F(2, 3) = %s, %s (groups tested over 6 units; 36 readings); variance components: "
-      "between groups %s, between units %s, within units %s" % (
+check("rats.E4", "Nested ANOVA: F(2, 3) = %s, %s; variance components: between groups %s, between units %s, "
+      "within units %s (groups tested over 6 units; 36 readings)" % (
           fmt_number(rats["statistic"]), fmt_p(rats["p"]), percent(rats["share between groups"]),
           percent(rats["share between units"]), percent(rats["share within units"])), None,
-      "the report form of src/core/nested.cpp with the generator's values rounded, exact")
+      "the report form of src/core/nested.cpp (rendered by report.cpp) with the generator's values rounded, exact")
 g_order = ["control", "compound 217", "217 + sugar"]
 table = [["quantity", "value"], ["test", "Nested ANOVA (groups over units within groups)"],
          ["statistic", rats["statistic"]], ["df", 2], ["df2", 3], ["p", rats["p"]], ["n", 36], ["n dropped", 0],
@@ -242,9 +240,9 @@ n = len(wells["values"]) + 1
 call = "COMPARE.NESTED([.C1:.C%d];[.A1:.A%d];[.B1:.B%d]" % (n, n, n)
 sheet.formula("E2", call + ")")
 check("wells.E2", wells["p"], 1e-9, SRC_NESTED)
-sheet.formula("E3", "VLOOKUP(\"test on\";%s;\"table\");2;0)" % call)
+sheet.formula("E3", "INDEX(%s;\"table\");11;2)" % call)  # row 11: test on
 check("wells.E3", "unit means: subsample counts differ, so each unit counts once", None, SRC_TEXT)
-sheet.formula("E4", "VLOOKUP(\"share between units\";%s;\"table\");2;0)" % call)
+sheet.formula("E4", "INDEX(%s;\"table\");18;2)" % call)  # row 18: share between units
 check("wells.E4", wells["share between units"], 1e-9, SRC_NESTED)
 sheet.formula("E5", call + ';"effect")')
 check("wells.E5", "unknown output 'effect'; valid: p, statistic, df, df2, n, table, report", None, SRC_TEXT)

@@ -18,7 +18,7 @@ from xml.sax.saxutils import escape, quoteattr
 
 from .cells import cell_address, cell_position
 
-FAMILIES = ("CHECK", "COMPARE", "RELATE", "FIT", "LIMIT", "PLAN", "ADJUST", "DESCRIBE", "ADVISE")
+FAMILIES = ("CHECK", "COMPARE", "RELATE", "TRACK", "FIT", "LIMIT", "PLAN", "ADJUST", "DESCRIBE", "ADVISE")
 _DISPLAY_NAME = re.compile(r"\b(%s)\.([A-Z]+)\(" % "|".join(FAMILIES))
 
 
