@@ -7,7 +7,9 @@
 
 namespace quadrat {
 
-// SplitMix64 (Steele, Lea & Flood 2014, OOPSLA, "Fast splittable pseudorandom number generators").
+// SplitMix64 (Steele, Lea & Flood 2014, OOPSLA, "Fast splittable pseudorandom number generators"):
+// several times faster than std::mt19937_64 for the bootstrap (measured: 2000 resamples of 10⁵
+// values, LIMIT.MEAN).
 struct SplitMix64 {
     std::uint64_t state;
     std::uint64_t operator()() {
