@@ -603,14 +603,19 @@ def stream(office, available):
              % (F, B), "0.0", 6)
     s.sentence("I30", '=COMPARE.GROUPS(%s;%s;"ranks";"report")' % (F, B), 13, 2)
 
-    s.sentence("I33", "Sampling dates are blocks. The four stations were visited on the same ten dates, and each "
-               "date's flow, weather and time of day move all four together (see the chart below). The tests above "
-               "treat every visit as an independent reading of its site, which they are not: the two stations "
-               "of a site are not independent replicates of it, and a date shared by every station is a block. Their "
-               "p-values are therefore likely too small. A comparison of the sites within dates (a block analysis, "
-               "COMPARE.BLOCKS in a later version of Quadrat) is the analysis this design calls for.",
-               13, 5, italic=True)
-    s.caution("I39", "Only two stations per site were sampled, so the difference between sites may be the "
+    A = "$A$1:$A$%d" % last
+    s.label("I33", "Upstream against downstream within sampling dates (COMPARE.BLOCKS: each date a block)", bold=True)
+    s.result("I34", "Oxygen, paired t-test by date, p", "COMPARE.BLOCKS(%s;%s;%s)" % (D, B, A), P, 6)
+    s.result("I35", "EPT larvae, Wilcoxon signed-rank test by date, p", 'COMPARE.BLOCKS(%s;%s;%s;"ranks")' % (F, B, A),
+             P, 6)
+    s.sentence("I36", '=COMPARE.BLOCKS(%s;%s;%s;;"report")' % (D, B, A), 13, 2)
+    s.sentence("I38", '=COMPARE.BLOCKS(%s;%s;%s;"ranks";"report")' % (F, B, A), 13, 2)
+    s.sentence("I40", "Sampling dates are blocks: the four stations were visited on the same ten dates, and each date's "
+               "flow, weather and time of day move all four together (see the chart below). The tests further up treat "
+               "every visit as an independent reading of its site, so their p-values are likely too small. COMPARE.BLOCKS "
+               "compares the sites within each date and averages the two stations of a site first (they are "
+               "subsamples of it, not replicates), so it rests on ten dates, not forty visits.", 13, 4, italic=True)
+    s.caution("I45", "Only two stations per site were sampled, so the difference between sites may be the "
               "difference between these stations.", 13, 4)
 
     # Chart data: the mean oxygen of each site on each date; the Q-Q points of the residuals.
@@ -627,9 +632,9 @@ def stream(office, available):
     q.array("F4", "CHECK.QQ($survey.%s;$survey.%s)" % (D, B), last, 2, bold_header=False)
     q.format("F4:G%d" % (last + 3), "0.00")
     q.widths([1.8, 2.6, 2.9, 2.3, 0.5, 2.4, 2.4])
-    s.chart("dates", "I45", 13.0, 8.0, "A3:C13", "lines", "Mean dissolved oxygen on each sampling date",
+    s.chart("dates", "I50", 13.0, 8.0, "A3:C13", "lines", "Mean dissolved oxygen on each sampling date",
             "sampling date", "oxygen (mg/L)", headers=(True, True), data_sheet=q.sheet, legend=True)
-    s.chart("qq", "Q45", 11.0, 8.0, "F4:G%d" % (last + 3), "scatter",
+    s.chart("qq", "Q50", 11.0, 8.0, "F4:G%d" % (last + 3), "scatter",
             "Normal Q-Q plot of oxygen residuals (CHECK.QQ)", "normal quantile", "residual (mg/L)",
             data_sheet=q.sheet)
     return finish(doc, [s, q], os.path.join(ROOT, "sample_sheets", "stream-survey.fods"))
@@ -649,14 +654,14 @@ def marsh(office, available):
         date = datetime.date(2026, 7, 6 + t // 3 * 2)
         for z, (zone, mean, sd) in enumerate(zones):
             height = round(rng.gauss(mean, sd), 1)
-            rows.append([date, "T%02d-%d" % (t + 1, z + 1), zone, height, None])
+            rows.append([date, "T%02d" % (t + 1), zone, height, None])
     rows[9][3], rows[9][4] = None, "quadrat under water at high tide"
     rows[26][3], rows[26][4] = "n/a", "tallest shoot grazed"
     rows[43][3], rows[43][4] = None, "flag lost, quadrat not found"
     last = 500  # read down to row 500: a new season's rows below are picked up
 
     doc, (s, q) = new_workbook(office, "survey", ["chart data"])
-    s.header("A1", ["date", "quadrat", "zone", "height cm", "note"], wrap=True)
+    s.header("A1", ["date", "transect", "zone", "height cm", "note"], wrap=True)
     s.block("A2", rows)
     s.format("D2:D%d" % last, "0.0")
     s.widths([2.3, 1.8, 2.3, 1.8, 5.6, 0.5, 2.5, 1.0] + [1.6] * 11)
@@ -687,9 +692,14 @@ def marsh(office, available):
     s.result("G21", "Effect size ω²", 'COMPARE.GROUPS(%s;%s;%s;"effect";%s)' % (H, Z, M, T), "0.00", 5)
     s.sentence("G22", '=COMPARE.GROUPS(%s;%s;%s;"report";%s)' % (H, Z, M, T), 13, 2)
     s.caution("G25", "One quadrat per zone on each transect: quadrats of one transect share its exposure and "
-              "are not fully independent.", 13, 3)
+              "are not fully independent; the block analysis below compares the zones within transects.", 13, 3)
+    TR = "$B$1:$B$%d" % last
+    s.label("G29", "Zones compared within transects (COMPARE.BLOCKS: each transect a block)", bold=True)
+    s.result("G30", "Randomized block ANOVA p", "COMPARE.BLOCKS(%s;%s;%s)" % (H, Z, TR), P, 5)
+    s.result("G31", "Effect size, partial η²", 'COMPARE.BLOCKS(%s;%s;%s;;"effect")' % (H, Z, TR), "0.00", 5)
+    s.sentence("G32", '=COMPARE.BLOCKS(%s;%s;%s;;"report")' % (H, Z, TR), 13, 2)
 
-    row = 29
+    row = 35
     letters_block = None
     if "COMPARE.POSTHOC" in available:
         s.label("G%d" % row, "Pairs of zones by the advised post-hoc method: difference in cm with its 95% interval "
