@@ -142,8 +142,6 @@ std::string group_sizes(const Groups& g) {
     return lo == hi ? std::to_string(lo) + " each" : "sizes " + std::to_string(lo) + " to " + std::to_string(hi);
 }
 
-std::string quoted(const std::string& s) { return "'" + s + "'"; }
-
 struct Censoring {
     std::size_t censored = 0, values = 0;  // cells below a limit; those plus the numbers
     std::string first;                     // the first censored cell's text
@@ -394,7 +392,7 @@ void advise_groups(const Range& values, const Range& labels, Advice& advice, con
                 transform = keyword;
                 advice.steps.push_back({"normality", chosen.normal.words + "; after a " + keyword + " transform, " +
                                                          after.normal.words,
-                                        "use transform " + quoted(keyword)});
+                                        "use transform " + in_quotes(keyword)});
                 chosen = std::move(after);
             } else {
                 advice.steps.push_back({"normality", chosen.normal.words + ", and still after a " + keyword +

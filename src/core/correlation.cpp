@@ -11,6 +11,7 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include "data.hpp"
+#include "exact_scaling.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
@@ -32,23 +33,11 @@ void refuse_unusable(std::span<const double> x, std::span<const double> y) {
     if (constant(y)) throw Refusal("y is constant (every used row holds " + format_number(y[0]) + "); a correlation needs spread in both");
 }
 
-// A copy of v divided by the power of two nearest above its largest magnitude (exact, r is scale
-// free): values near 1e308, whose sums overflow, and denormals, whose squares underflow, then
-// keep their r instead of giving p = 0.
-std::vector<double> scaled_to_unit(std::span<const double> v) {
-    double largest = 0.0;
-    for (double a : v) largest = std::max(largest, std::fabs(a));
-    std::vector<double> out(v.begin(), v.end());
-    if (largest == 0.0 || !std::isfinite(largest)) return out;
-    int exponent = 0;
-    std::frexp(largest, &exponent);
-    for (double& a : out) a = std::ldexp(a, -exponent);
-    return out;
-}
-
-// r from centred cross-products, with compensated sums, on the variables scaled to magnitude 1.
+// r from centred cross-products, with compensated sums, on each variable divided by the power of
+// two nearest above its largest magnitude (exact, r is scale free): values near 1e308, whose sums
+// overflow, and denormals, whose squares underflow, then keep their r instead of giving p = 0.
 double pearson_r(std::span<const double> x_data, std::span<const double> y_data) {
-    const std::vector<double> x = scaled_to_unit(x_data), y = scaled_to_unit(y_data);
+    const std::vector<double> x = scaled(x_data, power_of_two_scale(x_data)), y = scaled(y_data, power_of_two_scale(y_data));
     const double mx = mean(x), my = mean(y);
     Accumulator sxy;
     for (std::size_t i = 0; i < x.size(); ++i) sxy.add((x[i] - mx) * (y[i] - my));

@@ -10,6 +10,7 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include "data.hpp"
+#include "exact_scaling.hpp"
 #include "keywords.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
@@ -47,9 +48,6 @@ double sum_of_raw_squares(std::span<const double> xs) {
     for (double v : xs) acc.add(v * v);
     return acc.sum();
 }
-
-// 2^k nearest to x (> 0): scaling by it is exact, so it changes the conditioning, not the data.
-double power_of_two_near(double x) { return std::ldexp(1.0, std::ilogb(x)); }
 
 std::string list_names(const std::vector<std::string>& names, std::size_t count) {
     std::string s;
@@ -173,7 +171,7 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
     std::vector<double> centre(k, 0.0), scale(k, 1.0);
     Matrix design(rows, columns);
     // The intercept's column holds 2^-k near 1/√n, so that every column has a norm from 1 to 2.
-    const double ones = intercept ? 1.0 / power_of_two_near(std::sqrt(static_cast<double>(n))) : 0.0;
+    const double ones = intercept ? 1.0 / power_of_two_below(std::sqrt(static_cast<double>(n))) : 0.0;
     if (intercept) design.col(0).setConstant(ones);
     for (std::size_t j = 0; j < k; ++j) {
         const std::vector<double>& column = predictors[j];
@@ -183,7 +181,7 @@ LinearModel fit_least_squares(std::span<const double> y, const std::vector<std::
             throw Refusal(intercept ? names[j] + " is constant (every used row holds " + format_number(column[0]) +
                                           "); a constant predictor cannot be told apart from the intercept"
                                     : names[j] + " is zero in every used row; it cannot be estimated");
-        scale[j] = power_of_two_near(spread);
+        scale[j] = power_of_two_below(spread);  // exact: changes the conditioning, not the data
         const Eigen::Index jj = offset + static_cast<Eigen::Index>(j);
         for (Eigen::Index i = 0; i < rows; ++i)
             design(i, jj) = (static_cast<Real>(column[static_cast<std::size_t>(i)]) - centre[j]) / scale[j];

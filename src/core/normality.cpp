@@ -10,6 +10,7 @@
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/normal.hpp>
 
+#include "exact_scaling.hpp"
 #include "keywords.hpp"
 #include "refusal.hpp"
 #include "summary.hpp"
@@ -76,10 +77,10 @@ Deviations prepare(std::span<const double> values, std::size_t min_n, std::size_
     // Divided by the power of two that brings the range into [1, 2): exact, and neither 1e300 nor
     // values a few denormals apart leave the ordinary numbers. The mid-range is only a rough centre.
     const double range = highest - lowest;
-    const int exponent = std::isfinite(range) ? std::ilogb(range) : std::ilogb(highest / 2 - lowest / 2) + 1;
-    const double mid_range = lowest / 2 + highest / 2;
+    const int exponent = range_exponent(lowest, highest);
+    const double mid = mid_range(lowest, highest);
     for (double& x : s.sorted)
-        x = std::isfinite(range) ? std::ldexp(x - mid_range, -exponent) : std::ldexp(x, -exponent) - std::ldexp(mid_range, -exponent);
+        x = std::isfinite(range) ? std::ldexp(x - mid, -exponent) : std::ldexp(x, -exponent) - std::ldexp(mid, -exponent);
     const double centre = mean(s.sorted);
     Accumulator squares;
     for (double& x : s.sorted) {
@@ -397,12 +398,7 @@ std::vector<double> residuals_from_group_means(const Groups& groups) {
     residuals.reserve(groups.n_used);
     for (const auto& g : groups.values) {
         if (g.empty()) continue;
-        const auto [lo, hi] = std::minmax_element(g.begin(), g.end());
-        // Mean as mid-range plus the mean deviation from it: no sum of large values can overflow.
-        const double mid = *lo / 2 + *hi / 2;
-        Accumulator deviation;
-        for (double x : g) deviation.add(x - mid);
-        const double centre = mid + deviation.sum() / static_cast<double>(g.size());
+        const double centre = mean_from_mid_range(g);
         for (double x : g) residuals.push_back(x - centre);
     }
     return residuals;

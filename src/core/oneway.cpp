@@ -6,6 +6,8 @@
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/fisher_f.hpp>
 
+#include "exact_scaling.hpp"
+#include "finite_numbers.hpp"
 #include "keywords.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
@@ -27,20 +29,16 @@ ScaledGroups scale_groups(std::span<const std::vector<double>> groups) {
     std::vector<std::span<const double>> views(groups.begin(), groups.end());
     ScaledGroups s;
     s.scale = power_of_two_scale(views);
-    s.groups.assign(groups.begin(), groups.end());
-    for (auto& g : s.groups)
-        for (double& x : g) x *= s.scale;
+    s.groups = scaled(groups, s.scale);
     return s;
 }
 
 void require_k_groups(std::span<const std::vector<double>> groups) {
     if (groups.size() < 2) throw Refusal("needs at least 2 groups, found " + std::to_string(groups.size()));
-    for (std::size_t i = 0; i < groups.size(); ++i) {
-        if (groups[i].size() < 2)
-            throw Refusal("group " + std::to_string(i + 1) + " has " + std::to_string(groups[i].size()) +
-                          " value(s); each group needs at least 2");
-        require_finite(groups[i]);
-    }
+    std::vector<std::string> numbers;  // groups without names are named by their position
+    for (std::size_t i = 0; i < groups.size(); ++i) numbers.push_back(std::to_string(i + 1));
+    require_two_values_per_group(numbers, {groups.begin(), groups.end()});
+    for (const auto& g : groups) require_finite(g);
 }
 
 std::vector<double> group_means(std::span<const std::vector<double>> groups) {
@@ -111,22 +109,33 @@ Interval omega_squared_interval(const AnovaTable& t, double n) {
     return {lambda.low / (lambda.low + n), lambda.high / (lambda.high + n)};
 }
 
-TestResult classic_one_way_anova(std::span<const std::vector<double>> groups) {
-    const AnovaTable t = one_way_anova_table(groups);
+namespace {
+
+// What both one-way ANOVAs give: F with its two df and p, n, and ω² with its interval from the
+// classic table (Welch's test reports the same effect size).
+TestResult one_way_result(const char* test, double f, double df1, double df2, double p,
+                          std::span<const std::vector<double>> groups, const AnovaTable& classic) {
     TestResult r;
-    r.test = "One-way ANOVA";
-    r.add("statistic", t.f)
-        .add("df", t.df_between)
-        .add("df2", t.df_within)
-        .add("p", t.p)
+    r.test = test;
+    r.add("statistic", f)
+        .add("df", df1)
+        .add("df2", df2)
+        .add("p", p)
         .add("n", static_cast<double>(total_count(groups)))
-        .add("effect", omega_squared(t));
+        .add("effect", omega_squared(classic));
     r.words.statistic_symbol = "F";
     r.words.statistic_df = true;
     r.words.effect = "ω²";
-    const Interval omega = omega_squared_interval(t, r.number("n"));
+    const Interval omega = omega_squared_interval(classic, r.number("n"));
     r.add("effect ci-low", omega.low).add("effect ci-high", omega.high);
     return r;
+}
+
+}  // namespace
+
+TestResult classic_one_way_anova(std::span<const std::vector<double>> groups) {
+    const AnovaTable t = one_way_anova_table(groups);
+    return one_way_result("One-way ANOVA", t.f, t.df_between, t.df_within, t.p, groups, t);
 }
 
 TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) {
@@ -173,21 +182,8 @@ TestResult welch_one_way_anova(std::span<const std::vector<double>> raw_groups) 
         throw Refusal("one group's spread is so much smaller than the others' that Welch's df cannot be computed; use method 'pooled' or 'ranks'");
     const boost::math::fisher_f dist(k - 1, df2);
 
-    const AnovaTable classic = one_way_anova_table(raw_groups);
-    TestResult r;
-    r.test = "Welch's one-way ANOVA";
-    r.add("statistic", f)
-        .add("df", k - 1)
-        .add("df2", df2)
-        .add("p", cdf(complement(dist, f)))
-        .add("n", static_cast<double>(total_count(raw_groups)))
-        .add("effect", omega_squared(classic));
-    r.words.statistic_symbol = "F";
-    r.words.statistic_df = true;
-    r.words.effect = "ω²";
-    const Interval omega = omega_squared_interval(classic, r.number("n"));
-    r.add("effect ci-low", omega.low).add("effect ci-high", omega.high);
-    return r;
+    return one_way_result("Welch's one-way ANOVA", f, k - 1, df2, cdf(complement(dist, f)), raw_groups,
+                          one_way_anova_table(raw_groups));
 }
 
 TestResult kruskal_wallis_test(std::span<const std::vector<double>> groups) {
@@ -253,10 +249,7 @@ TestResult compare_groups(const Groups& g, const std::string& method_given, Tran
     if (k < 2)
         throw Refusal("needs at least 2 groups, found 1 (" + (k ? g.names[0] : std::string("none")) +
                       "); give group labels in groups, or two or more columns of values");
-    for (std::size_t i = 0; i < k; ++i)
-        if (g.values[i].size() < 2)
-            throw Refusal("group '" + g.names[i] + "' has " + std::to_string(g.values[i].size()) +
-                          (g.values[i].size() == 1 ? " value" : " values") + "; each group needs at least 2");
+    require_two_values_per_group(g.names, g.values);
     std::vector<std::vector<double>> values = g.values;
     apply_transform(transform, values);
     const bool ranks = method == "ranks";

@@ -10,6 +10,8 @@
 
 #include "data.hpp"
 #include "effect_interval.hpp"
+#include "exact_scaling.hpp"
+#include "finite_numbers.hpp"
 #include "hodges_lehmann.hpp"
 #include "keywords.hpp"
 #include "ranks.hpp"
@@ -96,10 +98,8 @@ std::vector<double> signed_rank_null_distribution(std::size_t n) {
 TestResult paired_t_test(std::span<const double> differences_raw, double level, bool one_sample) {
     if (differences_raw.size() < 2)
         throw Refusal("needs at least 2 pairs, found " + std::to_string(differences_raw.size()));
-    const std::span<const double> views[] = {differences_raw};
-    const double scale = power_of_two_scale(views);
-    std::vector<double> d(differences_raw.begin(), differences_raw.end());
-    for (double& x : d) x *= scale;
+    const double scale = power_of_two_scale(differences_raw);
+    const std::vector<double> d = scaled(differences_raw, scale);
     const double n = static_cast<double>(d.size());
     const double m = mean(d);
     const double sd = std::sqrt(sum_of_squares(d, m) / (n - 1));

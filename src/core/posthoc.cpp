@@ -6,6 +6,7 @@
 
 #include <boost/math/distributions/normal.hpp>
 
+#include "exact_scaling.hpp"
 #include "keywords.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
@@ -43,8 +44,6 @@ namespace {
 
 using GroupValues = std::vector<std::vector<double>>;
 
-std::string quoted(const std::string& name) { return "'" + name + "'"; }
-
 // Every pair (i, j), i < j, in the catalogue's order (1,2), (1,3), …, (2,3), …
 std::vector<PairComparison> all_pairs(std::size_t k) {
     std::vector<PairComparison> pairs;
@@ -64,13 +63,6 @@ std::vector<PairComparison> all_pairs(std::size_t k) {
 double common_scale(const GroupValues& x) {
     std::vector<std::span<const double>> spans(x.begin(), x.end());
     return power_of_two_scale(spans);
-}
-
-GroupValues scaled(const GroupValues& x, double scale) {
-    GroupValues out = x;
-    for (auto& g : out)
-        for (double& v : g) v *= scale;
-    return out;
 }
 
 // A difference of transformed means (or its limit) back on the data's scale: a ratio for the logs.
@@ -120,7 +112,7 @@ void games_howell(const Groups& g, const GroupValues& raw, Transform t, double l
     std::vector<double> means(k), spread(k);  // spread: s²/n
     for (std::size_t i = 0; i < k; ++i) {
         if (x[i].size() < 2)
-            throw Refusal("games-howell needs at least 2 values in each group; " + quoted(g.names[i]) + " has " +
+            throw Refusal("games-howell needs at least 2 values in each group; " + in_quotes(g.names[i]) + " has " +
                           std::to_string(x[i].size()));
         means[i] = mean(x[i]);
         spread[i] = sum_of_squares(x[i], means[i]) / (x[i].size() - 1.0) / x[i].size();
@@ -129,7 +121,7 @@ void games_howell(const Groups& g, const GroupValues& raw, Transform t, double l
         const double a = spread[c.first], b = spread[c.second];
         const double se2 = a + b;
         if (!(se2 > 0.0) || !std::isfinite(se2))
-            throw Refusal("groups " + quoted(g.names[c.first]) + " and " + quoted(g.names[c.second]) +
+            throw Refusal("groups " + in_quotes(g.names[c.first]) + " and " + in_quotes(g.names[c.second]) +
                           " both have zero spread; games-howell needs spread within groups (try dunn)");
         const double df = se2 * se2 / (a * a / (x[c.first].size() - 1.0) + b * b / (x[c.second].size() - 1.0));
         const double se = std::sqrt(0.5 * se2);  // on the scale of q: √2 |t| = |d| / √(se2/2)
@@ -183,7 +175,7 @@ void pairwise_tests(const Groups& g, const GroupValues& x, PosthocMethod method,
     for (std::size_t i = 0; i < x.size(); ++i)
         if (x[i].size() < 2)
             throw Refusal(posthoc_methods().words()[static_cast<std::size_t>(method)].word +
-                          " needs at least 2 values in each group; " + quoted(g.names[i]) + " has " +
+                          " needs at least 2 values in each group; " + in_quotes(g.names[i]) + " has " +
                           std::to_string(x[i].size()));
     for (auto& c : pairs) {
         const TestResult r = method == PosthocMethod::pairwise_t ? welch_t_test(x[c.first], x[c.second], level)
@@ -221,7 +213,7 @@ PosthocResult compare_posthoc(const Groups& groups, PosthocMethod method, std::o
     // A wide-format column of text only is a group without values: no pair with it has a statistic.
     for (std::size_t i = 0; i < k; ++i)
         if (groups.values[i].empty())
-            throw Refusal("group " + quoted(groups.names[i]) + " has no values; every group needs at least 1");
+            throw Refusal("group " + in_quotes(groups.names[i]) + " has no values; every group needs at least 1");
     if (k < 2)
         throw Refusal("pairwise comparisons need at least 2 groups, found " + std::to_string(k) +
                       "; give group labels beside the values");

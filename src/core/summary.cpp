@@ -49,6 +49,16 @@ double mean(std::span<const double> xs) {
     return std::ldexp(mean_scaled_down(xs, e), e);
 }
 
+double mid_range(double lowest, double highest) { return lowest / 2 + highest / 2; }
+
+double mean_from_mid_range(std::span<const double> xs) {
+    const auto [lowest, highest] = std::minmax_element(xs.begin(), xs.end());
+    const double mid = mid_range(*lowest, *highest);
+    Accumulator deviation;
+    for (double x : xs) deviation.add(x - mid);
+    return mid + deviation.sum() / static_cast<double>(xs.size());
+}
+
 double sum_of_squares(std::span<const double> xs, double centre) {
     Accumulator squares, deviations;
     for (double x : xs) {

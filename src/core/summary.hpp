@@ -29,6 +29,12 @@ double sum_of_squares(std::span<const double> xs, double centre);
 double variance(std::span<const double> xs);
 double standard_deviation(std::span<const double> xs);
 
+// (lowest + highest)/2, each halved first so that the sum cannot overflow.
+double mid_range(double lowest, double highest);
+// The mean as the mid-range plus the compensated mean deviation from it: no sum of large values
+// can overflow. `xs` must not be empty.
+double mean_from_mid_range(std::span<const double> xs);
+
 // Median and type-7 quantile (linear interpolation between order statistics; Hyndman & Fan 1996,
 // Am. Statistician 50, 361–365). `sorted` must be sorted ascending.
 double median_of_sorted(std::span<const double> sorted);

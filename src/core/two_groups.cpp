@@ -9,6 +9,8 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include "effect_interval.hpp"
+#include "exact_scaling.hpp"
+#include "finite_numbers.hpp"
 #include "hodges_lehmann.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
@@ -41,12 +43,6 @@ void require_two_values(std::span<const double> first, std::span<const double> s
                       std::to_string(second.size()));
     require_finite(first);
     require_finite(second);
-}
-
-std::vector<double> scaled(std::span<const double> xs, double scale) {
-    std::vector<double> out(xs.begin(), xs.end());
-    for (double& x : out) x *= scale;
-    return out;
 }
 
 double two_sided_t_p(double t, double df) {
@@ -106,35 +102,6 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
 }
 
 }  // namespace
-
-void require_finite(std::span<const double> values) {
-    for (double x : values)
-        if (!std::isfinite(x)) throw Refusal("a value is not a finite number; remove infinities and NaN from the data");
-}
-
-double require_finite_statistic(double statistic, const char* name) {
-    if (!std::isfinite(statistic))
-        throw Refusal(std::string("the statistic ") + name +
-                      " is beyond the range of numbers: the spread is too small against the difference to test");
-    return statistic;
-}
-
-void mark_non_finite(TestResult& result) {
-    for (auto& q : result.quantities)
-        if (const double* x = std::get_if<double>(&q.value); x && !std::isfinite(*x))
-            q.value = std::string(std::isnan(*x) ? "not defined for these data" : "beyond the range of numbers");
-}
-
-double power_of_two_scale(std::span<const std::span<const double>> groups) {
-    double largest = 0;
-    for (const auto& g : groups)
-        for (double x : g) largest = std::max(largest, std::fabs(x));
-    if (largest == 0 || !std::isfinite(largest)) return 1.0;
-    int exponent = 0;
-    std::frexp(largest, &exponent);
-    // Clamped so that the scale and its square's reciprocal stay normal numbers (denormal data).
-    return std::ldexp(1.0, std::clamp(-exponent, -1000, 1000));
-}
 
 EffectWithInterval hedges_g(std::span<const double> first_raw, std::span<const double> second_raw, double level) {
     const std::span<const double> both[] = {first_raw, second_raw};

@@ -6,6 +6,8 @@
 #include <span>
 #include <vector>
 
+#include "exact_scaling.hpp"   // still visible here for the files that took power_of_two_scale from this header
+#include "finite_numbers.hpp"  // likewise require_finite, require_finite_statistic, mark_non_finite
 #include "result.hpp"
 
 namespace quadrat {
@@ -36,20 +38,5 @@ EffectWithInterval hedges_g(std::span<const double> first, std::span<const doubl
 // Exact null distribution of U for group sizes m and n without ties: P(U = u), u = 0..mn.
 // Bounded: only called for m, n < 50 (at most 2401 + 1 values, about 1.5 million additions).
 std::vector<double> rank_sum_null_distribution(std::size_t m, std::size_t n);
-
-// Refuses infinities and NaN (the data layer never passes them; direct callers might).
-void require_finite(std::span<const double> values);
-
-// The statistic itself, or a refusal when it overflowed (a spread within groups that is tiny
-// against the difference between them, beyond the range of a double).
-double require_finite_statistic(double statistic, const char* name);
-
-// Replaces every non-finite number of a result (an estimate beyond the range of numbers after
-// back-transformation, say) by a text saying so, so that no table cell carries inf or NaN.
-void mark_non_finite(TestResult& result);
-
-// A power of two that brings the largest |x| near 1: multiplying by it is exact, and keeps sums of
-// squares of huge (1e200) or tiny (1e-200) measurements inside the range of a double.
-double power_of_two_scale(std::span<const std::span<const double>> groups);
 
 }  // namespace quadrat

@@ -10,6 +10,7 @@
 #include <boost/math/distributions/fisher_f.hpp>
 #include <boost/math/distributions/normal.hpp>
 
+#include "exact_scaling.hpp"
 #include "keywords.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
@@ -26,17 +27,6 @@ double upper_chi_squared(double x, double df) {
     return boost::math::cdf(boost::math::complement(boost::math::chi_squared(df), x));
 }
 
-std::string quoted(const std::string& name) { return "'" + name + "'"; }
-
-// A group's mean as mid-range plus the mean deviation from it: no sum of large values can overflow.
-double group_mean(const std::vector<double>& g) {
-    const auto [lo, hi] = std::minmax_element(g.begin(), g.end());
-    const double mid = *lo / 2 + *hi / 2;
-    Accumulator deviation;
-    for (double x : g) deviation.add(x - mid);
-    return mid + deviation.sum() / static_cast<double>(g.size());
-}
-
 // ln s² of one group (denominator n − 1), computed on the group shifted to its own mid-range and
 // divided by its own range, so that neither 1e300 nor 1e-300 over- or underflows; −∞ when the
 // group has no spread. Each group keeps its own digits, whatever the other groups hold.
@@ -46,7 +36,7 @@ double log_variance(const std::vector<double>& g) {
     // The range, or half of it when the range itself would overflow; never zero for distinct values.
     const bool near_overflow = !std::isfinite(*hi - *lo);
     const double scale = near_overflow ? *hi / 2 - *lo / 2 : *hi - *lo;
-    const double mid = *lo / 2 + *hi / 2;
+    const double mid = mid_range(*lo, *hi);
     std::vector<double> y(g);
     for (double& x : y) x = near_overflow ? x / scale - mid / scale : (x - mid) / scale;
     return std::log(variance(y)) + 2 * std::log(scale);
@@ -62,10 +52,9 @@ std::vector<std::vector<double>> rescaled_groups(const Groups& groups) {
             lowest = std::min(lowest, x);
             highest = std::max(highest, x);
         }
-    const double range = highest - lowest;
-    const int exponent = std::isfinite(range) ? std::ilogb(range) : std::ilogb(highest / 2 - lowest / 2) + 1;
     std::vector<std::vector<double>> y(groups.values);
-    if (range == 0) return y;  // no spread at all: refused by the caller
+    if (highest == lowest) return y;  // no spread at all: refused by the caller
+    const int exponent = range_exponent(lowest, highest);
     for (auto& g : y)
         for (double& x : g) x = std::ldexp(x, -exponent);
     return y;
@@ -77,7 +66,7 @@ std::vector<std::vector<double>> absolute_deviations(const std::vector<std::vect
     std::vector<std::vector<double>> z(groups.size());
     for (std::size_t i = 0; i < z.size(); ++i) {
         const std::vector<double>& g = groups[i];
-        const double centre = from_median ? median(g) : group_mean(g);
+        const double centre = from_median ? median(g) : mean_from_mid_range(g);
         for (double x : g) z[i].push_back(std::fabs(x - centre));
     }
     return z;
@@ -134,14 +123,10 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
     if (groups.n_used == 0) throw Refusal(no_usable_rows(groups));
     if (k < 2) throw Refusal(labels_are + "; comparing spreads needs 2 or more groups");
     if (m == "f-ratio" && k != 2) throw Refusal(labels_are + "; method 'f-ratio' compares exactly 2");
-    for (std::size_t i = 0; i < k; ++i) {
-        const std::size_t size = groups.values[i].size();
-        if (size < 2)
-            throw Refusal("group " + quoted(groups.names[i]) + " has " + std::to_string(size) + (size == 1 ? " value" : " values") +
-                          "; each group needs at least 2");
+    require_two_values_per_group(groups.names, groups.values);
+    for (std::size_t i = 0; i < k; ++i)
         for (double x : groups.values[i])
             if (!std::isfinite(x)) throw Refusal("values must be finite numbers");
-    }
     std::vector<double> log_variances(k);
     for (std::size_t i = 0; i < k; ++i) log_variances[i] = log_variance(groups.values[i]);
     if (std::all_of(log_variances.begin(), log_variances.end(), [](double v) { return v == -HUGE_VAL; }))
@@ -149,7 +134,7 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
     auto zero_spread = [&](const std::string& why) {
         for (std::size_t i = 0; i < k; ++i)
             if (log_variances[i] == -HUGE_VAL)
-                throw Refusal("group " + quoted(groups.names[i]) + " has zero spread (all values equal), so " + why);
+                throw Refusal("group " + in_quotes(groups.names[i]) + " has zero spread (all values equal), so " + why);
     };
 
     TestResult r;
@@ -248,7 +233,7 @@ TestResult check_variance(const Groups& groups, const std::string& method) {
     else if (*smallest > -HUGE_VAL)
         r.add("variance ratio", std::string("too large to show (beyond the largest number)"));
     else
-        r.add("variance ratio", std::string("undefined: group " + quoted(groups.names[smallest - log_variances.begin()]) +
+        r.add("variance ratio", std::string("undefined: group " + in_quotes(groups.names[smallest - log_variances.begin()]) +
                                             " has zero variance"));
     // n after p, as in CHECK.NORMAL's sentence: χ² df (Bartlett, Fligner) do not show it.
     r.words.shown = true;
