@@ -31,6 +31,31 @@ const KeywordTable& censored_test_methods() {
     return t;
 }
 
+const KeywordTable& censored_test_outputs() {
+    static const KeywordTable t{"censored test outputs",
+                                {{"p", "the p-value"},
+                                 {"statistic", "χ² on k − 1 df"},
+                                 {"df", "degrees of freedom, k − 1"},
+                                 {"n", "observations used"},
+                                 {"table", "the whole result as an array, with per-group medians"},
+                                 {"report", "one sentence"}}};
+    return t;
+}
+
+CensoredGroups censored_groups(const Groups& groups) {
+    CensoredGroups out;
+    out.names = groups.names;
+    out.n_dropped = groups.n_dropped;
+    out.values.resize(groups.values.size());
+    for (std::size_t g = 0; g < groups.values.size(); ++g) {
+        const auto& flags = groups.censored.size() > g ? groups.censored[g] : std::vector<bool>{};
+        out.values[g].reserve(groups.values[g].size());
+        for (std::size_t i = 0; i < groups.values[g].size(); ++i)
+            out.values[g].push_back({groups.values[g][i], i < flags.size() && flags[i]});
+    }
+    return out;
+}
+
 std::size_t CensoredGroups::n_used() const {
     std::size_t n = 0;
     for (const auto& g : values) n += g.size();
@@ -418,17 +443,19 @@ Table describe_censored(const CensoredGroups& groups, const std::string& method_
 
 namespace {
 
-// The report sentence of COMPARE.CENSORED (kept in one function so that it can move to the shared
-// report renderer): test, groups and share censored, χ²(df), p, then the Kaplan–Meier medians.
-std::string censored_report(const TestResult& r, const CensoredGroups& groups, std::size_t censored,
-                            const std::vector<std::string>& medians) {
-    const std::size_t n = groups.n_used();
-    std::string s = r.test + " (" + std::to_string(groups.names.size()) + " groups, " + std::to_string(censored) + " of " +
-                    std::to_string(n) + " values below a detection limit): χ²(" + format_df(r.number("df")) +
-                    ") = " + format_number(r.number("statistic")) + ", " + format_p(r.number("p")) +
-                    "; Kaplan–Meier medians ";
-    for (std::size_t g = 0; g < medians.size(); ++g) s += (g ? ", " : "") + groups.names[g] + " " + medians[g];
-    return s;
+// What a blank median is known to lie below, for the sentence: with no detect, the highest limit;
+// a median below the lowest limit, that limit; a median in the mass the Kaplan–Meier curve leaves
+// below the smallest detect, the highest limit at or below that detect (every value carrying that
+// mass is below its own limit, and those limits are at most that one).
+double median_bound(std::span<const CensoredValue> values, const GroupSummary& s, bool determined) {
+    if (s.censored == s.n) return s.highest_limit;
+    if (determined) return s.lowest_limit;
+    double smallest = HUGE_VAL, bound = -HUGE_VAL;
+    for (const auto& v : values)
+        if (!v.censored) smallest = std::min(smallest, v.value);
+    for (const auto& v : values)
+        if (v.censored && v.value <= smallest) bound = std::max(bound, v.value);
+    return bound;
 }
 
 }  // namespace
@@ -570,24 +597,28 @@ TestResult compare_censored(const CensoredGroups& groups, const std::string& met
         .add("p", boost::math::cdf(boost::math::complement(boost::math::chi_squared(df), statistic)))
         .add("n", static_cast<double>(groups.n_used()))
         .add("n dropped", static_cast<double>(groups.n_dropped));
-    std::vector<std::string> medians;
     for (std::size_t g = 0; g < k; ++g) {
         const auto& values = groups.values[g];
         const GroupSummary s = summarise(values);
         r.add(groups.names[g] + ": n", static_cast<double>(s.n));
         r.add(groups.names[g] + ": censored", static_cast<double>(s.censored));
-        std::optional<double> median;
-        if (s.censored < s.n) median = percentile_shown(s, kaplan_meier_quantile(kaplan_meier_left(values), 0.5));
-        if (median) {
+        std::optional<double> estimate;
+        if (s.censored < s.n) estimate = kaplan_meier_quantile(kaplan_meier_left(values), 0.5);
+        if (const std::optional<double> median = percentile_shown(s, estimate)) {
             r.add(groups.names[g] + ": median", *median);
-            medians.push_back(format_number(*median));
         } else {
-            // Undetermined or below the lowest limit: blank in the table, "<limit" in the sentence.
+            // Undetermined or below the lowest limit: blank in the table, "<bound" in the sentence.
             r.quantities.push_back({groups.names[g] + ": median", std::monostate{}});
-            medians.push_back(limit_text(s.lowest_limit));
+            r.unlisted.push_back({groups.names[g] + ": median bound", limit_text(median_bound(values, s, estimate.has_value()))});
         }
     }
-    r.report = censored_report(r, groups, total_censored, medians);
+    r.words.shown = true;
+    r.words.statistic_symbol = "χ²";
+    r.words.statistic_df = true;
+    r.words.per_group = "Kaplan–Meier medians";
+    r.words.per_group_quantity = "median";
+    r.words.closing = count_of(k, "group") + "; " + std::to_string(total_censored) + " of " +
+                      std::to_string(groups.n_used()) + " values below a detection limit";
     return r;
 }
 

@@ -22,9 +22,13 @@
 
 namespace quadrat {
 
-// DESCRIBE.CENSORED's and COMPARE.CENSORED's methods (keyword tables, keywords.hpp).
+struct Groups;
+
+// DESCRIBE.CENSORED's and COMPARE.CENSORED's methods and COMPARE.CENSORED's outputs (keyword
+// tables, keywords.hpp).
 const KeywordTable& censored_summary_methods();
 const KeywordTable& censored_test_methods();
+const KeywordTable& censored_test_outputs();
 
 // One observation: a measured value, or (censored) a value known only to lie below `value`, its
 // detection limit.
@@ -41,6 +45,10 @@ struct CensoredGroups {
 
     std::size_t n_used() const;
 };
+
+// The groups as the data layer read them with read_censored_groups (a limit as its value, with
+// its flag).
+CensoredGroups censored_groups(const Groups& groups);
 
 // The Kaplan–Meier estimate of the distribution of left-censored values (Kaplan & Meier 1958,
 // JASA 53, 457–481, on the flipped values). Steps at the distinct detected values, largest first.
@@ -83,7 +91,8 @@ Table describe_censored(const CensoredGroups& groups, const std::string& method,
 
 // COMPARE.CENSORED: the generalized Wilcoxon score test for two or more groups, `peto-prentice`
 // (default) or `gehan`: statistic (χ², k − 1 df), df, p, n, n dropped, per group n, censored and
-// the Kaplan–Meier median; the report sentence.
+// the Kaplan–Meier median (blank below the lowest limit or where it is undetermined); the report
+// sentence's words, with the bound of a blank median ("<0.5").
 TestResult compare_censored(const CensoredGroups& groups, const std::string& method);
 
 }  // namespace quadrat

@@ -137,6 +137,20 @@ std::string render_report(const TestResult& r) {
         if (const std::string* text = v ? std::get_if<std::string>(v) : nullptr) value = *text;
         s += "; " + w.extra + " " + value;
     }
+    if (!w.per_group.empty()) {
+        const std::string suffix = ": " + w.per_group_quantity;
+        std::string list;
+        for (const auto& q : r.quantities) {
+            if (q.label.size() <= suffix.size() || q.label.compare(q.label.size() - suffix.size(), suffix.size(), suffix) != 0)
+                continue;
+            std::string value = "undetermined";
+            if (const double* x = std::get_if<double>(&q.value)) value = format_number(*x);
+            else if (const CellValue* bound = r.find(q.label + " bound"); bound && std::holds_alternative<std::string>(*bound))
+                value = std::get<std::string>(*bound);
+            list += (list.empty() ? "" : ", ") + q.label.substr(0, q.label.size() - suffix.size()) + " " + value;
+        }
+        s += "; " + w.per_group + " " + list;
+    }
     if (!w.closing.empty()) s += " (" + w.closing + ")";
     return s;
 }

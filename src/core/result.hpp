@@ -20,7 +20,7 @@ struct Quantity {
 // The words of a result's `report` sentence; every number in it is one of the result's named
 // quantities, formatted by report.hpp. The form, filled in by report.cpp:
 //   <test>: [<lead> = r (CI),] <statistic>(df, df2) = x, p[, n = N][; <estimate> e (<direction>; CI)]
-//   [, <effect> = g][; <extra words> v]
+//   [, <effect> = g][; <extra words> v][; <per-group words> group v, …][ (<closing>)]
 struct ReportWords {
     bool shown = false;          // false: the function has no sentence
     // A number named before the statistic, with its interval where it has one: `r`, `R²`, `τ`.
@@ -37,6 +37,10 @@ struct ReportWords {
     std::string direction;         // "riffle − pool"; empty: none
     std::string effect;            // "Hedges' g", "ω²", "φ"; empty: none
     std::string extra, extra_quantity;  // "largest variance over smallest", "variance ratio"
+    // One value per group after those: "; Kaplan–Meier medians upstream 0.70, pond <0.5", from the
+    // quantities labelled "<group>: <per_group_quantity>" in table order; a blank one shows the
+    // text of the unlisted quantity "<group>: <per_group_quantity> bound" ("<0.5").
+    std::string per_group, per_group_quantity;
     std::string note;              // in place of the statistic part when the numbers are not defined
     std::string closing;           // design words in parentheses at the end: "(4 groups; 4 blocks used)"
     std::string title;             // the sentence's title when it is shorter than the test's name
@@ -49,7 +53,7 @@ struct TestResult {
     std::vector<Quantity> unlisted;    // named numbers the sentence uses that the table does not list
     ReportWords words;                 // the report sentence's words
     // A whole sentence built by a family that is not yet on ReportWords (COMPARE.NESTED,
-    // *.CENSORED, LIMIT.*, CHECK.OUTLIERS); render_report uses it only when `words` is not shown.
+    // LIMIT.*, CHECK.OUTLIERS); render_report uses it only when `words` is not shown.
     std::string report;
 
     TestResult& add(std::string label, double value);

@@ -10,6 +10,7 @@
 
 #include "core/censored.hpp"
 #include "core/refusal.hpp"
+#include "core/report.hpp"
 #include "reference.hpp"
 
 namespace quadrat {
@@ -262,9 +263,37 @@ TEST(CensoredCompare, TableAndReport) {
     EXPECT_EQ(r.number("upstream: median"), 0.7);
     // pond by the same sweep: 4.1, 3.4, 2.9, 2.6, 2.0 leave 6/11 > 0.5, 1.8 gives 5/11: median 1.8.
     EXPECT_EQ(r.number("pond: median"), 1.8);
-    EXPECT_EQ(r.report.rfind("Peto–Prentice generalized Wilcoxon test (3 groups, 8 of 30 values below a detection limit): χ²(2) = ", 0), 0u)
-        << r.report;
-    EXPECT_NE(r.report.find("Kaplan–Meier medians upstream 0.70, pond 1.80, outfall "), std::string::npos) << r.report;
+    // The sentence through the renderer: the catalogue's report form, numbers by its rules.
+    const std::string report = render_report(r);
+    EXPECT_EQ(report, "Peto–Prentice generalized Wilcoxon test: χ²(2) = " + format_number(r.number("statistic")) + ", " +
+                          format_p(r.number("p")) +
+                          "; Kaplan–Meier medians upstream 0.70, pond 1.80, outfall " +
+                          format_number(r.number("outfall: median")) +
+                          " (3 groups; 8 of 30 values below a detection limit)");
+    EXPECT_TRUE(r.report.empty());
+}
+
+// A blank median in the table, and what the sentence says it lies below (worked by hand):
+// A {<1 ×3, <2, 0.6, 1.5, 3}: the Kaplan–Meier median 0.6 is below the lowest limit 1 (see
+// MoreThanHalfCensoredBlanksTheMean): "<1". B {<0.5, <0.8 ×2, 0.9, 2}: from the top, P̂(X < 2) =
+// 4/5, P̂(X < 0.9) = 4/5 · 3/4 = 3/5 > 1/2, and the rest of the mass lies below the smallest detect
+// 0.9, on the values <0.5, <0.8, <0.8: the median is below 0.8, the highest limit at or below 0.9.
+// C {<1, <2}: no detect, every value is below 2.
+TEST(CensoredCompare, BlankMediansAndTheirBounds) {
+    const CensoredGroups g{{"A", "B", "C"},
+                           {{lt(1), lt(1), lt(1), lt(2), at(0.6), at(1.5), at(3)},
+                            {lt(0.5), lt(0.8), lt(0.8), at(0.9), at(2)},
+                            {lt(1), lt(2)}},
+                           0};
+    const TestResult r = compare_censored(g, "gehan");
+    for (const char* median : {"A: median", "B: median", "C: median"}) EXPECT_TRUE(blank(*r.find(median))) << median;
+    const std::string report = render_report(r);
+    EXPECT_EQ(report.rfind("Gehan's generalized Wilcoxon test: χ²(2) = ", 0), 0u) << report;
+    EXPECT_NE(report.find("; Kaplan–Meier medians A <1, B <0.8, C <2 (3 groups; 9 of 14 values below a detection limit)"),
+              std::string::npos)
+        << report;
+    // The table lists the blank medians, not their bounds.
+    for (const auto& row : r.table()) EXPECT_EQ(std::get<std::string>(row[0]).find("bound"), std::string::npos);
 }
 
 // ---------------------------------------------------------------------------------------------

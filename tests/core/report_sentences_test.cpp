@@ -505,13 +505,43 @@ TEST(ReportSentence, OverTimeBlocksNested) {
 
 // ---------------------------------------------------------------- coverage and refusals
 
+// ---------------------------------------------------------------- COMPARE.CENSORED
+
+// Dissolved lead (µg/L) upgradient and downgradient of a landfill, "<1" below the lab's limit
+// (report_scenarios.py LEAD_UP, LEAD_DOWN), long format under headers.
+LongTable lead_wells() {
+    const std::vector<std::pair<std::string, std::vector<const char*>>> wells = {
+        {"upgradient", {"<1", "0.6", "<0.5", "1.2", "<1", "0.8", "1.5", "<0.5", "0.9", "2.1"}},
+        {"downgradient", {"1.4", "<1", "2.6", "1.9", "3.3", "<0.5", "2.2", "1.1", "4.0"}}};
+    std::vector<Cell> values{txt("lead")};
+    std::vector<std::string> labels{"well"};
+    for (const auto& [well, cells] : wells)
+        for (const char* c : cells) {
+            values.push_back(c[0] == '<' ? txt(c) : num(std::stod(c)));
+            labels.push_back(well);
+        }
+    return {block(values.size(), 1, values, 0, 1), Range::text_column(labels)};
+}
+
+TEST(ReportSentence, Censored) {
+    const LongTable t = lead_wells();
+    expect_sentence(call("compareCensored", {t.values, t.groups, omitted, keyword("report")}),
+                    "Peto–Prentice generalized Wilcoxon test: χ²(1) = 4.22, p = 0.040; Kaplan–Meier medians upgradient "
+                    "0.80, downgradient 1.90 (2 groups; 6 of 19 values below a detection limit)",
+                    "censored", "lead peto-prentice");
+    expect_sentence(call("compareCensored", {t.values, t.groups, keyword("gehan"), keyword("report")}),
+                    "Gehan's generalized Wilcoxon test: χ²(1) = 4.62, p = 0.032; Kaplan–Meier medians upgradient 0.80, "
+                    "downgradient 1.90 (2 groups; 6 of 19 values below a detection limit)",
+                    "censored", "lead gehan");
+}
+
 // Every function whose wizard text offers `report` is exercised above.
 TEST(ReportSentence, EveryFunctionWithReportIsCovered) {
     const std::set<std::string> covered = {"COMPARE.GROUPS", "COMPARE.PAIRED", "CHECK.NORMAL",       "CHECK.VARIANCE",
                                            "COMPARE.COUNTS", "COMPARE.EXPECTED", "RELATE.CORRELATION", "FIT.LINEAR",
                                            "ADVISE.TEST",    "LIMIT.MEAN",       "LIMIT.EXCEEDANCE",   "LIMIT.TOLERANCE",
                                            "LIMIT.PERCENTILE", "LIMIT.PREDICTION", "CHECK.OUTLIERS",
-                                           "TRACK.TREND",      "COMPARE.BLOCKS",   "COMPARE.NESTED"};
+                                           "TRACK.TREND",      "COMPARE.BLOCKS",   "COMPARE.NESTED",   "COMPARE.CENSORED"};
     for (const Function* f : registry()) {
         for (const Argument& a : f->arguments) {
             if (a.keywords && a.name == "output" && a.keywords->contains("report")) {

@@ -16,7 +16,7 @@ number of a sentence is traced to a library value computed independently of the 
 Sources, per method: scipy.stats (ttest_ind, mannwhitneyu, f_oneway, kruskal, wilcoxon,
 binomtest, levene, bartlett, fligner, normaltest, jarque_bera, chi2_contingency, fisher_exact,
 chisquare, pearsonr, spearmanr, kendalltau), statsmodels (anova_oneway for Welch's ANOVA,
-normal_ad, lilliefors, OLS); and where no library has the method, the published formula in plain
+normal_ad, lilliefors, OLS, survdiff and SurvfuncRight on flipped values for the censored tests); and where no library has the method, the published formula in plain
 Python or mpmath, reused from the other generators: Hedges' g, ω², ε², Hodges–Lehmann
 intervals (generate_compare.py), Shapiro–Wilk and Shapiro–Francia by Royston (1995, 1993) in
 mpmath (generate_normality.py), Freeman–Halton in exact fractions (generate_categorical.py).
@@ -37,13 +37,14 @@ import statsmodels.api as sm
 from statsmodels.stats.diagnostic import lilliefors, normal_ad
 
 from generate_categorical import freeman_halton_p
+from generate_censored import km_reference, parse, survdiff_reference
 from generate_compare import k_reference, paired_reference, rank_sum_reference, t_reference
 from generate_limits import AMMONIA, ROSNER, esd_steps
 from generate_normality import royston_shapiro_francia, royston_shapiro_wilk
 from quadrat_sheets.report_numbers import fmt_df, fmt_number, fmt_p
 from quadrat_sheets.report_scenarios import (  # invented field scenarios, one comment each there
     RIFFLE, POOL, GRAVEL, SILT, FOREST, PASTURE, CROPLAND, ABOVE, BELOW, PH, SPRINGS, MAYFLY,
-    NESTS, NEWTS, WIDTH, CANOPY, TRAPS, CRAYFISH, WILLOW)
+    NESTS, NEWTS, WIDTH, CANOPY, TRAPS, CRAYFISH, WILLOW, LEAD_UP, LEAD_DOWN)
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 
@@ -359,6 +360,21 @@ def over_time_cases():
     return out
 
 
+def censored_cases():
+    # statsmodels 0.13 survdiff on the flipped values (generate_censored.py: "fh" with fh_p=1 for
+    # peto-prentice, "gb" for gehan) and the Kaplan-Meier medians from SurvfuncRight's curve.
+    out = {}
+    groups = {"upgradient": LEAD_UP, "downgradient": LEAD_DOWN}
+    tests = survdiff_reference(groups)
+    medians = {name: km_reference(parse(cells))["quantiles"]["0.5"] for name, cells in groups.items()}
+    for method in ("peto-prentice", "gehan"):
+        stat, p = tests[method]
+        out["lead " + method] = {"reference": {"statistic": stat, "p": p, "medians": medians},
+                                 "tokens": {"statistic": N(stat), "p": P(p),
+                                            **{"median " + k: N(v) for k, v in medians.items()}}}
+    return out
+
+
 def main():
     out = {"generator": "tests/reference/generate_reports.py", "scipy": scipy.__version__,
            "statsmodels": statsmodels.__version__}
@@ -373,6 +389,7 @@ def main():
     out["limits"] = limit_cases()
     out["outliers"] = outlier_cases()
     out["over time"] = over_time_cases()
+    out["censored"] = censored_cases()
     path = os.path.join(HERE, "reports.json")
     with open(path, "w") as fh:
         json.dump(out, fh, indent=1, sort_keys=True, default=float)

@@ -34,3 +34,7 @@ TRAPS = [2, 2, 3, 3, 4, 4, 5, 5, 6, 6, 7, 8]
 CRAYFISH = [3, 5, 4, 6, 6, 9, 7, 11, 9, 12, 14, 13]
 # Bankside willow cover (%) as a second predictor of canopy, for FIT.LINEAR with two predictors.
 WILLOW = [10, 22, 5, 30, 12, 35, 18, 4, 26, 15, 40, 20]
+# Dissolved lead (µg/L) in wells upgradient and downgradient of a landfill; "<1" is a value below
+# the lab's detection limit of 1 µg/L (two limits over the record: 1 and 0.5).
+LEAD_UP = ["<1", 0.6, "<0.5", 1.2, "<1", 0.8, 1.5, "<0.5", 0.9, 2.1]
+LEAD_DOWN = [1.4, "<1", 2.6, 1.9, 3.3, "<0.5", 2.2, 1.1, 4.0]

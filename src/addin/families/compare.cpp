@@ -4,6 +4,7 @@
 #include "addin/families/common.hpp"
 #include "core/adjust.hpp"
 #include "core/blocks.hpp"
+#include "core/censored.hpp"
 #include "core/counts.hpp"
 #include "core/letters.hpp"
 #include "core/nested.hpp"
@@ -119,6 +120,18 @@ const Declare compare{
               labels("units", "Sampling unit (plot, net, well) each subsample came from; one group per unit."),
               output(nested_outputs(), "p", "What the cell shows (p from 0 to 1)")},
              test([](const Request& r) { return compare_nested(r.range("values"), r.range("groups"), r.range("units")); })},
+
+    // Values below a detection limit (`<0.5`) are read with their limit and flag, never dropped.
+    Function{"COMPARE.CENSORED", "compareCensored",
+             "Tests a difference between two or more groups holding values below detection limits (<0.5): "
+             "generalized Wilcoxon tests.",
+             {data("values", "Measurements in their unit; a lab's <0.5 is a value below that limit, not a missing one."),
+              groups_argument(), keyword("method", censored_test_methods(), "peto-prentice", "Test"),
+              test_output(censored_test_outputs())},
+             test([](const Request& r) {
+                 return compare_censored(censored_groups(read_censored_groups(r.range("values"), r.range("groups"))),
+                                         r.keyword("method"));
+             })},
 };
 
 }  // namespace
