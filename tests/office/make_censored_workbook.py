@@ -124,7 +124,7 @@ single.formula("C2", "DESCRIBE.CENSORED(%s)" % Z, array=(2, 15))
 expected.rows("D1", [["group", "n", "censored", "censored %", "lowest limit", "highest limit", "mean", "SE",
                       "ci-low", "ci-high", "q1", "median", "q3", "maximum", "method"],
                      ["zinc ug/L", 12, 3, 25, 0.5, 0.5, zinc["mean"], zinc["mean_se"],
-                      "=J2-NORMSINV(0.975)*K2", "=J2+NORMSINV(0.975)*K2", None, zinc["quantiles"]["0.5"],
+                      "=J2-LEGACY.NORMSINV(0.975)*K2", "=J2+LEGACY.NORMSINV(0.975)*K2", None, zinc["quantiles"]["0.5"],
                       zinc["quantiles"]["0.75"], 3.1,
                       "Kaplan–Meier; mean restricted at the lowest value <0.5 (biased upward)"]])
 check("wellA.C2:Q3", "block expected.D1:R2", 1e-9,
