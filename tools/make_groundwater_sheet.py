@@ -67,7 +67,10 @@ def build(office):
     s.header("A1", ["date", "well", "position", "nickel µg/L", "note"], wrap=True)
     s.block("A2", rows)
     s.sheet.getCellRangeByName("D2:D%d" % last).HoriJustify = enum("CellHoriJustify", "RIGHT")
-    s.widths([2.3, 1.5, 2.5, 1.9, 4.4, 0.5])
+    # Raw table, a gap, then the tables' columns G to U; the method column holds the longest texts
+    # and is the last printed column, so it is given their width rather than left to overflow.
+    s.widths([2.3, 1.5, 2.5, 1.9, 4.4, 0.5, 2.6, 1.0, 1.8, 2.0, 2.1, 2.3, 1.3, 1.2, 1.4, 1.5, 1.3, 1.5, 1.3, 1.9,
+              13.5])
 
     N, W, POS = ("$%s$1:$%s$%d" % (x, x, last) for x in "DBC")
     # Columns of DESCRIBE.CENSORED: group, n, censored, censored %, lowest limit, highest limit,
@@ -96,16 +99,16 @@ def build(office):
     chart_row = r + 15
 
     # Chart data: each well's Kaplan–Meier quartiles, read from the table (columns Q, R, S).
-    q.sentence("A1", HELPER_NOTE.format(sheet="lab results"), 6, 2, colour=CAUTION_COLOUR)
-    q.header("A3", ["well", "q1 µg/L", "median µg/L", "q3 µg/L"])
+    q.sentence("A1", HELPER_NOTE.format(sheet="lab results"), 4, 4, colour=CAUTION_COLOUR)
+    q.header("A6", ["well", "q1 µg/L", "median µg/L", "q3 µg/L"])
     wells = table_rows - 1
     for i in range(wells):
         row = 3 + i  # the table's group rows on the lab results sheet
-        q.formula("A%d" % (4 + i), "$'lab results'.G%d" % row)
+        q.formula("A%d" % (7 + i), "$'lab results'.G%d" % row)
         for column, source in zip("BCD", "QRS"):
-            q.formula("%s%d" % (column, 4 + i), "$'lab results'.%s%d" % (source, row), "0.00")
-    q.widths([1.8, 2.2, 2.6, 2.2])
-    s.chart("quartiles", "G%d" % chart_row, 14.0, 8.0, "A3:D%d" % (3 + wells), "columns",
+            q.formula("%s%d" % (column, 7 + i), "$'lab results'.%s%d" % (source, row), "0.00")
+    q.widths([2.0, 2.2, 2.6, 2.2])
+    s.chart("quartiles", "G%d" % chart_row, 14.0, 8.0, "A6:D%d" % (6 + wells), "columns",
             "Dissolved nickel by well: Kaplan–Meier quartiles (a blank bar: below the lowest limit)", "well",
             "nickel (µg/L)", headers=(True, True), data_sheet=q.sheet, legend=True)
     return finish(doc, [s, q], os.path.join(ROOT, "sample_sheets", "groundwater-metals.fods"))
