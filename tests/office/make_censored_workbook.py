@@ -162,6 +162,22 @@ for row, formula in enumerate(["DESCRIBE.GROUPS(%s;%s)" % (B, A), "COMPARE.GROUP
                                "CHECK.VARIANCE(%s;%s)" % (B, A)], start=5):
     bad.formula("D%d" % row, formula)
     check("refusals.D%d" % row, CENSORED_CELL, None, "FUNCTIONS.md censored-cell rule, exact text")
+# The same rule for functions of every family, tables included (a table function shows the text
+# alone), with a depth column as the second variable.
+bad.column("N1", ["depth m", 0.5, 1.0, 1.5, 2.0, 2.5, 3.0, 3.5, 4.0, 4.5])
+Y = "[.N1:.N10]"
+for row, formula in enumerate(["COMPARE.POSTHOC(%s;%s)" % (B, A), "COMPARE.LETTERS(%s;%s)" % (B, A),
+                               "CHECK.QQ(%s)" % B, "COMPARE.PAIRED(%s;%s)" % (B, Y),
+                               "RELATE.CORRELATION(%s;%s)" % (B, Y), 'FIT.LINEAR(%s;%s;"report")' % (B, Y),
+                               "FIT.FACTORIAL(%s;%s;%s)" % (B, A, A)], start=12):
+    bad.formula("D%d" % row, formula)
+    check("refusals.D%d" % row, CENSORED_CELL, None, "FUNCTIONS.md censored-cell rule, exact text")
+# ADVISE.TEST points a response holding censored values to the censored functions.
+bad.formula("D20", 'ADVISE.TEST(%s;%s;"function")' % (B, A))
+check("refusals.D20", "COMPARE.CENSORED", None, "FUNCTIONS.md ADVISE.TEST: censored response, exact")
+bad.formula("D21", 'ADVISE.TEST(%s;%s;"method")' % (B, A))
+check("refusals.D21", "peto-prentice", None, "FUNCTIONS.md ADVISE.TEST: COMPARE.CENSORED's default, exact")
+
 # A non-detect without its limit is refused with a request for it.
 bad.block("F1", [["zinc"], ["ND"], [1.0], [2.0], [3.0]])
 bad.formula("H2", "DESCRIBE.CENSORED([.F1:.F5])")
