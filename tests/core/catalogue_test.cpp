@@ -234,6 +234,8 @@ std::map<std::pair<std::string, std::string>, std::function<Table()>> header_cal
                                                                       side_by_side({Range::column({0.2, 0.5}), Range::column({60, 40})}), o, o}); }},
         {{"DESCRIBE.GROUPS", "default"}, [=] { return call("describeGroups", {lengths(), sites(), o, o}); }},
         {{"DESCRIBE.GROUPS", "log"}, [=] { return call("describeGroups", {lengths(), sites(), keyword("log"), o}); }},
+        {{"DESCRIBE.CENSORED", "default"}, [=] { return call("describeCensored", {lengths(), sites(), o, o}); }},
+        {{"COMPARE.CENSORED", "table"}, [=] { return call("compareCensored", {lengths(), sites(), o, keyword("table")}); }},
     };
 }
 
