@@ -187,6 +187,8 @@ def river(office, available):
             name, anchor, _w, _h, data_range, _kind, title = args[:7]
             trend_chart(b, q, name, anchor, data_range, title)
     left = report_cuts(doc)
+    # The results open first (and are the workbook's picture in the README); the readings follow.
+    doc.Sheets.moveByName("trends", 0)
     store(doc, os.path.join(ROOT, "sample_sheets", "river-trends.fods"))
     doc.close(True)
     return left
