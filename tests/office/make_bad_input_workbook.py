@@ -59,6 +59,19 @@ def decimal(x):
     return float("%.4g" % x)
 
 
+def factor_r_squared(values, labels):
+    """R² of a one-factor linear model: 1 − within-group SS / total SS over the rows with a label."""
+    missing = {"", "n/a", "na", "-", "—", "?", "missing"}
+    rows = [(v, l) for v, l in zip(values, labels) if l.strip().lower() not in missing]
+    mean = sum(v for v, _ in rows) / len(rows)
+    groups = {}
+    for v, l in rows:
+        groups.setdefault(l, []).append(v)
+    within = sum(sum((v - sum(g) / len(g)) ** 2 for v in g) for g in groups.values())
+    total = sum((v - mean) ** 2 for v, _ in rows)
+    return 1 - within / total
+
+
 COLUMNS = {
     "A": ("zone", ZONE),
     "B": ("depth", DEPTH),
@@ -400,7 +413,9 @@ NO_ORDER = ("no verdict: rows in no particular order cannot be judged; give orde
             "for Durbin–Watson")
 case(N, "logicals", "y", RULE % (col("K"), P), NO_ORDER, None, "logicals are 1/0; FUNCTIONS.md, CHECK.REGRESSION")
 refusal(N, "all cells blank", "xs", "%s(%s;%s)" % (N, V, col("C")), NO_ROWS % 0)
-refusal(N, "all text", "xs", "%s(%s;%s)" % (N, V, col("D")), NO_ROWS % 0)
+# A column of labels among xs is a factor (FUNCTIONS.md, FIT.LINEAR): the checks run on the fit.
+case(N, "all text (a factor)", "xs", "%s(%s;%s)" % (N, V, col("D")), "check", None,
+     "FUNCTIONS.md: a text column among xs is a factor; the table's header, exact")
 refusal(N, "error cell #DIV/0!", "xs", "%s(%s;%s)" % (N, V, col("E")), E4)
 refusal(N, "constant predictor", "xs", "%s(%s;%s)" % (N, V, col("R")),
         "x1 is constant (every used row holds 4.00); a constant predictor cannot be told apart from the intercept")
@@ -682,7 +697,9 @@ for kind, c, largest in (("sum overflows", "H", "1.63e+308"), ("+-1e308", "I", "
 case(N, "logicals", "y", '%s(%s;%s;"r-squared")' % (N, col("K"), P), "=RSQ(%s;%s)" % (col("K"), P), 1e-9,
      "logicals are 1/0; " + SRC_RSQ)
 refusal(N, "all cells blank", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("C")), NO_ROWS % 0)
-refusal(N, "all text", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("D")), NO_ROWS % 0)
+case(N, "all text (a factor)", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("D")), factor_r_squared(DEPTH, COLUMNS["D"][1]),
+     1e-12, "FUNCTIONS.md: a text column among xs is a factor; R² of the group means, 1 − SS within / SS total, "
+     "computed in this generator (common practice, no source)")
 refusal(N, "error cell #DIV/0!", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("E")), E4)
 refusal(N, "constant predictor", "xs", '%s(%s;%s;"r-squared")' % (N, V, col("R")), X_CONSTANT)
 for kind, c, largest in (("denormal", "AE", "1.2e-310"), ("sum overflows", "AF", "1.08e+308")):
@@ -707,7 +724,7 @@ case(N, "level 99 (percent)", "level", 'INDEX(%s(%s;%s;"coefficients";99);3;6)' 
 N = "FIT.LOGISTIC"
 SRC_LOGIT = SRC_GEN % ("statsmodels Logit", "1e-8 relative: both iterate to convergence")
 refusal(N, "all cells blank", "y", "%s(%s;%s)" % (N, col("C"), P),
-        "no row has both a response and a number in every predictor column")
+        "no row has both a response and a value in every predictor column")
 refusal(N, "all text", "y", "%s(%s;%s)" % (N, col("D"), P),
         "y has 4 labels (dry, flooded, frozen, ice); logistic regression needs exactly two outcomes")
 refusal(N, "error cell #DIV/0!", "y", "%s(%s;%s)" % (N, col("E"), P), E4)
@@ -728,7 +745,7 @@ refusal(N, "three labels", "y", "%s([$few.I1:.I6];[$few.J1:.J6])" % N,
 refusal(N, "numbers other than 0/1", "y", "%s(%s;%s)" % (N, V, P),
         "y holds 12.1 in B2; a numeric response must be 0 or 1 (or use two labels such as present/absent)")
 refusal(N, "all cells blank", "xs", "%s(%s;%s)" % (N, T, col("C")),
-        "no row has both a response and a number in every predictor column")
+        "no row has both a response and a value in every predictor column")
 refusal(N, "error cell #DIV/0!", "xs", "%s(%s;%s)" % (N, T, col("E")), E4)
 refusal(N, "constant predictor", "xs", "%s(%s;%s)" % (N, T, col("R")), "predictor x1 is constant; remove it")
 for kind, c, largest in (("+-1e308", "I", "1e+308"), ("denormal", "AE", "1.2e-310")):
