@@ -61,8 +61,6 @@ LabelledColumns read_labelled_columns(const Range& values, const Range& groups, 
 
 namespace {
 
-std::string single_quoted(const std::string& name) { return "'" + name + "'"; }
-
 std::string method_of(const std::string& given, std::size_t groups) {
     const std::string method = block_methods().pick(given, "method");
     if (method == "sign" && groups != 2)
@@ -228,14 +226,14 @@ BlockLayout lay_out_blocks(const BlockReadings& in) {
 
     for (std::size_t g = 0; g < k; ++g)
         if (blocks_of_group[g] == 1)
-            throw Refusal("group " + single_quoted(group.names[g]) + " is read in block " +
-                          single_quoted(block.names[last_block_of_group[g]]) +
+            throw Refusal("group " + in_quotes(group.names[g]) + " is read in block " +
+                          in_quotes(block.names[last_block_of_group[g]]) +
                           " only; each group must be read in at least 2 blocks (a block missing a group is dropped whole)");
     if (out.blocks.empty())
         throw Refusal("no block holds every group (" + std::to_string(k) + " groups, " + std::to_string(blocks) +
                       " blocks); a block missing a group is dropped whole — check the group and block labels");
     if (out.blocks.size() == 1)
-        throw Refusal("only block " + single_quoted(out.blocks[0]) + " holds every group (" +
+        throw Refusal("only block " + in_quotes(out.blocks[0]) + " holds every group (" +
                       std::to_string(out.blocks_dropped) + " dropped for a missing group); a block comparison needs at least 2 complete blocks");
     return out;
 }
@@ -411,7 +409,7 @@ PosthocResult compare_blocks_pairs(const BlockReadings& readings, const std::str
             try {
                 r = compare_paired(matched_pairs(l, c.first, c.second, 0), test, Transform::none, level);
             } catch (const Refusal& e) {
-                throw Refusal("groups " + single_quoted(l.groups[c.first]) + " and " + single_quoted(l.groups[c.second]) + ": " + e.what());
+                throw Refusal("groups " + in_quotes(l.groups[c.first]) + " and " + in_quotes(l.groups[c.second]) + ": " + e.what());
             }
             c.statistic = r.number("statistic");
             c.p = r.number("p");

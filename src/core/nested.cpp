@@ -15,8 +15,6 @@ namespace quadrat {
 
 namespace {
 
-std::string single_quoted(const std::string& name) { return "'" + name + "'"; }
-
 // A share as a whole percentage ("37%"), or with its digits below 1% ("0.42%", "0%").
 std::string percent(double share) {
     const double p = 100 * share;
@@ -41,8 +39,8 @@ TestResult compare_nested(const NestedReadings& in) {
         const std::size_t g = group.of_row[i], u = unit.of_row[i];
         if (group_of_unit[u] == unseen) group_of_unit[u] = g;
         if (group_of_unit[u] != g)
-            throw Refusal("unit " + single_quoted(unit.names[u]) + " appears in groups " + single_quoted(group.names[group_of_unit[u]]) +
-                          " and " + single_quoted(group.names[g]) +
+            throw Refusal("unit " + in_quotes(unit.names[u]) + " appears in groups " + in_quotes(group.names[group_of_unit[u]]) +
+                          " and " + in_quotes(group.names[g]) +
                           "; in a nested design each unit belongs to one group — give units in different groups different labels");
         sum[u].add(in.values[i] * scale);
         ++count[u];
@@ -57,7 +55,7 @@ TestResult compare_nested(const NestedReadings& in) {
     }
     for (std::size_t g = 0; g < a; ++g)
         if (units_of[g].size() < 2)
-            throw Refusal("group " + single_quoted(group.names[g]) + " has 1 unit (" + unit.names[units_of[g][0]] +
+            throw Refusal("group " + in_quotes(group.names[g]) + " has 1 unit (" + unit.names[units_of[g][0]] +
                           "); the test of groups over units needs at least 2 units in each group");
     const auto [fewest, most] = std::minmax_element(count.begin(), count.end());
     if (*most == 1)
