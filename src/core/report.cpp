@@ -95,7 +95,7 @@ std::string statistic_words(const TestResult& r, const ReportWords& w) {
 
 std::string render_report(const TestResult& r) {
     const ReportWords& w = r.words;
-    if (!w.shown) return r.report;
+    if (!w.shown) throw Refusal("output 'report' is not available for " + r.test);
     std::string s = (w.title.empty() ? r.test : w.title) + ": ";
     std::string part;  // the comma-separated run before the first semicolon
     const auto then = [&part](const std::string& piece) {

@@ -52,9 +52,6 @@ struct TestResult {
     std::vector<Quantity> quantities;  // in table order
     std::vector<Quantity> unlisted;    // named numbers the sentence uses that the table does not list
     ReportWords words;                 // the report sentence's words
-    // A whole sentence built by a family that is not yet on ReportWords (COMPARE.NESTED,
-    // LIMIT.*, CHECK.OUTLIERS); render_report uses it only when `words` is not shown.
-    std::string report;
 
     TestResult& add(std::string label, double value);
     TestResult& add(std::string label, std::string text);
