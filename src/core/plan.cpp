@@ -104,7 +104,9 @@ Design plan_design(const std::string& design, double count, bool count_given) {
              : key == "one-sample" ? DesignKind::one_sample
                                    : DesignKind::several_groups;
     if (g.kind == DesignKind::several_groups) {
-        if (!count_given) throw Refusal("design several-groups needs count, the number of groups (3 or more)");
+        // Two groups are allowed: the F test on 1 degree of freedom is the two-sided t test squared.
+        if (!count_given)
+            throw Refusal("design several-groups needs count, the number of groups (a whole number from 2 to 10000)");
         if (!(count >= 2 && count <= 10000 && count == std::floor(count)))
             throw Refusal("count must be a whole number of groups from 2 to 10000, found " + number_label(count));
         g.groups = count;

@@ -185,7 +185,7 @@ check("plan.H%d" % row, 64, None, "Cohen (1988) Table 2.4.1, d = 0.5, 80%, two-s
 plan.formula("I%d" % row, "PLAN.SAMPLES(0.5;1;;1.2)")
 check("plan.I%d" % row, "power must be a fraction between 0 and 1 (such as 0.8), found 1.2", None, SRC_TEXT)
 plan.formula("J%d" % row, 'PLAN.POWER(20;0.5;1;"several-groups")')
-check("plan.J%d" % row, "design several-groups needs count, the number of groups (3 or more)", None, SRC_TEXT)
+check("plan.J%d" % row, "design several-groups needs count, the number of groups (a whole number from 2 to 10000)", None, SRC_TEXT)
 row += 1
 plan.formula("H%d" % row, "PLAN.POWER(20;0.5;1;;;4)")
 check("plan.H%d" % row, "count is the number of groups of design several-groups; leave it empty for design two-groups", None,
