@@ -14,7 +14,6 @@ confidence limit of the year's mean below 1.0 mg/L, and no more than 10% of samp
 Calc with the extension installed, and stored as flat ODF; rerunning reproduces it.
 """
 
-import argparse
 import datetime
 import math
 import os
@@ -25,8 +24,7 @@ import uno  # noqa: F401  (sets up the UNO types used below)
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(HERE)
-from make_sample_sheets import CAUTION_COLOUR, HELPER_NOTE, WHOLE, new_workbook, report_cuts, store  # noqa: E402
-from quadrat_sheets.office import Office  # noqa: E402
+from make_sample_sheets import CAUTION_COLOUR, HELPER_NOTE, WHOLE, finish, new_workbook, run_builder  # noqa: E402
 
 MEAN_STANDARD, SAMPLE_STANDARD, SHARE_ALLOWED = 1.0, 1.5, 0.10
 MGL, SHARE = "0.00", "0.0%"
@@ -54,7 +52,7 @@ def readings():
     return effluent, upstream
 
 
-def build(office):
+def build(office, available):
     effluent, upstream = readings()
     doc, (s, u, q) = new_workbook(office, "effluent", ["upstream", "chart data"])
 
@@ -168,34 +166,17 @@ def build(office):
     s.chart("weekly", "M2", 16.0, 8.5, "A3:D%d" % (3 + len(effluent)), "lines",
             "Weekly effluent ammonia, the 1.5 mg/L sample standard and the mean's upper 95% limit", "week",
             "ammonia (mg/L)", headers=(True, True), data_sheet=q.sheet, legend=True)
-    # make_sample_sheets.finish, with the chart's standard and limit drawn as lines without symbols.
-    for b in (s, u, q):
-        b.fit()
-    for b in (s, u, q):
-        b.draw_charts()
-    diagram = s.sheet.getCharts().getByName("weekly").getEmbeddedObject().getDiagram()
-    measured = diagram.getDataRowProperties(0)
-    measured.SymbolSize = uno.createUnoStruct("com.sun.star.awt.Size", 150, 150)
-    for series in (1, 2):  # the standard and the mean's limit: lines without symbols
-        diagram.getDataRowProperties(series).SymbolType = -3  # com.sun.star.chart.ChartSymbolType.NONE
-    left = report_cuts(doc)
-    store(doc, os.path.join(ROOT, "sample_sheets", "effluent-compliance.fods"))
-    doc.close(True)
-    return left
 
+    def style_charts():
+        """The chart's standard and limit drawn as lines without symbols."""
+        diagram = s.sheet.getCharts().getByName("weekly").getEmbeddedObject().getDiagram()
+        measured = diagram.getDataRowProperties(0)
+        measured.SymbolSize = uno.createUnoStruct("com.sun.star.awt.Size", 150, 150)
+        for series in (1, 2):  # the standard and the mean's limit: lines without symbols
+            diagram.getDataRowProperties(series).SymbolType = -3  # com.sun.star.chart.ChartSymbolType.NONE
 
-def main():
-    parser = argparse.ArgumentParser(description="write sample_sheets/effluent-compliance.fods")
-    parser.add_argument("--oxt", required=True)
-    args = parser.parse_args()
-    with Office() as office:
-        office.start()
-        office.install(args.oxt)
-        left = build(office)
-    if left:
-        print("%d cells still cut (see above)" % left)
-    return 1 if left else 0
+    return finish(doc, [s, u, q], os.path.join(ROOT, "sample_sheets", "effluent-compliance.fods"), style_charts)
 
 
 if __name__ == "__main__":
-    sys.exit(main())
+    sys.exit(run_builder("write sample_sheets/effluent-compliance.fods", build))

@@ -15,14 +15,13 @@ dry well and a broken bottle. The workbook is built like the other sample workbo
 note and a chart) and stored as flat ODF.
 """
 
-import argparse
 import datetime
 import math
 import os
 import random
 import sys
 
-from make_sample_sheets import CAUTION_COLOUR, HELPER_NOTE, P, ROOT, WHOLE, Office, enum, finish, new_workbook
+from make_sample_sheets import CAUTION_COLOUR, HELPER_NOTE, P, ROOT, WHOLE, enum, finish, new_workbook, run_builder
 
 WELLS = [("MW-1", "upgradient", 0.6), ("MW-2", "downgradient", 1.3), ("MW-3", "downgradient", 2.2),
          ("MW-4", "downgradient", 2.9)]  # well, position, median nickel µg/L (invented)
@@ -60,7 +59,7 @@ def rows_of_data():
     return rows
 
 
-def build(office):
+def build(office, available):
     rows = rows_of_data()
     last = 300  # read down to row 300: next year's rows below are picked up
     doc, (s, q) = new_workbook(office, "lab results", ["chart data"])
@@ -114,18 +113,5 @@ def build(office):
     return finish(doc, [s, q], os.path.join(ROOT, "sample_sheets", "groundwater-metals.fods"))
 
 
-def main():
-    parser = argparse.ArgumentParser(description="write sample_sheets/groundwater-metals.fods")
-    parser.add_argument("--oxt", required=True)
-    args = parser.parse_args()
-    with Office() as office:
-        office.start()
-        office.install(args.oxt)
-        left = build(office)
-    if left:
-        print("%d cells still cut (see above)" % left)
-    return 1 if left else 0
-
-
 if __name__ == "__main__":
-    sys.exit(main())
+    sys.exit(run_builder("write sample_sheets/groundwater-metals.fods", build))

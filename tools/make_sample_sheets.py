@@ -510,15 +510,45 @@ def new_workbook(office, first, others=()):
     return doc, builders
 
 
-def finish(doc, builders, path):
+def finish(doc, builders, path, style_charts=None, opens_on=None):
+    """Fits every sheet, draws the charts, reports the cells left cut, stores and closes the
+    workbook; returns how many cells are cut. style_charts(), when given, runs once the charts are
+    drawn (line styles, symbols); opens_on names a sheet to move to the front before storing."""
     for b in builders:
         b.fit()
     for b in builders:
         b.draw_charts()
+    if style_charts:
+        style_charts()
     left = report_cuts(doc)
+    if opens_on:
+        doc.Sheets.moveByName(opens_on, 0)
     store(doc, path)
     doc.close(True)
     return left
+
+
+def run_in_office(oxt, builds):
+    """Starts a headless office with the .oxt installed and runs each build(office, available) in it
+    (available: the display names of the functions the .oxt holds; a build returns how many cells it
+    left cut). Returns the exit code: 1 while any cell is cut."""
+    available = available_functions(oxt)
+    left = 0
+    with Office() as office:
+        office.start()
+        office.install(oxt)
+        for build in builds:
+            left += build(office, available)
+    if left:
+        print("%d cells still cut (see above)" % left)
+    return 1 if left else 0
+
+
+def run_builder(description, build):
+    """The command line of a one-workbook generator (--oxt PATH): run_in_office with that build."""
+    parser = argparse.ArgumentParser(description=description)
+    parser.add_argument("--oxt", required=True)
+    return run_in_office(parser.parse_args().oxt, [build])
 
 
 HELPER_NOTE = ("Helper cells for the charts on the {sheet} sheet: they are read from the results there and "
@@ -1053,16 +1083,8 @@ def main():
     parser.add_argument("--oxt", required=True)
     parser.add_argument("which", nargs="*", default=["stream", "marsh", "forest", "fish"])
     args = parser.parse_args()
-    available = available_functions(args.oxt)
-    left = 0
-    with Office() as office:
-        office.start()
-        office.install(args.oxt)
-        for name in args.which:
-            left += {"stream": stream, "marsh": marsh, "forest": forest, "fish": fish}[name](office, available)
-    if left:
-        print("%d cells still cut (see above)" % left)
-    return 1 if left else 0
+    builds = {"stream": stream, "marsh": marsh, "forest": forest, "fish": fish}
+    return run_in_office(args.oxt, [builds[name] for name in args.which])
 
 
 if __name__ == "__main__":

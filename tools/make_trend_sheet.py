@@ -14,7 +14,6 @@ upgrade lowers nitrate year by year) and Lower Ford (farmland, rising). Nitrate 
 correlated, as real river readings are.
 """
 
-import argparse
 import datetime
 import math
 import os
@@ -22,9 +21,7 @@ import random
 import sys
 
 import uno
-from make_sample_sheets import (CAUTION_COLOUR, HELPER_NOTE, P, ROOT, WHOLE, available_functions, enum,
-                                new_workbook, report_cuts, store)
-from quadrat_sheets.office import Office
+from make_sample_sheets import CAUTION_COLOUR, HELPER_NOTE, P, ROOT, WHOLE, enum, finish, new_workbook, run_builder
 
 LIMIT = 0.5  # the laboratory's detection limit, mg/L
 LAST = 400   # the formulas read down to row 400: next year's rows typed below are taken in
@@ -61,10 +58,8 @@ def readings():
     return rows
 
 
-def trend_chart(s, q, name, anchor, data_range, title):
+def style_trend_chart(chart):
     """A scatter chart of the readings with the Sen line: the readings as points, the line without."""
-    chart = s._chart(name, anchor, 12.5, 7.0, data_range, "scatter", title, "year", "nitrate-N (mg/L)",
-                     headers=(True, False), data_sheet=q.sheet, legend=True)
     diagram = chart.getDiagram()
     diagram.Lines = True
     # Data row 0 is the x column; 1 the readings, 2 the Sen line.
@@ -176,37 +171,19 @@ def river(office, available):
                       "/365.25" % (4 + i, 4 + i, src, last_data), "0.00")
             out += 1
         station_last = out - 1
-        s.chart("trend%d" % i, "A%d" % (53 + 19 * i), None, None, "%s3:%s%d" % (cols[0], cols[2], station_last),
-                "trend", "%s: monthly nitrate-N with the Sen line" % name, None, None)
+        s.chart("trend%d" % i, "A%d" % (53 + 19 * i), 12.5, 7.0, "%s3:%s%d" % (cols[0], cols[2], station_last),
+                "scatter", "%s: monthly nitrate-N with the Sen line" % name, "year", "nitrate-N (mg/L)",
+                headers=(True, False), data_sheet=q.sheet, legend=True)
     q.widths([1.5, 2.4, 1.8, 0.4] * 3)
 
-    for b in (r, s, q):
-        b.fit()
-    for b in (r, s, q):
-        for args, _kwargs in b.charts:
-            name, anchor, _w, _h, data_range, _kind, title = args[:7]
-            trend_chart(b, q, name, anchor, data_range, title)
-    left = report_cuts(doc)
+    def style_charts():
+        for i in range(len(STATIONS)):
+            style_trend_chart(s.sheet.getCharts().getByName("trend%d" % i).getEmbeddedObject())
+
     # The results open first (and are the workbook's picture in the README); the readings follow.
-    doc.Sheets.moveByName("trends", 0)
-    store(doc, os.path.join(ROOT, "sample_sheets", "river-trends.fods"))
-    doc.close(True)
-    return left
-
-
-def main():
-    parser = argparse.ArgumentParser(description="write sample_sheets/river-trends.fods")
-    parser.add_argument("--oxt", required=True)
-    args = parser.parse_args()
-    available = available_functions(args.oxt)
-    with Office() as office:
-        office.start()
-        office.install(args.oxt)
-        left = river(office, available)
-    if left:
-        print("%d cells still cut (see above)" % left)
-    return 1 if left else 0
+    return finish(doc, [r, s, q], os.path.join(ROOT, "sample_sheets", "river-trends.fods"), style_charts,
+                  opens_on="trends")
 
 
 if __name__ == "__main__":
-    sys.exit(main())
+    sys.exit(run_builder("write sample_sheets/river-trends.fods", river))
