@@ -99,7 +99,9 @@ def build(office, available):
 
     # Chart data: each well's Kaplan–Meier quartiles, read from the table (columns Q, R, S).
     q.sentence("A1", HELPER_NOTE.format(sheet="lab results"), 4, 4, colour=CAUTION_COLOUR)
-    q.header("A6", ["well", "q1 µg/L", "median µg/L", "q3 µg/L"])
+    # The headers name the chart's series: the table's own (q1, median, q3), the unit on the axis.
+    q.label("A5", "Kaplan–Meier quartiles by well, µg/L", bold=True)
+    q.header("A6", ["well", "q1", "median", "q3"])
     wells = table_rows - 1
     for i in range(wells):
         row = 3 + i  # the table's group rows on the lab results sheet
@@ -107,10 +109,22 @@ def build(office, available):
         for column, source in zip("BCD", "QRS"):
             q.formula("%s%d" % (column, 7 + i), "$'lab results'.%s%d" % (source, row), "0.00")
     q.widths([2.0, 2.2, 2.6, 2.2])
-    s.chart("quartiles", "G%d" % chart_row, 14.0, 8.0, "A6:D%d" % (6 + wells), "columns",
-            "Dissolved nickel by well: Kaplan–Meier quartiles (a blank bar: below the lowest limit)", "well",
+    # Wide and tall, in larger type: the sheet prints one page wide (about 0.4 of its size), and the
+    # chart must still read there.
+    s.chart("quartiles", "G%d" % chart_row, 24.0, 13.0, "A6:D%d" % (6 + wells), "columns",
+            "Dissolved nickel by well: Kaplan–Meier quartiles", "well (a blank bar: below the lowest limit)",
             "nickel (µg/L)", headers=(True, True), data_sheet=q.sheet, legend=True)
-    return finish(doc, [s, q], os.path.join(ROOT, "sample_sheets", "groundwater-metals.fods"))
+
+    def style_charts():
+        chart = s.sheet.getCharts().getByName("quartiles").getEmbeddedObject()
+        chart.getTitle().CharHeight = 14.0
+        chart.getLegend().CharHeight = 14.0
+        diagram = chart.getDiagram()
+        for axis, title in ((diagram.getXAxis(), diagram.getXAxisTitle()), (diagram.getYAxis(), diagram.getYAxisTitle())):
+            axis.CharHeight = 14.0
+            title.CharHeight = 14.0
+
+    return finish(doc, [s, q], os.path.join(ROOT, "sample_sheets", "groundwater-metals.fods"), style_charts)
 
 
 if __name__ == "__main__":
