@@ -9,14 +9,14 @@ tests/reference/posthoc.json (their generators name the libraries and formulas);
 are checked against Calc's own NORMSINV and SMALL on the same cells.
 """
 
-import json
 import os
 
 from quadrat_sheets.fods import Checks, Workbook
+from quadrat_sheets.reference import reference
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-NORMALITY = json.load(open(os.path.join(HERE, "..", "reference", "normality.json")))
-POSTHOC = json.load(open(os.path.join(HERE, "..", "reference", "posthoc.json")))
+NORMALITY = reference("normality.json")
+POSTHOC = reference("posthoc.json")
 
 SRC_SW = ("Royston (1995) AS R94 in 50-digit mpmath (tests/reference/generate_normality.py); "
           "1e-9 relative: the same algorithm in double precision")
@@ -32,7 +32,8 @@ SRC_COUNT = "the number of values of the group in the data above"
 SRC_TEXT = "the core's refusal text, exact"
 
 book = Workbook()
-check = Checks(book).add
+checks = Checks(book)
+check, checked = checks.add, checks.formula
 
 
 # --- CHECK.NORMAL and CHECK.QQ on one column with a header row ------------------------------
@@ -51,10 +52,8 @@ methods = [("shapiro-wilk", case["shapiro_wilk"]["p"], SRC_SW),
 for i, (method, p, source) in enumerate(methods):
     normal.formula("C%d" % (i + 2), 'CHECK.NORMAL(%s;;"%s")' % (rng, method))
     check("normal.C%d" % (i + 2), p, 1e-9 if method == "shapiro-wilk" else 1e-6, source)
-normal.formula("C9", 'CHECK.NORMAL(%s;;;"statistic")' % rng)
-check("normal.C9", case["shapiro_wilk"]["W"], 1e-9, SRC_SW)
-normal.formula("C10", 'CHECK.NORMAL([.A1:.A3])')
-check("normal.C10", "needs 3 to 5000 values, found 2", "", SRC_TEXT)
+checked(normal, "C9", 'CHECK.NORMAL(%s;;;"statistic")' % rng, case["shapiro_wilk"]["W"], 1e-9, SRC_SW)
+checked(normal, "C10", 'CHECK.NORMAL([.A1:.A3])', "needs 3 to 5000 values, found 2", "", SRC_TEXT)
 # Q-Q: as many rows as the input range (12 with the header), the last row blank.
 normal.formula("E1", "CHECK.QQ(%s)" % rng, array=(last, 2))
 expected = book.sheet("expected")
@@ -78,10 +77,9 @@ for i, (method, key) in enumerate([("brown-forsythe", "brown_forsythe"), ("leven
                                    ("bartlett", "bartlett"), ("fligner", "fligner")]):
     spread.formula("D%d" % (i + 2), 'CHECK.VARIANCE(%s;%s;"%s")' % (v, g, method))
     check("spread.D%d" % (i + 2), vcase[key]["p"], 1e-8, SRC_VARIANCE)
-spread.formula("D7", 'CHECK.VARIANCE(%s;%s;"f-ratio")' % (v, g))
-check("spread.D7", "groups has 3 labels (north, east, south); method 'f-ratio' compares exactly 2", "", SRC_TEXT)
-spread.formula("D8", "ADVISE.TEST(%s;%s;\"function\")" % (v, g))
-check("spread.D8", "COMPARE.GROUPS", "", SRC_RULE)
+checked(spread, "D7", 'CHECK.VARIANCE(%s;%s;"f-ratio")' % (v, g),
+        "groups has 3 labels (north, east, south); method 'f-ratio' compares exactly 2", "", SRC_TEXT)
+checked(spread, "D8", "ADVISE.TEST(%s;%s;\"function\")" % (v, g), "COMPARE.GROUPS", "", SRC_RULE)
 
 # --- COMPARE.POSTHOC and COMPARE.LETTERS on four groups of unequal size ---------------------
 pcase = POSTHOC["posthoc"][0]

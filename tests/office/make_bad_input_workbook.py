@@ -26,14 +26,13 @@ paired readings, presence, seasons, p-values, and one column per kind of bad inp
 at each method's limit on `few`; blocks of counts on `counts`; wide format on `wide`.
 """
 
-import json
 import os
 
 from quadrat_sheets.fods import Workbook
+from quadrat_sheets.reference import reference
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-with open(os.path.join(HERE, "..", "reference", "bad_input.json")) as fh:
-    REFERENCE = json.load(fh)
+REFERENCE = reference("bad_input.json")
 D = REFERENCE["data"]
 REF = REFERENCE["reference"]
 

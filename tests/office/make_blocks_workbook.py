@@ -13,15 +13,14 @@ COMPARE.BLOCKS beside COMPARE.PAIRED on the same pairs matched by hand. Refusal 
 core's, exact.
 """
 
-import json
 import os
 
 from quadrat_sheets.fods import Checks, Workbook
+from quadrat_sheets.reference import reference
 from quadrat_sheets.report_numbers import fmt_df, fmt_number, fmt_p
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-with open(os.path.join(HERE, "..", "reference", "blocks.json")) as f:
-    REF = json.load(f)
+REF = reference("blocks.json")
 
 SRC_SM = ("statsmodels 0.13 OLS value ~ C(group) + C(block), anova_lm typ=2 (tests/reference/generate_blocks.py); "
           "1e-9 relative: closed forms on both sides")
@@ -36,7 +35,8 @@ SRC_TEXT = "the core's text, exact"
 SRC_COUNT = "counted by tests/reference/generate_blocks.py, exact"
 
 book = Workbook()
-check = Checks(book).add
+checks = Checks(book)
+check, checked = checks.add, checks.formula
 expected = book.sheet("expected")
 expected_row = [1]
 
@@ -72,6 +72,15 @@ def design_clause(counts):
     return s
 
 
+def labelled_readings(name, header, first, second, values):
+    """A sheet holding `header` over the columns first, second, values (A, B, C), one reading a row;
+    returns the sheet and the references of its columns A, B, C."""
+    sheet = book.sheet(name)
+    sheet.block("A1", [header] + [[a, b, v] for a, b, v in zip(first, second, values)])
+    n = len(values) + 1
+    return sheet, ["[.%s1:.%s%d]" % (c, c, n) for c in "ABC"]
+
+
 def percent(share):
     p = 100 * share
     return ("%d" % int(p + 0.5) if p >= 1 else "0" if p == 0 else fmt_number(p)) + "%"
@@ -105,15 +114,14 @@ cells = [
                                             "table, report, pairs", None, SRC_TEXT),
 ]
 for ref, formula, value, tol, src in cells:
-    marsh.formula(ref, formula)
-    check("marsh." + ref, value, tol, src)
-marsh.formula("E13", call + ';"pooled";"report")')
-check("marsh.E13", "Randomized complete block ANOVA: F(%s, %s) = %s, %s; partial η² = %s (%d groups; %s)" % (
+    checked(marsh, ref, formula, value, tol, src)
+checked(marsh, "E13", call + ';"pooled";"report")',
+        "Randomized complete block ANOVA: F(%s, %s) = %s, %s; partial η² = %s (%d groups; %s)" % (
     fmt_df(pooled["df"]), fmt_df(pooled["df2"]), fmt_number(pooled["statistic"]), fmt_p(pooled["p"]),
     fmt_number(pooled["effect"]), len(groups), design_clause(counts)), None,
     "the report form of src/core/blocks.cpp with the statsmodels values rounded by report_numbers.py, exact")
-marsh.formula("E14", call + ';"ranks";"report")')
-check("marsh.E14", "Friedman test: χ²(%s) = %s, %s; Kendall's W = %s (%d groups; %s)" % (
+checked(marsh, "E14", call + ';"ranks";"report")',
+        "Friedman test: χ²(%s) = %s, %s; Kendall's W = %s (%d groups; %s)" % (
     fmt_df(ranks["df"]), fmt_number(ranks["statistic"]), fmt_p(ranks["p"]), fmt_number(ranks["effect"]),
     len(groups), design_clause(counts)), None,
     "the report form of src/core/blocks.cpp with the SciPy values rounded by report_numbers.py, exact")
@@ -143,46 +151,37 @@ check("marsh.J14:R%d" % (13 + len(c_rows)), expected_block(pairs_rows(groups, bo
 
 # --- hardness: Montgomery's four tips on four coupons ---------------------------------------------------
 hard = REF["hardness"]
-sheet = book.sheet("hardness")
-sheet.block("A1", [["coupon", "tip", "hardness"]] +
-            [[b, g, v] for v, g, b in zip(hard["values"], hard["groups"], hard["blocks"])])
-n = len(hard["values"]) + 1
-call = "COMPARE.BLOCKS([.C1:.C%d];[.B1:.B%d];[.A1:.A%d]" % (n, n, n)
-sheet.formula("E2", call + ';;"statistic")')
-check("hardness.E2", 14.44, 0.005 / 14.44, "Montgomery, Design and Analysis of Experiments: F = 14.44 as printed; "
-      "half a unit of the last printed digit")
-sheet.formula("E3", call + ")")
-check("hardness.E3", hard["pooled"]["p"], 1e-9, SRC_SM)
-sheet.formula("E4", call + ';;"statistic")')
-check("hardness.E4", hard["pooled"]["anovarm F"], 1e-9, "statsmodels 0.13 AnovaRM (generate_blocks.py); 1e-9")
+sheet, (A, B, C) = labelled_readings("hardness", ["coupon", "tip", "hardness"], hard["blocks"], hard["groups"],
+                                     hard["values"])
+call = "COMPARE.BLOCKS(%s;%s;%s" % (C, B, A)
+checked(sheet, "E2", call + ';;"statistic")',
+        14.44, 0.005 / 14.44, "Montgomery, Design and Analysis of Experiments: F = 14.44 as printed; "
+        "half a unit of the last printed digit")
+checked(sheet, "E3", call + ")", hard["pooled"]["p"], 1e-9, SRC_SM)
+checked(sheet, "E4", call + ';;"statistic")',
+        hard["pooled"]["anovarm F"], 1e-9, "statsmodels 0.13 AnovaRM (generate_blocks.py); 1e-9")
 
 # --- grass: Conover's Friedman example ------------------------------------------------------------------
 grass = REF["grass"]
-sheet = book.sheet("grass")
-sheet.block("A1", [["homeowner", "mixture", "rank"]] +
-            [[b, g, v] for v, g, b in zip(grass["values"], grass["groups"], grass["blocks"])])
-n = len(grass["values"]) + 1
-call = "COMPARE.BLOCKS([.C1:.C%d];[.B1:.B%d];[.A1:.A%d];\"ranks\"" % (n, n, n)
-sheet.formula("E2", call + ';"statistic")')
-check("grass.E2", grass["exact"]["T1"], 1e-12, "Conover 1999 section 5.8 (T1 = 8.097 from memory), worked in "
-      "exact fractions in generate_blocks.py; 1e-12")
-sheet.formula("E3", "INDEX(%s;\"table\");12;2)" % call)
-check("grass.E3", grass["exact"]["T2"], 1e-12, "Conover 1999 (T2 = 3.19 from memory), exact fractions; 1e-12")
-sheet.formula("E4", "INDEX(%s;\"table\");12;1)" % call)
-check("grass.E4", "Iman–Davenport F", None, SRC_TEXT)
-sheet.formula("E5", call + ")")
-check("grass.E5", grass["ranks"]["p"], 1e-9, SRC_FR)
+sheet, (A, B, C) = labelled_readings("grass", ["homeowner", "mixture", "rank"], grass["blocks"], grass["groups"],
+                                     grass["values"])
+call = "COMPARE.BLOCKS(%s;%s;%s;\"ranks\"" % (C, B, A)
+checked(sheet, "E2", call + ';"statistic")',
+        grass["exact"]["T1"], 1e-12, "Conover 1999 section 5.8 (T1 = 8.097 from memory), worked in "
+        "exact fractions in generate_blocks.py; 1e-12")
+checked(sheet, "E3", "INDEX(%s;\"table\");12;2)" % call,
+        grass["exact"]["T2"], 1e-12, "Conover 1999 (T2 = 3.19 from memory), exact fractions; 1e-12")
+checked(sheet, "E4", "INDEX(%s;\"table\");12;1)" % call, "Iman–Davenport F", None, SRC_TEXT)
+checked(sheet, "E5", call + ")", grass["ranks"]["p"], 1e-9, SRC_FR)
 
 # --- two methods matched by station: COMPARE.BLOCKS beside COMPARE.PAIRED -------------------------------
 two = REF["two groups"]
-sheet = book.sheet("methods")
-sheet.block("A1", [["station", "method", "chlorophyll"]] +
-            [[b, g, v] for v, g, b in zip(two["values"], two["groups"], two["blocks"])])
-n = len(two["values"]) + 1
+sheet, (A, B, C) = labelled_readings("methods", ["station", "method", "chlorophyll"], two["blocks"], two["groups"],
+                                     two["values"])
 order = two["groups in order"]
 sheet.block("K1", [[order[0], order[1]]] + [[a, b] for a, b in zip(two["first"], two["second"])])
 m = len(two["first"]) + 1
-call = "COMPARE.BLOCKS([.C1:.C%d];[.B1:.B%d];[.A1:.A%d]" % (n, n, n)
+call = "COMPARE.BLOCKS(%s;%s;%s" % (C, B, A)
 paired = "COMPARE.PAIRED([$methods.K1:.K%d];[$methods.L1:.L%d]" % (m, m)
 row = 2
 for method, test, key in (("pooled", "t", "t"), ("ranks", "signed-rank", "signed-rank"), ("sign", "sign", "sign")):
@@ -194,29 +193,25 @@ for method, test, key in (("pooled", "t", "t"), ("ranks", "signed-rank", "signed
     check("methods.F%d" % row, two[key]["p"], 1e-9, "SciPy 1.10 ttest_rel / wilcoxon / binomtest on the matched "
           "pairs (generate_blocks.py); 1e-9")
     row += 1
-sheet.formula("E5", call + ';"pooled";"n")')
-check("methods.E5", two["counts"]["n"], None, SRC_COUNT)
+checked(sheet, "E5", call + ';"pooled";"n")', two["counts"]["n"], None, SRC_COUNT)
 sheet.formula("E6", "INDEX(%s;\"pooled\";\"table\");9;2)" % call)  # row 9: blocks dropped
 check("methods.E6", two["counts"]["blocks dropped"], None, SRC_COUNT)
 
 # --- nested: Sokal & Rohlf's rat livers, and wells with unequal subsamples ------------------------------
 rats = REF["rats"]
-sheet = book.sheet("rats")
-sheet.block("A1", [["treatment", "rat", "glycogen"]] +
-            [[g, u, v] for v, g, u in zip(rats["values"], rats["groups"], rats["units"])])
-n = len(rats["values"]) + 1
-call = "COMPARE.NESTED([.C1:.C%d];[.A1:.A%d];[.B1:.B%d]" % (n, n, n)
-sheet.formula("E2", call + ")")
-check("rats.E2", rats["p"], 1e-9, SRC_NESTED)
-sheet.formula("E3", call + ';"statistic")')
-check("rats.E3", 2.929, 0.0005 / 2.929, "Sokal & Rohlf, Biometry, Box 10.1 (from memory): F from the printed SS, "
-      "(1557.56/2)/(797.67/3) = 2.929; half a unit of the last digit")
-sheet.formula("E4", call + ';"report")')
-check("rats.E4", "Nested ANOVA: F(2, 3) = %s, %s; variance components: between groups %s, between units %s, "
-      "within units %s (groups tested over 6 units; 36 readings)" % (
-          fmt_number(rats["statistic"]), fmt_p(rats["p"]), percent(rats["share between groups"]),
-          percent(rats["share between units"]), percent(rats["share within units"])), None,
-      "the report form of src/core/nested.cpp (rendered by report.cpp) with the generator's values rounded, exact")
+sheet, (A, B, C) = labelled_readings("rats", ["treatment", "rat", "glycogen"], rats["groups"], rats["units"],
+                                     rats["values"])
+call = "COMPARE.NESTED(%s;%s;%s" % (C, A, B)
+checked(sheet, "E2", call + ")", rats["p"], 1e-9, SRC_NESTED)
+checked(sheet, "E3", call + ';"statistic")',
+        2.929, 0.0005 / 2.929, "Sokal & Rohlf, Biometry, Box 10.1 (from memory): F from the printed SS, "
+        "(1557.56/2)/(797.67/3) = 2.929; half a unit of the last digit")
+checked(sheet, "E4", call + ';"report")',
+        "Nested ANOVA: F(2, 3) = %s, %s; variance components: between groups %s, between units %s, "
+        "within units %s (groups tested over 6 units; 36 readings)" % (
+            fmt_number(rats["statistic"]), fmt_p(rats["p"]), percent(rats["share between groups"]),
+            percent(rats["share between units"]), percent(rats["share within units"])), None,
+        "the report form of src/core/nested.cpp (rendered by report.cpp) with the generator's values rounded, exact")
 g_order = ["control", "compound 217", "217 + sugar"]
 table = [["quantity", "value"], ["test", "Nested ANOVA (groups over units within groups)"],
          ["statistic", rats["statistic"]], ["df", 2], ["df2", 3], ["p", rats["p"]], ["n", 36], ["n dropped", 0],
@@ -233,19 +228,16 @@ sheet.formula("G1", call + ';"table")', array=(len(table), 2))
 check("rats.G1:H%d" % len(table), expected_block(table), 1e-9, SRC_NESTED)
 
 wells = REF["wells"]
-sheet = book.sheet("wells")
-sheet.block("A1", [["land use", "well", "nitrate mg/L"]] +
-            [[g, u, v] for v, g, u in zip(wells["values"], wells["groups"], wells["units"])])
-n = len(wells["values"]) + 1
-call = "COMPARE.NESTED([.C1:.C%d];[.A1:.A%d];[.B1:.B%d]" % (n, n, n)
-sheet.formula("E2", call + ")")
-check("wells.E2", wells["p"], 1e-9, SRC_NESTED)
+sheet, (A, B, C) = labelled_readings("wells", ["land use", "well", "nitrate mg/L"], wells["groups"], wells["units"],
+                                     wells["values"])
+call = "COMPARE.NESTED(%s;%s;%s" % (C, A, B)
+checked(sheet, "E2", call + ")", wells["p"], 1e-9, SRC_NESTED)
 sheet.formula("E3", "INDEX(%s;\"table\");11;2)" % call)  # row 11: test on
 check("wells.E3", "unit means: subsample counts differ, so each unit counts once", None, SRC_TEXT)
 sheet.formula("E4", "INDEX(%s;\"table\");18;2)" % call)  # row 18: share between units
 check("wells.E4", wells["share between units"], 1e-9, SRC_NESTED)
-sheet.formula("E5", call + ';"effect")')
-check("wells.E5", "unknown output 'effect'; valid: p, statistic, df, df2, n, table, report", None, SRC_TEXT)
+checked(sheet, "E5", call + ';"effect")',
+        "unknown output 'effect'; valid: p, statistic, df, df2, n, table, report", None, SRC_TEXT)
 
 # --- refusals -------------------------------------------------------------------------------------------
 sheet = book.sheet("refusals")

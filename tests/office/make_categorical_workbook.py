@@ -9,15 +9,14 @@ expected numbers come from its JSON (SciPy 1.10 / statsmodels 0.13, or exact fra
 Freeman-Halton test), except where Calc's own CHITEST computes the same p-value independently.
 """
 
-import json
 import os
 
 from quadrat_sheets.fods import Workbook
+from quadrat_sheets.reference import reference
 from quadrat_sheets.report_numbers import fmt_number, fmt_p
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-with open(os.path.join(HERE, "..", "reference", "categorical.json")) as fh:
-    REF = json.load(fh)
+REF = reference("categorical.json")
 
 SRC_GEN = "tests/reference/generate_categorical.py (%s)"
 SRC_TEXT = "FUNCTIONS.md and the core's refusal text, exact"

@@ -12,14 +12,14 @@ test profile runs in an en-US locale (the reader's locale rule is tested in the 
 Refusal texts are the core's, exact.
 """
 
-import json
 import os
 
 from quadrat_sheets.fods import Checks, Workbook
+from quadrat_sheets.reference import reference
 from quadrat_sheets.report_numbers import fmt_number, fmt_p
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-REF = json.load(open(os.path.join(HERE, "..", "reference", "censored.json")))
+REF = reference("censored.json")
 SRC_KM = ("statsmodels 0.13 SurvfuncRight on the values flipped about 100, mean and Greenwood-type SE from its "
           "curve (tests/reference/generate_censored.py); 1e-9 relative (the flip costs about 1e-14)")
 SRC_DIFF = ("statsmodels 0.13 survdiff on the flipped values, weight_type %s "
@@ -30,7 +30,8 @@ SRC_TEXT = "the core's refusal text, exact"
 SRC_COUNT = "counted from the data rows, exact"
 
 book = Workbook()
-check = Checks(book).add
+checks = Checks(book)
+check, checked = checks.add, checks.formula
 
 
 def cell_text(value, censored, spaced=False):
@@ -98,8 +99,8 @@ check("wells.D11",
       "the catalogue's report form (tools/quadrat_sheets/report_numbers.py) on the statsmodels values above")
 
 # Whole columns cost only their used rows; the header row is read as a header.
-field.formula("D13", "INDEX(DESCRIBE.CENSORED([.B:.B];[.A:.A]);2;3)")
-check("wells.D13", sum(1 for _, c in wells[0][1] if c), None, SRC_COUNT + " (upstream's censored values, whole columns)")
+checked(field, "D13", "INDEX(DESCRIBE.CENSORED([.B:.B];[.A:.A]);2;3)",
+        sum(1 for _, c in wells[0][1] if c), None, SRC_COUNT + " (upstream's censored values, whole columns)")
 
 # The same wells in wide format (one column per well, names in the first row): groups left empty.
 wide = book.sheet("wide")
@@ -108,10 +109,10 @@ wide.row("A1", [name for name, _ in wells])
 for j, (_, cells) in enumerate(wells):
     wide.column("%s2" % "ABC"[j], [cell_text(v, c) for v, c in cells])
 WIDE = "[.A1:.C%d]" % (1 + longest)
-wide.formula("E2", "COMPARE.CENSORED(%s;;\"gehan\")" % WIDE)
-check("wide.E2", diff["gehan"][1], 1e-9, SRC_DIFF % '"gb"' + "; wide format gives the long format's groups")
-wide.formula("E3", "INDEX(DESCRIBE.CENSORED(%s);4;3)" % WIDE)
-check("wide.E3", sum(1 for _, c in wells[2][1] if c), None, SRC_COUNT + " (outfall's censored values)")
+checked(wide, "E2", "COMPARE.CENSORED(%s;;\"gehan\")" % WIDE,
+        diff["gehan"][1], 1e-9, SRC_DIFF % '"gb"' + "; wide format gives the long format's groups")
+checked(wide, "E3", "INDEX(DESCRIBE.CENSORED(%s);4;3)" % WIDE,
+        sum(1 for _, c in wells[2][1] if c), None, SRC_COUNT + " (outfall's censored values)")
 
 # --- DESCRIBE.CENSORED on one well (Kaplan–Meier) and ROS by hand ---------------------------------
 zinc = REF["kaplan_meier"]["zinc_well_a"]
@@ -136,23 +137,21 @@ hand.put("A1", "arsenic ug/L")
 hand.column("A2", [cell_text(v, c) for v, c in ros["values"]])
 R = "[.A1:.A%d]" % (1 + len(ros["values"]))
 hand.formula("C2", 'DESCRIBE.CENSORED(%s;;"ros")' % R, array=(2, 15))
-hand.formula("C5", 'INDEX(DESCRIBE.CENSORED(%s;;"ros");2;7)' % R)
-check("ros.C5", ros["mean"], 1e-9, SRC_ROS)
-hand.formula("C6", 'INDEX(DESCRIBE.CENSORED(%s;;"ros");2;8)' % R)
-check("ros.C6", ros["sd"] / len(ros["values"]) ** 0.5, 1e-9, SRC_ROS + "; SE = SD/sqrt(8)")
-hand.formula("C7", 'INDEX(DESCRIBE.CENSORED(%s;;"ros");2;15)' % R)
-check("ros.C7", "ROS, lognormal", None, "method text, exact")
+checked(hand, "C5", 'INDEX(DESCRIBE.CENSORED(%s;;"ros");2;7)' % R, ros["mean"], 1e-9, SRC_ROS)
+checked(hand, "C6", 'INDEX(DESCRIBE.CENSORED(%s;;"ros");2;8)' % R,
+        ros["sd"] / len(ros["values"]) ** 0.5, 1e-9, SRC_ROS + "; SE = SD/sqrt(8)")
+checked(hand, "C7", 'INDEX(DESCRIBE.CENSORED(%s;;"ros");2;15)' % R, "ROS, lognormal", None, "method text, exact")
 
 # --- refusals -----------------------------------------------------------------------------------
 bad = book.sheet("refusals")
 bad.block("A1", [["well", "zinc"], ["north", "<1"], ["north", "< 1"], ["north", "<0.5"], ["north", "<1"],
                  ["north", "<0.5"], ["north", 2.0], ["south", 1.2], ["south", 2.5], ["south", 3.1]])
 B, A = "[.B1:.B10]", "[.A1:.A10]"
-bad.formula("D2", "DESCRIBE.CENSORED(%s;%s)" % (B, A))
-check("refusals.D2", "north has 5 of 6 values below a detection limit (83%); above 80% no method estimates a "
-      "mean or quartiles: report how many were detected, or describe the other groups without it", None, SRC_TEXT)
-bad.formula("D3", 'DESCRIBE.CENSORED(%s;%s;"mle")' % (B, A))
-check("refusals.D3", "unknown method 'mle'; valid: kaplan-meier, ros", None, SRC_TEXT)
+checked(bad, "D2", "DESCRIBE.CENSORED(%s;%s)" % (B, A),
+        "north has 5 of 6 values below a detection limit (83%); above 80% no method estimates a "
+        "mean or quartiles: report how many were detected, or describe the other groups without it", None, SRC_TEXT)
+checked(bad, "D3", 'DESCRIBE.CENSORED(%s;%s;"mle")' % (B, A),
+        "unknown method 'mle'; valid: kaplan-meier, ros", None, SRC_TEXT)
 # The functions outside the family refuse the censored cell B2, naming it (FUNCTIONS.md, "Values
 # below a detection limit").
 CENSORED_CELL = ("B2 holds a value below a detection limit (<1); leaving it out would bias the result upward: "
@@ -173,19 +172,19 @@ for row, formula in enumerate(["COMPARE.POSTHOC(%s;%s)" % (B, A), "COMPARE.LETTE
     bad.formula("D%d" % row, formula)
     check("refusals.D%d" % row, CENSORED_CELL, None, "FUNCTIONS.md censored-cell rule, exact text")
 # ADVISE.TEST points a response holding censored values to the censored functions.
-bad.formula("D20", 'ADVISE.TEST(%s;%s;"function")' % (B, A))
-check("refusals.D20", "COMPARE.CENSORED", None, "FUNCTIONS.md ADVISE.TEST: censored response, exact")
-bad.formula("D21", 'ADVISE.TEST(%s;%s;"method")' % (B, A))
-check("refusals.D21", "peto-prentice", None, "FUNCTIONS.md ADVISE.TEST: COMPARE.CENSORED's default, exact")
+checked(bad, "D20", 'ADVISE.TEST(%s;%s;"function")' % (B, A),
+        "COMPARE.CENSORED", None, "FUNCTIONS.md ADVISE.TEST: censored response, exact")
+checked(bad, "D21", 'ADVISE.TEST(%s;%s;"method")' % (B, A),
+        "peto-prentice", None, "FUNCTIONS.md ADVISE.TEST: COMPARE.CENSORED's default, exact")
 
 # A non-detect without its limit is refused with a request for it.
 bad.block("F1", [["zinc"], ["ND"], [1.0], [2.0], [3.0]])
-bad.formula("H2", "DESCRIBE.CENSORED([.F1:.F5])")
-check("refusals.H2", "F2 holds ND: write the detection limit as <0.5", None, "FUNCTIONS.md non-detect rule, exact")
+checked(bad, "H2", "DESCRIBE.CENSORED([.F1:.F5])",
+        "F2 holds ND: write the detection limit as <0.5", None, "FUNCTIONS.md non-detect rule, exact")
 # A number stored as text ("1.5" typed with a leading apostrophe) is text, missing, not a value.
 bad.block("J1", [["zinc"], ["<0.5"], ["1.5"], [2.0], [3.0], [4.0]])
-bad.formula("L2", 'INDEX(DESCRIBE.CENSORED([.J1:.J6]);2;2)')
-check("refusals.L2", 4, None, "FUNCTIONS.md missing-data rule: a text that is not <number is missing (n = 4)")
+checked(bad, "L2", 'INDEX(DESCRIBE.CENSORED([.J1:.J6]);2;2)',
+        4, None, "FUNCTIONS.md missing-data rule: a text that is not <number is missing (n = 4)")
 
 book.write(os.path.join(HERE, "censored.fods"),
            comment="Generated by tests/office/make_censored_workbook.py from tests/reference/censored.json")

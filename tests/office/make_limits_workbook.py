@@ -10,19 +10,20 @@ cases. Where Calc has its own function for a number (PERCENTILE.INC, COUNTIF, MA
 compares with it too. Refusal texts are the core's, exact.
 """
 
-import json
 import math
 import os
 
 from quadrat_sheets.fods import Checks, Workbook
+from quadrat_sheets.reference import reference
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-REF = json.load(open(os.path.join(HERE, "..", "reference", "limits.json")))
+REF = reference("limits.json")
 SRC = "tests/reference/generate_limits.py"
 SRC_TEXT = "the core's refusal text, exact"
 
 book = Workbook()
-check = Checks(book).add
+checks = Checks(book)
+check, checked = checks.add, checks.formula
 
 # --- LIMIT.* on the invented ammonia samples (header row and one n/a: 24 used, 1 dropped) ----
 a = REF["ammonia"]
@@ -94,8 +95,7 @@ cells = [
 ]
 sheet.column("E2", [1.5, 1.5, 1.5, 1.5, 1.5])
 for ref, formula, expected, tolerance, source in cells:
-    sheet.formula(ref, formula)
-    check("ammonia." + ref, expected, tolerance, source)
+    checked(sheet, ref, formula, expected, tolerance, source)
 
 # LIMIT.MEAN table, entered as an array: 8 rows × 2.
 sheet.formula("F2", 'LIMIT.MEAN(%s;"t";"table")' % V, array=(8, 2))
@@ -118,16 +118,16 @@ top3 = sorted(range(54), key=lambda i: -r["values"][i])[:3]
 flags.column("A1", ["outlier" if i in top3 else None for i in range(54)])
 check("rosner.C2:C55", "block flags.A1:A54", None,
       "NIST/SEMATECH e-Handbook §1.3.5.17: three outliers, 6.01, 5.42, 5.34 (the last three rows)")
-out.formula("E2", 'CHECK.OUTLIERS(%s;;"count";10)' % R)
-check("rosner.E2", 3, None, "NIST/SEMATECH e-Handbook §1.3.5.17: three outliers with up to 10 tested")
-out.formula("E3", 'CHECK.OUTLIERS(%s;"grubbs";"count")' % R)
-check("rosner.E3", 0, None, "Grubbs: G = R1 = 3.118906 below λ1 = 3.158794 (the handbook's figures)")
-out.formula("E4", 'CHECK.OUTLIERS(%s;"fences";"count")' % R)
-check("rosner.E4", "=COUNTIF([$rosner.A2:.A55];\">\"&(QUARTILE([$rosner.A2:.A55];3)+1.5*(QUARTILE([$rosner.A2:.A55];3)-QUARTILE([$rosner.A2:.A55];1))))+COUNTIF([$rosner.A2:.A55];\"<\"&(QUARTILE([$rosner.A2:.A55];1)-1.5*(QUARTILE([$rosner.A2:.A55];3)-QUARTILE([$rosner.A2:.A55];1))))",
-      None, "Tukey's fences from Calc's own QUARTILE (stored name of QUARTILE.INC) and COUNTIF")
-out.formula("E5", 'CHECK.OUTLIERS([.A2:.A25])')
-check("rosner.E5", "method generalized-esd needs at least 25 values (Rosner 1983), found 24; method grubbs tests the one most extreme value from 3 values",
-      None, SRC_TEXT)
+checked(out, "E2", 'CHECK.OUTLIERS(%s;;"count";10)' % R,
+        3, None, "NIST/SEMATECH e-Handbook §1.3.5.17: three outliers with up to 10 tested")
+checked(out, "E3", 'CHECK.OUTLIERS(%s;"grubbs";"count")' % R,
+        0, None, "Grubbs: G = R1 = 3.118906 below λ1 = 3.158794 (the handbook's figures)")
+checked(out, "E4", 'CHECK.OUTLIERS(%s;"fences";"count")' % R,
+        "=COUNTIF([$rosner.A2:.A55];\">\"&(QUARTILE([$rosner.A2:.A55];3)+1.5*(QUARTILE([$rosner.A2:.A55];3)-QUARTILE([$rosner.A2:.A55];1))))+COUNTIF([$rosner.A2:.A55];\"<\"&(QUARTILE([$rosner.A2:.A55];1)-1.5*(QUARTILE([$rosner.A2:.A55];3)-QUARTILE([$rosner.A2:.A55];1))))",
+        None, "Tukey's fences from Calc's own QUARTILE (stored name of QUARTILE.INC) and COUNTIF")
+checked(out, "E5", 'CHECK.OUTLIERS([.A2:.A25])',
+        "method generalized-esd needs at least 25 values (Rosner 1983), found 24; method grubbs tests the one most extreme value from 3 values",
+        None, SRC_TEXT)
 out.formula("G2", 'CHECK.OUTLIERS(%s;;"table";10)' % R, array=(12, 4))
 tab = [["cell", "statistic", "critical value", "verdict"]]
 order = [6.01, 5.42, 5.34, 4.64, 4.30, 3.68, 3.59, 3.30, 3.26, -0.25]
@@ -150,17 +150,17 @@ probe.formula("B1", 'CHECK.OUTLIERS([.A1:.A14];"fences")', array=(14, 1))
 book.sheet("probe_flags").column("A1", [None, None, None, "outlier"] + [None] * 10)
 check("probe.B1:B14", "block probe_flags.A1:A14", None,
       "worked by hand: fences at −4 and 16 from QUARTILE.INC; one flag beside 30, blank beside the header, n/a and blank rows")
-probe.formula("D1", 'CHECK.OUTLIERS([.A1:.A14];"fences";"report")')
-check("probe.D1", "Tukey's fences (1.5 × IQR), n = 11: 1 value beyond the fences (30.00); fences at -4.00 and 16.00 "
-      "(quartiles ∓ 1.5 × IQR); a flagged value is one to check (a transcription slip, a fouled probe), not one to delete.",
-      None, "worked by hand as above; numbers as report sentences format them")
-probe.formula("D2", 'CHECK.OUTLIERS([.A1:.A14];"grubbs";"count")')
-check("probe.D2", 1, None, "worked by hand: G = (30 − 7.73)/7.93 = 2.81 against Grubbs' critical 2.36 at n = 11, α = 0.05 "
-      "(λ from the t quantile, Grubbs 1969)")
-probe.formula("D3", 'CHECK.OUTLIERS([.A1:.A14];"grubbs";"count";3)')
-check("probe.D3", "most applies to method generalized-esd only; leave it empty", None, SRC_TEXT)
-probe.formula("D4", 'CHECK.OUTLIERS([.A1:.A14];"dixon")')
-check("probe.D4", "unknown method 'dixon'; valid: generalized-esd, grubbs, fences", None, SRC_TEXT)
+checked(probe, "D1", 'CHECK.OUTLIERS([.A1:.A14];"fences";"report")',
+        "Tukey's fences (1.5 × IQR), n = 11: 1 value beyond the fences (30.00); fences at -4.00 and 16.00 "
+        "(quartiles ∓ 1.5 × IQR); a flagged value is one to check (a transcription slip, a fouled probe), not one to delete.",
+        None, "worked by hand as above; numbers as report sentences format them")
+checked(probe, "D2", 'CHECK.OUTLIERS([.A1:.A14];"grubbs";"count")',
+        1, None, "worked by hand: G = (30 − 7.73)/7.93 = 2.81 against Grubbs' critical 2.36 at n = 11, α = 0.05 "
+        "(λ from the t quantile, Grubbs 1969)")
+checked(probe, "D3", 'CHECK.OUTLIERS([.A1:.A14];"grubbs";"count";3)',
+        "most applies to method generalized-esd only; leave it empty", None, SRC_TEXT)
+checked(probe, "D4", 'CHECK.OUTLIERS([.A1:.A14];"dixon")',
+        "unknown method 'dixon'; valid: generalized-esd, grubbs, fences", None, SRC_TEXT)
 
 # --- PLAN.* (statsmodels 0.13) --------------------------------------------------------------
 plan = book.sheet("plan")

@@ -12,15 +12,14 @@ durbin_watson, variance_inflation_factor; SciPy 1.10 pearsonr, spearmanr, kendal
 FIT.POINTS) to the generator's 40 reaches; layouts and refusal texts are the catalogue's.
 """
 
-import json
 import os
 
 from quadrat_sheets.fods import Checks, Workbook
+from quadrat_sheets.reference import reference
 from quadrat_sheets.report_numbers import fmt_number, fmt_p
 
 HERE = os.path.dirname(os.path.abspath(__file__))
-with open(os.path.join(HERE, "..", "reference", "linear.json")) as f:
-    REF = json.load(f)
+REF = reference("linear.json")
 
 SRC_SM = "statsmodels 0.13 (tests/reference/generate_linear.py)"
 SRC_SP = "SciPy 1.10 (tests/reference/generate_linear.py)"
@@ -30,7 +29,8 @@ SRC_TEXT = "FUNCTIONS.md layout and the core's text, exact"
 
 
 book = Workbook()
-check = Checks(book).add
+checks = Checks(book)
+check, checked = checks.add, checks.formula
 
 
 # --- stream: header row, 40 reaches, two rows with a missing cell ---------------------------------
@@ -71,16 +71,15 @@ expected.block("A7", model)
 check("stream.E7:F19", "block expected.A7:B19", TOL_P,
       SRC_SM + "; AIC/BIC from its llf with σ² counted as a parameter; n and n dropped by count")
 
-sheet.formula("E21", 'FIT.LINEAR(%s;%s;"r-squared")' % (Y, XS))
-check("stream.E21", ref["r_squared"], TOL_EST, SRC_SM)
-sheet.formula("E22", 'FIT.LINEAR([.A:.A];[.B:.C];"residual-sd")')
-check("stream.E22", ref["residual_sd"], TOL_EST, SRC_SM + "; whole-column references")
-sheet.formula("E23", 'FIT.LINEAR(%s;%s;"slope")' % (Y, XS))
-check("stream.E23", "output 'slope' needs exactly one predictor (xs has 2 columns); "
-      "use output 'coefficients' for the whole table", None, SRC_TEXT)
-sheet.formula("E25", 'FIT.LINEAR(%s;%s;"slopes")' % (Y, XS))
-check("stream.E25", "unknown output 'slopes'; valid: coefficients, model, r-squared, p, slope, intercept, residual-sd, report",
-      None, SRC_TEXT)
+checked(sheet, "E21", 'FIT.LINEAR(%s;%s;"r-squared")' % (Y, XS), ref["r_squared"], TOL_EST, SRC_SM)
+checked(sheet, "E22", 'FIT.LINEAR([.A:.A];[.B:.C];"residual-sd")',
+        ref["residual_sd"], TOL_EST, SRC_SM + "; whole-column references")
+checked(sheet, "E23", 'FIT.LINEAR(%s;%s;"slope")' % (Y, XS),
+        "output 'slope' needs exactly one predictor (xs has 2 columns); "
+        "use output 'coefficients' for the whole table", None, SRC_TEXT)
+checked(sheet, "E25", 'FIT.LINEAR(%s;%s;"slopes")' % (Y, XS),
+        "unknown output 'slopes'; valid: coefficients, model, r-squared, p, slope, intercept, residual-sd, report",
+        None, SRC_TEXT)
 
 # FIT.POINTS: all six columns in place of the header row (array 43 × 6), and one column.
 sheet.formula("N1", "FIT.POINTS(%s;%s)" % (Y, XS), array=(last, 6))
@@ -108,15 +107,13 @@ for address, output, value, tol, source in [
         ("E31", "influence", c["max_cook"], TOL_EST, SRC_SM + " OLSInfluence.cooks_distance"),
         ("E32", "outliers", c["outliers"], None, SRC_SM + " OLSInfluence: rows with |t| > 3, a count"),
         ("E33", "normality", c["shapiro_p"], 1e-3, SRC_SP + " shapiro computes in single precision: 1e-3")]:
-    sheet.formula(address, 'CHECK.REGRESSION(%s;%s;"%s")' % (Y, XS, output))
-    check("stream." + address, value, tol, source)
-sheet.formula("E34", "INDEX(CHECK.REGRESSION(%s;%s);3;5)" % (Y, XS))
-check("stream.E34", "look", None, "BP p = 0.027 < 0.05 (" + SRC_SM + "); verdict rule of FUNCTIONS.md")
-sheet.formula("E35", "INDEX(CHECK.REGRESSION(%s;%s);4;4)" % (Y, XS))
-check("stream.E35", "no verdict: rows in no particular order cannot be judged; give order (dates, times or distances) "
-      "for Durbin–Watson", None, "FUNCTIONS.md: without order the independence row gives no verdict")
-sheet.formula("E36", "INDEX(CHECK.REGRESSION(%s;%s);1;5)" % (Y, XS))
-check("stream.E36", "verdict", None, SRC_TEXT)
+    checked(sheet, address, 'CHECK.REGRESSION(%s;%s;"%s")' % (Y, XS, output), value, tol, source)
+checked(sheet, "E34", "INDEX(CHECK.REGRESSION(%s;%s);3;5)" % (Y, XS),
+        "look", None, "BP p = 0.027 < 0.05 (" + SRC_SM + "); verdict rule of FUNCTIONS.md")
+checked(sheet, "E35", "INDEX(CHECK.REGRESSION(%s;%s);4;4)" % (Y, XS),
+        "no verdict: rows in no particular order cannot be judged; give order (dates, times or distances) "
+        "for Durbin–Watson", None, "FUNCTIONS.md: without order the independence row gives no verdict")
+checked(sheet, "E36", "INDEX(CHECK.REGRESSION(%s;%s);1;5)" % (Y, XS), "verdict", None, SRC_TEXT)
 
 # --- marsh: one predictor, no header ---------------------------------------------------------------
 marsh = REF["marsh"]
@@ -125,24 +122,20 @@ msheet = book.sheet("marsh")
 msheet.block("A1", [[y, x] for y, x in zip(marsh["y"], marsh["xs"][0])])
 n = len(marsh["y"])
 MY, MX = "[.A1:.A%d]" % n, "[.B1:.B%d]" % n
-msheet.formula("D1", 'FIT.LINEAR(%s;%s;"slope")' % (MY, MX))
-check("marsh.D1", mref["estimate"][1], TOL_EST, SRC_SM)
-msheet.formula("D2", 'FIT.LINEAR(%s;%s;"intercept")' % (MY, MX))
-check("marsh.D2", mref["estimate"][0], TOL_EST, SRC_SM)
-msheet.formula("D3", 'FIT.LINEAR(%s;%s;"p")' % (MY, MX))
-check("marsh.D3", mref["f_p"], TOL_P, SRC_SM)
+checked(msheet, "D1", 'FIT.LINEAR(%s;%s;"slope")' % (MY, MX), mref["estimate"][1], TOL_EST, SRC_SM)
+checked(msheet, "D2", 'FIT.LINEAR(%s;%s;"intercept")' % (MY, MX), mref["estimate"][0], TOL_EST, SRC_SM)
+checked(msheet, "D3", 'FIT.LINEAR(%s;%s;"p")' % (MY, MX), mref["f_p"], TOL_P, SRC_SM)
 msheet.formula("D4", 'FIT.LINEAR(%s;%s;"report")' % (MY, MX))
 lo, hi = mref["ci"]["0.95"][1]
 report = "Linear regression (ordinary least squares): R² = %s, F(1, %d) = %s, %s, n = %d; slope %s (95%% CI %s to %s)" % (
     fmt_number(mref["r_squared"]), n - 2, fmt_number(mref["f"]), fmt_p(mref["f_p"]), n,
     fmt_number(mref["estimate"][1]), fmt_number(lo), fmt_number(hi))
 check("marsh.D4", report, None, SRC_SM + " numbers, formatted by the catalogue's report rules; exact")
-msheet.formula("D5", "ROWS(FIT.POINTS(%s;%s))" % (MY, MX))
-check("marsh.D5", n + 1, None, "no header in the input: the header row goes on top, one row more (FUNCTIONS.md)")
-msheet.formula("D6", "INDEX(FIT.POINTS(%s;%s);1;6)" % (MY, MX))
-check("marsh.D6", "Cook's distance", None, SRC_TEXT)
-msheet.formula("D7", 'ROWS(FIT.POINTS(%s;%s;"leverage"))' % (MY, MX))
-check("marsh.D7", n, None, "one column: exactly the input's rows (FUNCTIONS.md)")
+checked(msheet, "D5", "ROWS(FIT.POINTS(%s;%s))" % (MY, MX),
+        n + 1, None, "no header in the input: the header row goes on top, one row more (FUNCTIONS.md)")
+checked(msheet, "D6", "INDEX(FIT.POINTS(%s;%s);1;6)" % (MY, MX), "Cook's distance", None, SRC_TEXT)
+checked(msheet, "D7", 'ROWS(FIT.POINTS(%s;%s;"leverage"))' % (MY, MX),
+        n, None, "one column: exactly the input's rows (FUNCTIONS.md)")
 
 # --- cores: correlation, no ties ------------------------------------------------------------------
 cores = REF["cores"]
@@ -161,16 +154,15 @@ for address, args, value, tol, source in [
         ("D8", ';"KENDALL";"statistic"', cref["kendall"]["tau"], TOL_EST,
          SRC_SP + " kendalltau: τ is the statistic in the exact case"),
         ("D9", ';;"n"', 20, None, "20 data rows under a header, a count")]:
-    csheet.formula(address, "RELATE.CORRELATION(%s;%s%s)" % (CX, CY, args))
-    check("cores." + address, value, tol, source)
-csheet.formula("D10", 'RELATE.CORRELATION(%s;%s;"tau")' % (CX, CY))
-check("cores.D10", "unknown method 'tau'; valid: pearson, spearman, kendall", None, SRC_TEXT)
+    checked(csheet, address, "RELATE.CORRELATION(%s;%s%s)" % (CX, CY, args), value, tol, source)
+checked(csheet, "D10", 'RELATE.CORRELATION(%s;%s;"tau")' % (CX, CY),
+        "unknown method 'tau'; valid: pearson, spearman, kendall", None, SRC_TEXT)
 
 fish = REF["fish"]
 fsheet = book.sheet("fish")
 fsheet.block("A1", [[x, y] for x, y in zip(fish["x"], fish["y"])])
-fsheet.formula("D1", 'RELATE.CORRELATION([.A1:.A60];[.B1:.B60];"kendall")')
-check("fish.D1", fish["reference"]["kendall"]["p"], TOL_P, SRC_SP + " kendalltau(method='asymptotic'), ties")
+checked(fsheet, "D1", 'RELATE.CORRELATION([.A1:.A60];[.B1:.B60];"kendall")',
+        fish["reference"]["kendall"]["p"], TOL_P, SRC_SP + " kendalltau(method='asymptotic'), ties")
 
 
 book.write(os.path.join(HERE, "linear.fods"), comment="Generated by tests/office/make_linear_workbook.py")

@@ -126,6 +126,11 @@ class Checks:
         self.sheet.rows("A%d" % self.next_row, [[result, expected, tolerance, source]])
         self.next_row += 1
 
+    def formula(self, sheet, ref, formula, expected, tolerance, source):
+        """Types `formula` at `ref` of `sheet` and checks that one cell (add for the rest)."""
+        sheet.formula(ref, formula)
+        self.add("%s.%s" % (sheet.name, ref), expected, tolerance, source)
+
 
 class Workbook:
     def __init__(self):
