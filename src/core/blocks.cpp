@@ -11,13 +11,14 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include "data.hpp"
+#include "exact_scaling.hpp"
+#include "finite_numbers.hpp"
 #include "keywords.hpp"
 #include "paired.hpp"
 #include "ranks.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
 #include "summary.hpp"
-#include "two_groups.hpp"
 
 namespace quadrat {
 

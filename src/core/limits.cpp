@@ -14,6 +14,8 @@
 #include <boost/math/special_functions/beta.hpp>
 
 #include "data.hpp"
+#include "exact_scaling.hpp"
+#include "finite_numbers.hpp"
 #include "keywords.hpp"
 #include "plan.hpp"
 #include "random.hpp"
@@ -21,7 +23,6 @@
 #include "report.hpp"
 #include "summary.hpp"
 #include "transform.hpp"
-#include "two_groups.hpp"
 
 namespace quadrat {
 

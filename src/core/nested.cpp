@@ -5,11 +5,12 @@
 #include <vector>
 
 #include "blocks.hpp"
+#include "exact_scaling.hpp"
+#include "finite_numbers.hpp"
 #include "oneway.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
 #include "summary.hpp"
-#include "two_groups.hpp"
 
 namespace quadrat {
 

@@ -7,12 +7,13 @@
 #include <boost/math/distributions/students_t.hpp>
 
 #include "data.hpp"
+#include "exact_scaling.hpp"
+#include "finite_numbers.hpp"
 #include "keywords.hpp"
 #include "refusal.hpp"
 #include "report.hpp"
 #include "summary.hpp"
 #include "transform.hpp"
-#include "two_groups.hpp"
 
 namespace quadrat {
 

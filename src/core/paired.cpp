@@ -18,7 +18,6 @@
 #include "refusal.hpp"
 #include "report.hpp"
 #include "summary.hpp"
-#include "two_groups.hpp"
 
 namespace quadrat {
 

@@ -6,8 +6,6 @@
 #include <span>
 #include <vector>
 
-#include "exact_scaling.hpp"   // still visible here for the files that took power_of_two_scale from this header
-#include "finite_numbers.hpp"  // likewise require_finite, require_finite_statistic, mark_non_finite
 #include "result.hpp"
 
 namespace quadrat {
