@@ -1,8 +1,8 @@
 #!/usr/bin/env bash
 # Every test, as CI runs it (.ci/run): install what is missing → Release build with the
 # extension → core tests → clang AddressSanitizer/UBSan build of the core and its tests → a short
-# fuzz run over every function → office tests in a headless Calc. Runs every stage it can, exits
-# non-zero on any failure, and ends with the runners' summary lines.
+# fuzz run over every function → office tests in a headless Calc → the live-edit matrix there.
+# Runs every stage it can, exits non-zero on any failure, and ends with the runners' summary lines.
 #   bash tools/test-all.sh
 set -uo pipefail
 cd "$(dirname "$0")/.."
@@ -68,6 +68,18 @@ if [[ $built_extension -eq 1 ]]; then
   [[ $rc -eq 0 ]] || status=1
 else
   summary+=("office tests: not run (no extension built)")
+fi
+
+stage "live edits (headless Calc: no stale value after any edit)"
+if [[ $built_extension -eq 1 ]]; then
+  live_log="$log_dir/live.log"
+  /usr/bin/python3 tests/office/run_live_edits.py --oxt build/quadrat.oxt </dev/null 2>&1 | tee "$live_log"
+  rc=${PIPESTATUS[0]}
+  line="$(grep -E '^[0-9]+ passed, [0-9]+ failed$' "$live_log" | tail -1)"
+  summary+=("live edits: ${line:-no summary (exit $rc)}")
+  [[ $rc -eq 0 ]] || status=1
+else
+  summary+=("live edits: not run (no extension built)")
 fi
 
 echo

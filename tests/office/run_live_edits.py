@@ -46,6 +46,7 @@ TOLERANCE = 1e-12          # relative: see the module text
 ROWS = 310                 # data rows 2..311
 BOUNDED = 301              # the bounded ranges stop at row 301: rows 302..311 lie below them
 QUADRAT = harness.STORED_PREFIX
+MOST_LINES = 12            # failure lines shown per case (all with -v)
 VALUE = uno.getConstantByName("com.sun.star.sheet.CellFlags.VALUE")
 STRING = uno.getConstantByName("com.sun.star.sheet.CellFlags.STRING")
 
@@ -99,7 +100,7 @@ def survey(seed):
     for i in range(ROWS):
         site = "upstream" if rng.random() < 0.5 else "downstream"
         temperature = round(rng.uniform(6.0, 22.0), 1)
-        oxygen = round((11.6 if site == "upstream" else 10.9) - 0.2 * temperature + rng.gauss(0.0, 0.45), 2)
+        oxygen = round((11.5 if site == "upstream" else 11.2) - 0.2 * temperature + rng.gauss(0.0, 0.45), 2)
         millivolts = round(oxygen * 22.0 + rng.gauss(0.0, 4.0), 1)
         rows.append([site, oxygen, temperature, millivolts])
     for i in (16, 151, 305):      # a field sheet's gaps: a reading not taken
@@ -157,28 +158,32 @@ def a1(column, row):
     return "%s%d" % (name, row + 1)
 
 
-def read_formula_cells(doc):
+def read_formula_cells(doc, prefix="", shift=0):
     """{sheet: [(address, formula, value)]} for every formula cell, in reading order. A Quadrat cell
     is read one by one through the cell (Calc interprets a dirty cell when it is read); Calc's own
-    formula cells (the probe column) through getDataArray."""
+    formula cells (the probe column) through getDataArray. `prefix` and `shift`: the fresh copy's
+    sheets are named prefix + name and its cells sit `shift` columns right (see fresh_computation);
+    addresses are given as in the original."""
     out = {}
     for name in doc.Sheets.getElementNames():
+        if not name.startswith(prefix) or name == prefix + "spare":
+            continue
         sheet = doc.Sheets.getByName(name)
         block = used_block(sheet)
         formulas = block.getFormulaArray()
         cells = []
         for r, row in enumerate(formulas):
-            for c, f in enumerate(row):
+            for c, f in enumerate(row[shift:], start=shift):
                 if QUADRAT in f:
-                    cells.append((a1(c, r), f, harness.Value.of(sheet.getCellByPosition(c, r))))
+                    cells.append((a1(c - shift, r), f, harness.Value.of(sheet.getCellByPosition(c, r))))
         data = block.getDataArray()
         for r, row in enumerate(formulas):
-            for c, f in enumerate(row):
+            for c, f in enumerate(row[shift:], start=shift):
                 if f.startswith("=") and QUADRAT not in f:
                     v = data[r][c]
-                    cells.append((a1(c, r), f, ("number", v) if isinstance(v, float) else
+                    cells.append((a1(c - shift, r), f, ("number", v) if isinstance(v, float) else
                                   (("text", v) if v != "" else ("blank", None))))
-        out[name] = cells
+        out[name[len(prefix):]] = cells
     return out
 
 
@@ -186,14 +191,20 @@ def quadrat_values(snapshot, sheet):
     return [v for _, f, v in snapshot[sheet] if QUADRAT in f]
 
 
+FRESH = "fresh_"
+
+
 def fresh_computation(office, doc):
-    """The same formulas over the same values, computed in a new document (no sharing with `doc`)."""
+    """The same formulas over the same values, computed in a new document. So that nothing can be
+    shared with `doc` whatever a store of decoded ranges were keyed by (document, sheet index or
+    name, address), the copy also has a spare sheet in front, its sheets renamed, and a column
+    inserted on the left of each (Calc moves the references along)."""
     fresh = office.new_calc()
     try:
         fresh.enableAutomaticCalculation(False)
         names = doc.Sheets.getElementNames()
-        fresh.Sheets.getByIndex(0).setName(names[0])
-        for i, name in enumerate(names[1:], start=1):
+        fresh.Sheets.getByIndex(0).setName(FRESH + "spare")
+        for i, name in enumerate(names, start=1):
             fresh.Sheets.insertNewByName(name, i)
         for name in names:
             source = doc.Sheets.getByName(name)
@@ -225,8 +236,12 @@ def fresh_computation(office, doc):
                         top = r - len(run)
                         target.getCellRangeByPosition(c, top, c, r - 1).setFormulaArray(tuple((x,) for x in run))
                         run = []
+        for name in names:
+            target = fresh.Sheets.getByName(name)
+            target.Columns.insertByIndex(0, 1)
+            target.setName(FRESH + name)
         fresh.calculateAll()
-        return read_formula_cells(fresh)
+        return read_formula_cells(fresh, FRESH, 1)
     finally:
         fresh.close(True)
 
@@ -647,7 +662,10 @@ def main():
                     one.close()
                 except Exception:
                     pass
-            run.record("%s (%.1f s)" % (name, time.time() - t) if args.verbose else name, one.failures)
+            failures = one.failures
+            if len(failures) > MOST_LINES and not args.verbose:
+                failures = failures[:MOST_LINES] + ["... and %d more (-v shows all)" % (len(failures) - MOST_LINES)]
+            run.record("%s (%.1f s)" % (name, time.time() - t) if args.verbose else name, failures)
             if not office.alive():
                 run.record("soffice after %s" % name, ["the office process died"])
                 break
