@@ -58,29 +58,26 @@ else
   status=1
 fi
 
-stage "office tests (headless Calc)"
-if [[ $built_extension -eq 1 ]]; then
-  office_log="$log_dir/office.log"
-  /usr/bin/python3 tests/office/run_office_tests.py --oxt build/quadrat.oxt </dev/null 2>&1 | tee "$office_log"
-  rc=${PIPESTATUS[0]}
-  line="$(grep -E '^[0-9]+ passed, [0-9]+ failed$' "$office_log" | tail -1)"
-  summary+=("office tests: ${line:-no summary (exit $rc)}")
+# A runner in a headless Calc with the built extension, its `N passed, N failed` line kept.
+run_office() {
+  local label="$1" script="$2" log="$log_dir/$(basename "$2").log"
+  if [[ $built_extension -ne 1 ]]; then
+    summary+=("$label: not run (no extension built)")
+    return
+  fi
+  /usr/bin/python3 "$script" --oxt build/quadrat.oxt </dev/null 2>&1 | tee "$log"
+  local rc=${PIPESTATUS[0]}
+  local line
+  line="$(grep -E '^[0-9]+ passed, [0-9]+ failed$' "$log" | tail -1)"
+  summary+=("$label: ${line:-no summary (exit $rc)}")
   [[ $rc -eq 0 ]] || status=1
-else
-  summary+=("office tests: not run (no extension built)")
-fi
+}
+
+stage "office tests (headless Calc)"
+run_office "office tests" tests/office/run_office_tests.py
 
 stage "live edits (headless Calc: no stale value after any edit)"
-if [[ $built_extension -eq 1 ]]; then
-  live_log="$log_dir/live.log"
-  /usr/bin/python3 tests/office/run_live_edits.py --oxt build/quadrat.oxt </dev/null 2>&1 | tee "$live_log"
-  rc=${PIPESTATUS[0]}
-  line="$(grep -E '^[0-9]+ passed, [0-9]+ failed$' "$live_log" | tail -1)"
-  summary+=("live edits: ${line:-no summary (exit $rc)}")
-  [[ $rc -eq 0 ]] || status=1
-else
-  summary+=("live edits: not run (no extension built)")
-fi
+run_office "live edits" tests/office/run_live_edits.py
 
 echo
 echo "=== summary ==="
