@@ -4,7 +4,6 @@
 #include <cmath>
 #include <functional>
 #include <limits>
-#include <unordered_map>
 
 #include <boost/math/distributions/chi_squared.hpp>
 #include <boost/math/distributions/hypergeometric.hpp>
@@ -182,21 +181,15 @@ ContingencyTable cross_tabulate(const Range& labels1, const Range& labels2) {
     if (labels1.columns != 1 || labels2.columns != 1)
         throw Refusal("with labels2, categories and labels2 must each be one column of labels (found " +
                       std::to_string(labels1.columns) + " and " + std::to_string(labels2.columns) + ")");
-    const Frame f = read_frame({{&labels1, ColumnKind::label, "categories"}, {&labels2, ColumnKind::label, "labels2"}});
+    // Labels as codes in order of first appearance (no text per row): the table's rows and columns.
+    Frame f = read_frame({{&labels1, ColumnKind::label, "categories"}, {&labels2, ColumnKind::label, "labels2"}},
+                         LabelForm::codes);
     ContingencyTable t;
     t.n_dropped = f.n_dropped;
-    std::unordered_map<std::string, std::size_t> row_index, column_index;
-    std::vector<std::pair<std::size_t, std::size_t>> cells;
-    cells.reserve(f.n_used);
-    for (std::size_t k = 0; k < f.n_used; ++k) {
-        auto [r, new_row] = row_index.try_emplace(f.labels[0][k], t.row_names.size());
-        if (new_row) t.row_names.push_back(f.labels[0][k]);
-        auto [c, new_column] = column_index.try_emplace(f.labels[1][k], t.column_names.size());
-        if (new_column) t.column_names.push_back(f.labels[1][k]);
-        cells.emplace_back(r->second, c->second);
-    }
+    t.row_names = std::move(f.levels[0]);
+    t.column_names = std::move(f.levels[1]);
     t.counts.assign(t.row_names.size(), std::vector<double>(t.column_names.size(), 0.0));
-    for (auto [i, j] : cells) t.counts[i][j] += 1;
+    for (std::size_t k = 0; k < f.n_used; ++k) t.counts[f.codes[0][k]][f.codes[1][k]] += 1;
     return t;
 }
 

@@ -1,10 +1,13 @@
 #include "data.hpp"
 
 #include <algorithm>
+#include <array>
 #include <cctype>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <cstring>
+#include <deque>
 #include <unordered_map>
 
 #include "refusal.hpp"
@@ -13,7 +16,11 @@ namespace quadrat {
 
 namespace {
 
-std::string_view trimmed(std::string_view s) {
+// A printable ASCII byte other than a space: a space in no locale.
+bool plain(char c) { return c > ' ' && c < '\x7f'; }
+
+inline std::string_view trimmed(std::string_view s) {
+    if (!s.empty() && plain(s.front()) && plain(s.back())) return s;  // the common case, without isspace
     while (!s.empty() && std::isspace(static_cast<unsigned char>(s.front()))) s.remove_prefix(1);
     while (!s.empty() && std::isspace(static_cast<unsigned char>(s.back()))) s.remove_suffix(1);
     return s;
@@ -48,15 +55,6 @@ namespace {
 
 bool is_censored_value(const Cell& c) { return c.kind == CellKind::text && censored_text(c.text) == CensoredText::censored; }
 
-bool present(const Cell& c, ColumnKind kind) {
-    switch (kind) {
-        case ColumnKind::numeric: return is_value(c);
-        case ColumnKind::label: return is_label(c);
-        case ColumnKind::censored: return is_value(c) || is_censored_value(c);
-    }
-    return false;
-}
-
 // The header rule of a censored value column: a header text above a number or a censored value.
 bool censored_column_has_header(const Range& r, std::size_t column) {
     if (r.rows < 2 || !is_header_text(r.at(0, column)) || is_censored_value(r.at(0, column))) return false;
@@ -90,10 +88,16 @@ bool numeric_column_has_header(const Range& r, std::size_t column) {
 
 bool label_column_has_header(const Range& r, std::size_t column) {
     if (r.rows < 2 || !is_header_text(r.at(0, column))) return false;
-    const std::string head = label_of(r.at(0, column));
+    // A cell repeats the header when its label equals the header's: a text that trims to it (the
+    // header is no missing marker, so neither is that text), or a number that shows as it, which
+    // only a header made of the characters a number shows (digits, sign, point, exponent) can be.
+    const std::string_view head = trimmed(r.at(0, column).text);
+    const bool number_like = head.find_first_not_of("0123456789+-.e") == std::string_view::npos;
     for (std::size_t row = 1; row < r.rows; ++row) {
         const Cell& c = r.at(row, column);
-        if (is_label(c) && label_of(c) == head) return false;
+        if (c.kind == CellKind::text ? trimmed(c.text) == head
+                                     : number_like && is_value(c) && number_label(c.number) == head)
+            return false;
     }
     return true;
 }
@@ -158,6 +162,7 @@ void refuse_censored_cells(const Range& r, const std::string& argument, std::siz
 bool is_missing_marker(std::string_view text) {
     const std::string_view t = trimmed(text);
     if (t.empty()) return true;
+    if (t.size() > 7) return false;  // longer than "missing", the longest marker
     static constexpr std::string_view markers[] = {"n/a", "na", "-", "\xE2\x80\x94" /* — */, "?", "missing"};
     for (auto m : markers)
         if (equals_ignoring_case(t, m)) return true;
@@ -179,7 +184,151 @@ std::string error_cell_message(const Range& range, std::size_t row, std::size_t 
     return argument + " holds " + what + " in row " + std::to_string(row + 1);
 }
 
-Frame read_frame(const std::vector<FrameBlock>& blocks) {
+namespace {
+
+// The labels of one column, each distinct text judged once (issue #19: labels at logger scale):
+// a text cell's label is a view of its trimmed text inside the cell (no copy per cell), a number
+// cell's label is made once per distinct number, and whether a text is a missing marker is decided
+// once per distinct text. Each distinct text gets a key in order of first sight.
+class LabelKeys {
+public:
+    static constexpr std::uint32_t none = static_cast<std::uint32_t>(-1);
+
+    // The key of the cell's label, or `none` when the cell holds no label (is_label).
+    std::uint32_t of(const Cell& c) {
+        if (c.kind == CellKind::text) {
+            const std::uint32_t key = find(trimmed(c.text));
+            return is_label_[key] ? key : none;
+        }
+        if (c.kind == CellKind::number && std::isfinite(c.number)) return of_number(c.number);
+        return none;
+    }
+    std::size_t size() const { return texts_.size(); }
+    std::string_view text(std::uint32_t key) const { return texts_[key]; }
+
+private:
+    // Few distinct labels (the usual column of sites or treatments) are found by comparing with
+    // each; past this many, through a hash table.
+    static constexpr std::size_t linear_search_up_to = 16;
+
+    std::uint32_t find(std::string_view t) {
+        // A small table remembers, by a fingerprint of the text, the key last found there: with few
+        // distinct labels nearly every cell is found by one comparison that does not miss.
+        std::uint32_t& remembered = recent_[slot(t)];
+        if (remembered != none && same_text(texts_[remembered], t)) return remembered;
+        return remembered = search(t);
+    }
+
+    [[gnu::noinline]] std::uint32_t search(std::string_view t) {
+        if (index_.empty()) {
+            for (std::uint32_t k = 0; k < texts_.size(); ++k)
+                if (texts_[k] == t) return k;
+        } else if (const auto it = index_.find(t); it != index_.end()) {
+            return it->second;
+        }
+        const auto key = static_cast<std::uint32_t>(texts_.size());
+        texts_.push_back(t);
+        is_label_.push_back(!is_missing_marker(t));
+        if (!index_.empty())
+            index_.emplace(t, key);
+        else if (texts_.size() > linear_search_up_to)
+            for (std::uint32_t k = 0; k < texts_.size(); ++k) index_.emplace(texts_[k], k);
+        return key;
+    }
+
+    static std::uint32_t load4(const char* p) {
+        std::uint32_t x;
+        std::memcpy(&x, p, sizeof x);
+        return x;
+    }
+    static std::uint64_t load8(const char* p) {
+        std::uint64_t x;
+        std::memcpy(&x, p, sizeof x);
+        return x;
+    }
+    // Equal texts, short ones compared by whole words (no call to memcmp per cell).
+    static bool same_text(std::string_view a, std::string_view b) {
+        const std::size_t n = a.size();
+        if (n != b.size()) return false;
+        if (n > 16) return std::memcmp(a.data(), b.data(), n) == 0;
+        if (n >= 8) return load8(a.data()) == load8(b.data()) && load8(a.data() + n - 8) == load8(b.data() + n - 8);
+        if (n >= 4) return load4(a.data()) == load4(b.data()) && load4(a.data() + n - 4) == load4(b.data() + n - 4);
+        for (std::size_t i = 0; i < n; ++i)
+            if (a[i] != b[i]) return false;
+        return true;
+    }
+    // The text's length, first and last bytes, mixed into one of the table's slots.
+    static std::size_t slot(std::string_view t) {
+        const std::size_t n = t.size();
+        std::uint64_t x = n;
+        if (n >= 4)
+            x ^= (std::uint64_t{load4(t.data())} << 32 | load4(t.data() + n - 4)) + n;
+        else
+            for (std::size_t i = 0; i < n; ++i) x = x << 8 | static_cast<unsigned char>(t[i]);
+        return static_cast<std::size_t>((x * 0x9E3779B97F4A7C15ull) >> (64 - recent_bits));
+    }
+
+    // A number's label as the office shows it (number_label): 2 and the text "2" are one label.
+    std::uint32_t of_number(double x) {
+        std::uint64_t bits;
+        std::memcpy(&bits, &x, sizeof bits);
+        if (const auto it = numbers_.find(bits); it != numbers_.end()) return it->second;
+        const std::uint32_t key = find(owned_.emplace_back(number_label(x)));
+        numbers_.emplace(bits, key);
+        return key;
+    }
+
+    std::vector<std::string_view> texts_;  // per key: views into the cells, or into owned_
+    std::vector<char> is_label_;           // per key: not a missing marker
+    std::unordered_map<std::string_view, std::uint32_t> index_;
+    std::unordered_map<std::uint64_t, std::uint32_t> numbers_;
+    std::deque<std::string> owned_;  // number labels (a deque: its strings never move)
+    static constexpr int recent_bits = 6;
+    std::array<std::uint32_t, std::size_t{1} << recent_bits> recent_ = filled(none);
+    static std::array<std::uint32_t, std::size_t{1} << recent_bits> filled(std::uint32_t v) {
+        std::array<std::uint32_t, std::size_t{1} << recent_bits> a;
+        a.fill(v);
+        return a;
+    }
+};
+
+constexpr std::size_t nowhere = static_cast<std::size_t>(-1);
+
+// The first cell of each block that read_frame refuses, found in the same pass as the reading:
+// errors come first (in block order), then censored or non-detect values of non-label blocks —
+// the order of one scan for errors followed by one for censored cells.
+struct FirstRefusals {
+    struct Place {
+        std::size_t row = nowhere, column = 0;
+    };
+    std::vector<Place> error, censored;
+
+    explicit FirstRefusals(std::size_t blocks) : error(blocks), censored(blocks) {}
+
+    // For an error or text cell of block b.
+    void note(const FrameBlock& block, std::size_t b, std::size_t row, std::size_t column, const Cell& c) {
+        if (c.kind == CellKind::error) {
+            if (error[b].row == nowhere) error[b] = {row, column};
+        } else if (block.kind != ColumnKind::label && censored[b].row == nowhere) {
+            const CensoredText kind = censored_text(c.text);
+            if (kind == CensoredText::without_limit || (kind == CensoredText::censored && block.kind != ColumnKind::censored))
+                censored[b] = {row, column};
+        }
+    }
+    void refuse(const std::vector<FrameBlock>& blocks) const {
+        for (std::size_t b = 0; b < blocks.size(); ++b)
+            if (error[b].row != nowhere)
+                throw Refusal(error_cell_message(*blocks[b].range, error[b].row, error[b].column, blocks[b].argument));
+        for (std::size_t b = 0; b < blocks.size(); ++b)
+            if (censored[b].row != nowhere)
+                refuse_censored_cell(*blocks[b].range, censored[b].row, censored[b].column, blocks[b].argument,
+                                     blocks[b].kind == ColumnKind::censored);
+    }
+};
+
+}  // namespace
+
+Frame read_frame(const std::vector<FrameBlock>& blocks, LabelForm form) {
     Frame f;
     if (blocks.empty()) return f;
     f.rows = blocks.front().range->rows;
@@ -195,7 +344,6 @@ Frame read_frame(const std::vector<FrameBlock>& blocks) {
     // column, each first-row text must be unique in its column.
     bool any_numeric = false;
     bool numeric_header = false;
-    bool all_labels_header = true;
     for (const auto& b : blocks)
         for (std::size_t col = 0; col < b.range->columns; ++col) {
             if (b.kind == ColumnKind::numeric) {
@@ -204,17 +352,17 @@ Frame read_frame(const std::vector<FrameBlock>& blocks) {
             } else if (b.kind == ColumnKind::censored) {
                 any_numeric = true;
                 numeric_header = numeric_header || censored_column_has_header(*b.range, col);
-            } else {
-                all_labels_header = all_labels_header && label_column_has_header(*b.range, col);
             }
         }
-    f.has_header = any_numeric ? numeric_header : all_labels_header;
+    if (any_numeric) {
+        f.has_header = numeric_header;
+    } else {
+        f.has_header = true;
+        for (const auto& b : blocks)
+            for (std::size_t col = 0; col < b.range->columns && f.has_header; ++col)
+                f.has_header = label_column_has_header(*b.range, col);
+    }
     const std::size_t start = f.has_header ? 1 : 0;
-
-    for (const auto& b : blocks) refuse_errors(*b.range, b.argument, 0);
-    for (const auto& b : blocks)
-        if (b.kind != ColumnKind::label)
-            refuse_censored_cells(*b.range, b.argument, 0, b.range->columns, b.kind == ColumnKind::censored);
 
     for (const auto& b : blocks)
         for (std::size_t col = 0; col < b.range->columns; ++col) {
@@ -225,32 +373,57 @@ Frame read_frame(const std::vector<FrameBlock>& blocks) {
     const std::size_t ncols = f.names.size();
     f.numbers.resize(ncols);
     f.labels.resize(ncols);
+    f.levels.resize(ncols);
+    f.codes.resize(ncols);
     f.censored.resize(ncols);
     // Room for every row at once: growing by doubling would copy a long column several times and
     // touch fresh memory at each step (on 10⁶ rows that was most of a call's time).
     for (std::size_t k = 0; k < ncols; ++k) {
-        if (f.kinds[k] == ColumnKind::label)
+        if (f.kinds[k] != ColumnKind::label)
+            f.numbers[k].reserve(f.rows - start);
+        else if (form == LabelForm::texts)
             f.labels[k].reserve(f.rows - start);
         else
-            f.numbers[k].reserve(f.rows - start);
+            f.codes[k].reserve(f.rows - start);
         if (f.kinds[k] == ColumnKind::censored) f.censored[k].reserve(f.rows - start);
     }
     f.used_rows.reserve(f.rows - start);
 
+    // One pass over the cells: the refusals (errors anywhere, header row included; censored values
+    // in value columns) are noted and given after it, the rows read meanwhile.
+    FirstRefusals refusals(blocks.size());
+    for (std::size_t b = 0; b < blocks.size() && start == 1; ++b)
+        for (std::size_t col = 0; col < blocks[b].range->columns; ++col) {
+            const Cell& c = blocks[b].range->at(0, col);
+            if (c.kind == CellKind::error || c.kind == CellKind::text) refusals.note(blocks[b], b, 0, col, c);
+        }
+    std::vector<LabelKeys> keys(ncols);
+    std::vector<std::vector<std::uint32_t>> code_of_key(ncols);  // per label column, per key: its code once used
+    std::vector<std::uint32_t> row_keys(ncols, LabelKeys::none);
     for (std::size_t row = start; row < f.rows; ++row) {
         bool all_present = true;
         bool anything = false;
-        for (const auto& b : blocks)
-            for (std::size_t col = 0; col < b.range->columns; ++col) {
-                const Cell& c = b.range->at(row, col);
+        std::size_t k = 0;
+        for (std::size_t b = 0; b < blocks.size(); ++b) {
+            const FrameBlock& block = blocks[b];
+            for (std::size_t col = 0; col < block.range->columns; ++col, ++k) {
+                const Cell& c = block.range->at(row, col);
                 anything = anything || c.kind != CellKind::empty;
-                all_present = all_present && present(c, b.kind);
+                if (c.kind == CellKind::error || (c.kind == CellKind::text && block.kind != ColumnKind::label))
+                    refusals.note(block, b, row, col, c);
+                if (block.kind == ColumnKind::label) {
+                    row_keys[k] = keys[k].of(c);
+                    all_present = all_present && row_keys[k] != LabelKeys::none;
+                } else {
+                    all_present = all_present && (is_value(c) || (block.kind == ColumnKind::censored && is_censored_value(c)));
+                }
             }
+        }
         if (!all_present) {
             if (anything) ++f.n_dropped;
             continue;
         }
-        std::size_t k = 0;
+        k = 0;
         for (const auto& b : blocks)
             for (std::size_t col = 0; col < b.range->columns; ++col, ++k) {
                 const Cell& c = b.range->at(row, col);
@@ -262,11 +435,23 @@ Frame read_frame(const std::vector<FrameBlock>& blocks) {
                     f.numbers[k].push_back(limit);
                     f.censored[k].push_back(censored);
                 } else {
-                    f.labels[k].push_back(label_of(c));
+                    // Codes in order of first use: a label seen only on dropped rows gets none.
+                    auto& codes = code_of_key[k];
+                    const std::uint32_t key = row_keys[k];
+                    if (key >= codes.size()) codes.resize(keys[k].size(), LabelKeys::none);
+                    if (codes[key] == LabelKeys::none) {
+                        codes[key] = static_cast<std::uint32_t>(f.levels[k].size());
+                        f.levels[k].emplace_back(keys[k].text(key));
+                    }
+                    if (form == LabelForm::texts)
+                        f.labels[k].push_back(f.levels[k][codes[key]]);
+                    else
+                        f.codes[k].push_back(codes[key]);
                 }
             }
         f.used_rows.push_back(row);
     }
+    refusals.refuse(blocks);
     f.n_used = f.used_rows.size();
     return f;
 }
@@ -282,26 +467,32 @@ Groups read_groups_as(const Range& values, const Range& groups, const std::strin
         if (values.columns != 1 || groups.columns != 1)
             throw Refusal(values_name + " and " + groups_name + " must each be one column (found " + std::to_string(values.columns) +
                           " and " + std::to_string(groups.columns) + ")");
-        const Frame f = read_frame({{&values, kind, values_name}, {&groups, ColumnKind::label, groups_name}});
+        Frame f = read_frame({{&values, kind, values_name}, {&groups, ColumnKind::label, groups_name}}, LabelForm::codes);
         g.labelled = true;
         g.has_header = f.has_header;
         g.n_used = f.n_used;
         g.n_dropped = f.n_dropped;
+        // Groups in order of first appearance (the codes' order); each group's room counted first,
+        // so that no group's values are copied as it grows.
+        g.names = std::move(f.levels[1]);
+        const std::vector<std::uint32_t>& codes = f.codes[1];
+        const std::vector<double>& numbers = f.numbers[0];
+        std::vector<std::size_t> sizes(g.names.size(), 0);
+        for (std::uint32_t code : codes) ++sizes[code];
+        g.values.resize(g.names.size());
+        for (std::size_t j = 0; j < sizes.size(); ++j) g.values[j].reserve(sizes[j]);
+        if (censored) {
+            g.censored.resize(g.names.size());
+            for (std::size_t j = 0; j < sizes.size(); ++j) g.censored[j].reserve(sizes[j]);
+        }
         g.row_group.assign(f.rows, no_group);
         g.row_value.assign(f.rows, 0.0);
-        std::unordered_map<std::string, std::size_t> index;
         for (std::size_t i = 0; i < f.n_used; ++i) {
-            const std::string& label = f.labels[1][i];
-            auto [it, inserted] = index.try_emplace(label, g.names.size());
-            if (inserted) {
-                g.names.push_back(label);
-                g.values.emplace_back();
-                if (censored) g.censored.emplace_back();
-            }
-            g.values[it->second].push_back(f.numbers[0][i]);
-            if (censored) g.censored[it->second].push_back(f.censored[0][i]);
-            g.row_group[f.used_rows[i]] = it->second;
-            g.row_value[f.used_rows[i]] = f.numbers[0][i];
+            const std::uint32_t code = codes[i];
+            g.values[code].push_back(numbers[i]);
+            if (censored) g.censored[code].push_back(f.censored[0][i]);
+            g.row_group[f.used_rows[i]] = code;
+            g.row_value[f.used_rows[i]] = numbers[i];
         }
         return g;
     }

@@ -3,6 +3,7 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <span>
 #include <string>
 #include <string_view>
@@ -69,7 +70,9 @@ struct Frame {
     std::vector<std::string> names;                  // per column: header text, or "" when none
     std::vector<ColumnKind> kinds;                   // per column
     std::vector<std::vector<double>> numbers;        // per column, n_used values (numeric columns)
-    std::vector<std::vector<std::string>> labels;    // per column, n_used labels (label columns)
+    std::vector<std::vector<std::string>> labels;    // per column, n_used labels (label columns, LabelForm::texts)
+    std::vector<std::vector<std::string>> levels;    // per column, its distinct labels in order of first use
+    std::vector<std::vector<std::uint32_t>> codes;   // per column, n_used indices into levels (LabelForm::codes)
     std::vector<std::vector<bool>> censored;         // per column, n_used flags (censored columns)
     std::vector<std::size_t> used_rows;              // range row of each used observation
     std::size_t rows = 0;                            // rows in each input range, header included
@@ -78,9 +81,13 @@ struct Frame {
     bool has_header = false;
 };
 
+// How read_frame gives back a label column: a text per used row (Frame::labels), or a code per
+// used row into the column's distinct labels (Frame::codes), which needs no string per row.
+enum class LabelForm { texts, codes };
+
 // Reads the blocks (all with the same number of rows). A cell holding a formula error is a
 // refusal naming the cell. The first row is a header per the catalogue's rule.
-Frame read_frame(const std::vector<FrameBlock>& blocks);
+Frame read_frame(const std::vector<FrameBlock>& blocks, LabelForm form = LabelForm::texts);
 
 // Groups of one numeric variable, in order of first appearance.
 struct Groups {

@@ -36,12 +36,15 @@ Table describe_groups(const Groups& groups, Transform transform, double level) {
     const std::size_t columns = table.front().size();
 
     // The transform's domain is checked over all groups at once, so the refusal counts every cell.
-    std::vector<std::vector<double>> transformed = groups.values;
-    apply_transform(transform, transformed);
+    std::vector<std::vector<double>> transformed;
+    if (transform != Transform::none) {
+        transformed = groups.values;
+        apply_transform(transform, transformed);
+    }
 
     for (std::size_t g = 0; g < groups.group_count(); ++g) {
         const std::vector<double>& raw = groups.values[g];
-        const std::vector<double>& scaled = transformed[g];
+        const std::vector<double>& scaled = transform != Transform::none ? transformed[g] : raw;
         const std::size_t n = raw.size();
         std::vector<CellValue> row{groups.names[g], static_cast<double>(n)};
         if (n == 0) {
@@ -50,8 +53,10 @@ Table describe_groups(const Groups& groups, Transform transform, double level) {
             table.push_back(std::move(row));
             continue;
         }
-        std::vector<double> sorted = raw;
-        std::sort(sorted.begin(), sorted.end());
+        // The quartiles by selection (linear time), the extremes by one scan each.
+        std::vector<double> work = raw;
+        static constexpr double quartile_probabilities[] = {0.25, 0.5, 0.75};
+        const std::vector<double> quartiles = quantiles_by_selection(work, quartile_probabilities);
 
         const double sd = standard_deviation(raw);  // NaN for n = 1 → blank
         const double se = sd / std::sqrt(static_cast<double>(n));
@@ -74,13 +79,13 @@ Table describe_groups(const Groups& groups, Transform transform, double level) {
         row.push_back(number_or_blank(sd));
         row.push_back(number_or_blank(se));
         row.push_back(number_or_blank(cv));
-        row.push_back(sorted.front());
+        row.push_back(*std::min_element(raw.begin(), raw.end()));
         // Quartiles as Calc's QUARTILE.INC (position (n − 1)p, linear interpolation), so a user can
         // check them in the sheet.
-        row.push_back(quantile_of_sorted(sorted, 0.25));
-        row.push_back(median_of_sorted(sorted));
-        row.push_back(quantile_of_sorted(sorted, 0.75));
-        row.push_back(sorted.back());
+        row.push_back(quartiles[0]);
+        row.push_back(quartiles[1]);
+        row.push_back(quartiles[2]);
+        row.push_back(*std::max_element(raw.begin(), raw.end()));
         table.push_back(std::move(row));
     }
     return table;

@@ -84,8 +84,8 @@ double median_of_sorted(std::span<const double> sorted) {
 }
 
 double median(std::vector<double> xs) {
-    std::sort(xs.begin(), xs.end());
-    return median_of_sorted(xs);
+    const double half[] = {0.5};
+    return quantiles_by_selection(xs, half).front();
 }
 
 double quantile_of_sorted(std::span<const double> sorted, double probability) {
@@ -94,6 +94,40 @@ double quantile_of_sorted(std::span<const double> sorted, double probability) {
     const auto lo = static_cast<std::size_t>(std::floor(h));
     const std::size_t hi = std::min(lo + 1, sorted.size() - 1);
     return sorted[lo] + (h - static_cast<double>(lo)) * (sorted[hi] - sorted[lo]);
+}
+
+std::vector<double> quantiles_by_selection(std::vector<double>& xs, std::span<const double> probabilities) {
+    std::vector<double> out;
+    out.reserve(probabilities.size());
+    const std::size_t n = xs.size();
+    // Nothing from xs[placed] on is smaller than what lies before it, and the order statistics
+    // placed so far hold their sorted places (with ascending probabilities, a position below
+    // `placed` asked again is one of the last two placed).
+    std::size_t placed = 0;
+    auto place = [&](std::size_t i) {
+        if (i < placed) return;
+        if (i == placed)  // the smallest of the rest
+            std::iter_swap(xs.begin() + static_cast<std::ptrdiff_t>(i),
+                           std::min_element(xs.begin() + static_cast<std::ptrdiff_t>(i), xs.end()));
+        else
+            std::nth_element(xs.begin() + static_cast<std::ptrdiff_t>(placed), xs.begin() + static_cast<std::ptrdiff_t>(i),
+                             xs.end());
+        placed = i + 1;
+    };
+    for (double probability : probabilities) {
+        if (n == 0) {
+            out.push_back(std::numeric_limits<double>::quiet_NaN());
+            continue;
+        }
+        // As quantile_of_sorted, on the order statistics lo and hi.
+        const double h = (static_cast<double>(n) - 1.0) * probability;
+        const auto lo = static_cast<std::size_t>(std::floor(h));
+        const std::size_t hi = std::min(lo + 1, n - 1);
+        place(lo);
+        place(hi);
+        out.push_back(xs[lo] + (h - static_cast<double>(lo)) * (xs[hi] - xs[lo]));
+    }
+    return out;
 }
 
 }  // namespace quadrat

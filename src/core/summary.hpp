@@ -40,5 +40,9 @@ double mean_from_mid_range(std::span<const double> xs);
 double median_of_sorted(std::span<const double> sorted);
 double median(std::vector<double> xs);
 double quantile_of_sorted(std::span<const double> sorted, double probability);
+// The same type-7 quantiles of unsorted values, by selection (Hoare's FIND: linear time instead of a
+// sort, and the very numbers quantile_of_sorted gives on the sorted values). `probabilities`
+// ascending; `xs` is reordered.
+std::vector<double> quantiles_by_selection(std::vector<double>& xs, std::span<const double> probabilities);
 
 }  // namespace quadrat

@@ -3,12 +3,15 @@
 // and through the glue (registry, argument reading, fence).
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <nlohmann/json.hpp>
+#include <random>
 
 #include "addin/registry.hpp"
 #include "core/describe.hpp"
 #include "core/refusal.hpp"
+#include "core/summary.hpp"
 #include "reference.hpp"
 
 namespace quadrat {
@@ -107,6 +110,24 @@ TEST(DescribeGroups, LabelsWithoutNumbersSayWhichRowsWereDropped) {
         FAIL();
     } catch (const Refusal& r) {
         EXPECT_STREQ(r.what(), "no row has both a number in values and a label in groups (3 rows dropped)");
+    }
+}
+
+TEST(Quantiles, BySelectionAreTheSortedOnesExactly) {
+    // Common practice, no source: selection finds the same order statistics as a sort, so the
+    // quartiles and the median equal quantile_of_sorted's bit for bit (ties, 1 to 3 values, even
+    // and odd counts, probabilities that share an order statistic).
+    std::mt19937 random(5122026);
+    const std::vector<double> probabilities = {0.0, 0.25, 0.25, 0.3, 0.5, 0.75, 1.0};
+    for (int trial = 0; trial < 200; ++trial) {
+        std::vector<double> xs(1 + random() % (trial < 20 ? 3 : 500));
+        for (double& x : xs) x = static_cast<double>(random() % (trial % 2 ? 7 : 100000)) / 8.0;
+        std::vector<double> sorted = xs;
+        std::sort(sorted.begin(), sorted.end());
+        const std::vector<double> selected = quantiles_by_selection(xs, probabilities);
+        for (std::size_t i = 0; i < probabilities.size(); ++i)
+            ASSERT_EQ(selected[i], quantile_of_sorted(sorted, probabilities[i])) << trial << " p " << probabilities[i];
+        ASSERT_EQ(median(sorted), median_of_sorted(sorted)) << trial;
     }
 }
 
