@@ -17,6 +17,11 @@
 //
 // Usage: quadrat_bench_core DATA_DIR --split LARGEST_N
 //   Where a COMPARE.GROUPS welch call's time goes (cache key, reading the cells, statistics).
+// Usage: quadrat_bench_core DATA_DIR --stages CASE N
+//   For a case that reads labels (groups-*, variance-*, describe-groups, counts-chi-square): the
+//   reading alone (cells into groups, or two label columns into a table) and the statistics alone
+//   (on the groups or table already read), fastest of several runs each:
+//   `case<TAB>n<TAB>reading ms<TAB>statistics ms`.
 //
 // Every timed call starts with the cache emptied (forget_all), so it measures the computation;
 // the fastest of several runs is kept, since on a shared machine the slower ones measure the
@@ -34,9 +39,12 @@
 
 #include "addin/memo.hpp"
 #include "addin/registry.hpp"
+#include "core/counts.hpp"
 #include "core/data.hpp"
+#include "core/describe.hpp"
 #include "core/oneway.hpp"
 #include "core/transform.hpp"
+#include "core/variance.hpp"
 
 namespace {
 
@@ -281,6 +289,52 @@ int run_split(std::size_t largest) {
     return 0;
 }
 
+// The reading and the statistics of one case apart (see the usage above).
+int run_stages(const std::string& name, std::size_t n) {
+    const Case c = make_case(name, n);
+    const Range& first = c.arguments[0];
+    const Range& second = c.arguments[1];
+    const bool counts = name == "counts-chi-square";
+    const std::string method = name == "groups-welch"                   ? "welch"
+                               : name.rfind("groups-ranks", 0) == 0      ? "ranks"
+                               : name == "groups-pooled-4"               ? "pooled"
+                               : name == "variance-brown-forsythe"       ? "brown-forsythe"
+                               : name == "describe-groups" || counts     ? ""
+                                                                         : "?";
+    if (method == "?") {
+        std::fprintf(stderr, "--stages: %s reads no labels\n", name.c_str());
+        return 2;
+    }
+    double reading = 1e300, statistics = 1e300, spent = 0.0;
+    for (int run = 0; run < 9 && (run < 3 || spent < 3000.0); ++run) {
+        auto start = Clock::now();
+        quadrat::Groups g;
+        quadrat::ContingencyTable table;
+        if (counts)
+            table = quadrat::cross_tabulate(first, second);
+        else
+            g = quadrat::read_groups(first, second);
+        const double read_ms = ms_since(start);
+        start = Clock::now();
+        std::size_t size = 0;
+        if (counts)
+            size = quadrat::compare_counts(table, "chi-square").quantities.size();
+        else if (name == "describe-groups")
+            size = quadrat::describe_groups(g, quadrat::Transform::none, 0.95).size();
+        else if (name == "variance-brown-forsythe")
+            size = quadrat::check_variance(g, method).quantities.size();
+        else
+            size = quadrat::compare_groups(g, method, quadrat::parse_transform("")).quantities.size();
+        const double statistics_ms = ms_since(start);
+        if (size == 0) std::abort();
+        reading = std::min(reading, read_ms);
+        statistics = std::min(statistics, statistics_ms);
+        spent += read_ms + statistics_ms;
+    }
+    std::printf("%s\t%zu\t%.6f\t%.6f\n", name.c_str(), n, reading, statistics);
+    return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -293,6 +347,7 @@ int main(int argc, char** argv) {
         run_case(argv[2], std::strtoul(argv[3], nullptr, 10));
         return 0;
     }
+    if (argc > 4 && std::string(argv[2]) == "--stages") return run_stages(argv[3], std::strtoul(argv[4], nullptr, 10));
     if (argc > 3 && std::string(argv[2]) == "--split") return run_split(std::strtoul(argv[3], nullptr, 10));
     if (argc > 3 && std::string(argv[2]) == "--cache") return run_cache(std::strtoul(argv[3], nullptr, 10));
     return run_cases();

@@ -3,7 +3,7 @@
 
     bash tools/benchmark.sh            # builds what it needs, then runs this script
     /usr/bin/python3 tools/benchmark.py --core build/quadrat_bench_core [--oxt build/quadrat.oxt]
-        [--sizes 1000,10000,100000,1000000] [--skip-office]
+        [--sizes 1000,10000,100000,1000000] [--cases groups-welch,describe-groups] [--skip-office]
 
 Run with Debian's /usr/bin/python3 (python3-scipy, python3-statsmodels, python3-uno:
 `bash tools/install-deps.sh --reference`). Prints, in one run:
@@ -13,6 +13,8 @@ Run with Debian's /usr/bin/python3 (python3-scipy, python3-statsmodels, python3-
     that the C++ program reads, so both sides see the same numbers. A library gets its natural
     input (NumPy arrays and integer group codes, split by group inside the timed call); the core
     gets cells (numbers, text labels, a header row), as from a sheet.
+ 1b. for the cases that read labels, the core's reading (cells into groups) and its statistics
+    timed apart, the statistics beside the library's on the arrays already split by group.
  2. the result cache (src/addin/memo.*): a computing call, a call answered from the cache, ten
     outputs of one test with and without it.
  3. recalculation in headless Calc (with --oxt): Quadrat functions against T.TEST, LINEST and
@@ -243,6 +245,78 @@ def run_core(core, folder, cases, sizes):
     return results
 
 
+# Cases that read labels: the core's reading (cells into groups or a table) and its statistics timed
+# apart (quadrat_bench_core --stages), beside the library's statistics alone on the arrays already
+# split by group (issue #19: "core statistics on grouped doubles / SciPy on the same arrays").
+def stage_cases():
+    from scipy import stats
+
+    def presplit(d, n, k, f):
+        x, g = d["v"][:n], d["g2" if k == 2 else "g4"][:n]
+        parts = [x[g == i] for i in range(k)]
+        return lambda: f(*parts)
+
+    def describe_presplit(d, n):
+        x, g = d["v"][:n], d["g4"][:n]
+        parts = [x[g == i] for i in range(4)]
+
+        def run():
+            rows = []
+            for s in parts:
+                m, sd = s.mean(), s.std(ddof=1)
+                se = sd / np.sqrt(len(s))
+                h = stats.t.ppf(0.975, len(s) - 1) * se
+                rows.append((len(s), m, sd, se, m - h, m + h, np.median(s), s.min(), s.max()))
+            return rows
+        return run
+
+    def tabulate(d, n):
+        c1, c2 = d["c1"][:n], d["c2"][:n]
+        return lambda: np.bincount(c1 * 4 + c2, minlength=12).reshape(3, 4)
+
+    def chi_square_on_table(d, n):
+        table = np.bincount(d["c1"][:n] * 4 + d["c2"][:n], minlength=12).reshape(3, 4)
+        return lambda: stats.chi2_contingency(table, correction=False)
+
+    # case → (library statistics on split arrays, library reading or None)
+    return {
+        "groups-welch": (lambda d, n: presplit(d, n, 2, lambda x, y: stats.ttest_ind(x, y, equal_var=False)), None),
+        "groups-ranks-2": (lambda d, n: presplit(d, n, 2, lambda x, y: stats.mannwhitneyu(x, y, alternative="two-sided")), None),
+        "groups-pooled-4": (lambda d, n: presplit(d, n, 4, stats.f_oneway), None),
+        "groups-ranks-4": (lambda d, n: presplit(d, n, 4, stats.kruskal), None),
+        "variance-brown-forsythe": (lambda d, n: presplit(d, n, 4, lambda *g: stats.levene(*g, center="median")), None),
+        "describe-groups": (describe_presplit, None),
+        "counts-chi-square": (chi_square_on_table, tabulate),
+    }
+
+
+def print_stages(core, folder, cases, sizes, arrays):
+    print("\n### 1b. Reading and statistics apart, cases that read labels\n")
+    print("reading: the core's cells (values beside a label column, or two label columns) into groups or a")
+    print("table, per row; statistics: the core on the groups already read, against the library on the")
+    print("arrays already split by group (NumPy's bincount as the reading of COMPARE.COUNTS).")
+    print("ratio = library / core (above 1: the core is faster). Fastest of up to 9 runs each.\n")
+    print("| case | n | core reading | per row | library reading | core statistics | library statistics | ratio statistics |")
+    print("| --- | --- | --- | --- | --- | --- | --- | --- |")
+    extra = stage_cases()
+    for name, quadrat, _, _ in cases:
+        if name not in extra:
+            continue
+        statistics, reading = extra[name]
+        for n in sizes:
+            line = subprocess.run([core, folder, "--stages", name, str(n)], check=True, capture_output=True, text=True).stdout
+            _, _, read_ms, stat_ms = line.rstrip("\n").split("\t")
+            read_ms, stat_ms = float(read_ms), float(stat_ms)
+            with warnings.catch_warnings():
+                warnings.simplefilter("ignore")
+                lib_stat = time_thunk(statistics(arrays, n))[0]
+                lib_read = time_thunk(reading(arrays, n))[0] if reading else None
+            print("| %s | %d | %s | %.1f ns | %s | %s | %s | %s |" % (
+                quadrat, n, fmt_ms(read_ms), read_ms * 1e6 / n, fmt_ms(lib_read) if lib_read else "—",
+                fmt_ms(stat_ms), fmt_ms(lib_stat), "%.2g×" % (lib_stat / stat_ms) if stat_ms > 0 else "—"))
+            sys.stdout.flush()
+
+
 def fmt_ms(ms):
     return "%.3g ms" % ms if ms < 1000 else "%.2f s" % (ms / 1000.0)
 
@@ -328,6 +402,7 @@ def main():
     parser.add_argument("--limit", type=float, default=60.0,
                         help="skip a library case predicted to take longer than this many seconds per call")
     parser.add_argument("--skip-libraries", action="store_true")
+    parser.add_argument("--cases", help="only these cases, comma-separated (e.g. groups-welch,describe-groups)")
     args = parser.parse_args()
     sizes = [int(s) for s in args.sizes.split(",")]
     import scipy
@@ -340,9 +415,13 @@ def main():
     try:
         arrays = write_arrays(folder, max(sizes))
         cases = library_cases()
+        if args.cases:
+            cases = [c for c in cases if c[0] in args.cases.split(",")]
         core = run_core(args.core, folder, cases, sizes)
         library = {} if args.skip_libraries else run_libraries(cases, sizes, arrays, args.limit)
         print_core_table(cases, sizes, core, library)
+        if not args.skip_libraries:
+            print_stages(args.core, folder, cases, sizes, arrays)
         print_cache(args.core, folder, max(sizes))
         if args.oxt:
             import bench_calc
