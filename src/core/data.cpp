@@ -197,7 +197,9 @@ public:
     // The key of the cell's label, or `none` when the cell holds no label (is_label).
     std::uint32_t of(const Cell& c) {
         if (c.kind == CellKind::text) {
-            const std::uint32_t key = find(trimmed(c.text));
+            const std::string_view t = c.text;
+            const bool bare = !t.empty() && plain(t.front()) && plain(t.back());  // nothing to trim
+            const std::uint32_t key = find(bare ? t : trimmed(t));
             return is_label_[key] ? key : none;
         }
         if (c.kind == CellKind::number && std::isfinite(c.number)) return of_number(c.number);
@@ -397,58 +399,64 @@ Frame read_frame(const std::vector<FrameBlock>& blocks, LabelForm form) {
             const Cell& c = blocks[b].range->at(0, col);
             if (c.kind == CellKind::error || c.kind == CellKind::text) refusals.note(blocks[b], b, 0, col, c);
         }
+    // Each column once more as where its cells lie (a column of a block: a first cell and a stride).
+    struct Source {
+        const Cell* first;
+        std::size_t stride, block, column;
+        ColumnKind kind;
+    };
+    std::vector<Source> sources;
+    for (std::size_t b = 0; b < blocks.size(); ++b)
+        for (std::size_t col = 0; col < blocks[b].range->columns; ++col)
+            sources.push_back({blocks[b].range->cells.data() + col, blocks[b].range->columns, b, col, blocks[b].kind});
     std::vector<LabelKeys> keys(ncols);
     std::vector<std::vector<std::uint32_t>> code_of_key(ncols);  // per label column, per key: its code once used
     std::vector<std::uint32_t> row_keys(ncols, LabelKeys::none);
     for (std::size_t row = start; row < f.rows; ++row) {
         bool all_present = true;
         bool anything = false;
-        std::size_t k = 0;
-        for (std::size_t b = 0; b < blocks.size(); ++b) {
-            const FrameBlock& block = blocks[b];
-            for (std::size_t col = 0; col < block.range->columns; ++col, ++k) {
-                const Cell& c = block.range->at(row, col);
-                anything = anything || c.kind != CellKind::empty;
-                if (c.kind == CellKind::error || (c.kind == CellKind::text && block.kind != ColumnKind::label))
-                    refusals.note(block, b, row, col, c);
-                if (block.kind == ColumnKind::label) {
-                    row_keys[k] = keys[k].of(c);
-                    all_present = all_present && row_keys[k] != LabelKeys::none;
-                } else {
-                    all_present = all_present && (is_value(c) || (block.kind == ColumnKind::censored && is_censored_value(c)));
-                }
+        for (std::size_t k = 0; k < ncols; ++k) {
+            const Source& from = sources[k];
+            const Cell& c = from.first[row * from.stride];
+            anything = anything || c.kind != CellKind::empty;
+            if (c.kind == CellKind::error || (c.kind == CellKind::text && from.kind != ColumnKind::label))
+                refusals.note(blocks[from.block], from.block, row, from.column, c);
+            if (from.kind == ColumnKind::label) {
+                row_keys[k] = keys[k].of(c);
+                all_present = all_present && row_keys[k] != LabelKeys::none;
+            } else {
+                all_present = all_present && (is_value(c) || (from.kind == ColumnKind::censored && is_censored_value(c)));
             }
         }
         if (!all_present) {
             if (anything) ++f.n_dropped;
             continue;
         }
-        k = 0;
-        for (const auto& b : blocks)
-            for (std::size_t col = 0; col < b.range->columns; ++col, ++k) {
-                const Cell& c = b.range->at(row, col);
-                if (b.kind == ColumnKind::numeric) {
-                    f.numbers[k].push_back(c.number);
-                } else if (b.kind == ColumnKind::censored) {
-                    double limit = c.number;
-                    const bool censored = c.kind == CellKind::text && censored_text(c.text, &limit) == CensoredText::censored;
-                    f.numbers[k].push_back(limit);
-                    f.censored[k].push_back(censored);
-                } else {
-                    // Codes in order of first use: a label seen only on dropped rows gets none.
-                    auto& codes = code_of_key[k];
-                    const std::uint32_t key = row_keys[k];
-                    if (key >= codes.size()) codes.resize(keys[k].size(), LabelKeys::none);
-                    if (codes[key] == LabelKeys::none) {
-                        codes[key] = static_cast<std::uint32_t>(f.levels[k].size());
-                        f.levels[k].emplace_back(keys[k].text(key));
-                    }
-                    if (form == LabelForm::texts)
-                        f.labels[k].push_back(f.levels[k][codes[key]]);
-                    else
-                        f.codes[k].push_back(codes[key]);
+        for (std::size_t k = 0; k < ncols; ++k) {
+            const Source& from = sources[k];
+            const Cell& c = from.first[row * from.stride];
+            if (from.kind == ColumnKind::numeric) {
+                f.numbers[k].push_back(c.number);
+            } else if (from.kind == ColumnKind::censored) {
+                double limit = c.number;
+                const bool censored = c.kind == CellKind::text && censored_text(c.text, &limit) == CensoredText::censored;
+                f.numbers[k].push_back(limit);
+                f.censored[k].push_back(censored);
+            } else {
+                // Codes in order of first use: a label seen only on dropped rows gets none.
+                auto& codes = code_of_key[k];
+                const std::uint32_t key = row_keys[k];
+                if (key >= codes.size()) codes.resize(keys[k].size(), LabelKeys::none);
+                if (codes[key] == LabelKeys::none) {
+                    codes[key] = static_cast<std::uint32_t>(f.levels[k].size());
+                    f.levels[k].emplace_back(keys[k].text(key));
                 }
+                if (form == LabelForm::texts)
+                    f.labels[k].push_back(f.levels[k][codes[key]]);
+                else
+                    f.codes[k].push_back(codes[key]);
             }
+        }
         f.used_rows.push_back(row);
     }
     refusals.refuse(blocks);
@@ -485,14 +493,17 @@ Groups read_groups_as(const Range& values, const Range& groups, const std::strin
             g.censored.resize(g.names.size());
             for (std::size_t j = 0; j < sizes.size(); ++j) g.censored[j].reserve(sizes[j]);
         }
-        g.row_group.assign(f.rows, no_group);
-        g.row_value.assign(f.rows, 0.0);
-        for (std::size_t i = 0; i < f.n_used; ++i) {
-            const std::uint32_t code = codes[i];
-            g.values[code].push_back(numbers[i]);
-            if (censored) g.censored[code].push_back(f.censored[0][i]);
-            g.row_group[f.used_rows[i]] = code;
-            g.row_value[f.used_rows[i]] = numbers[i];
+        for (std::size_t i = 0; i < f.n_used; ++i) g.values[codes[i]].push_back(numbers[i]);
+        if (censored)
+            for (std::size_t i = 0; i < f.n_used; ++i) g.censored[codes[i]].push_back(f.censored[0][i]);
+        // Row by row, each written once: the used rows ascend.
+        g.row_group.resize(f.rows);
+        g.row_value.resize(f.rows);
+        for (std::size_t row = 0, i = 0; row < f.rows; ++row) {
+            const bool used = i < f.n_used && f.used_rows[i] == row;
+            g.row_group[row] = used ? codes[i] : no_group;
+            g.row_value[row] = used ? numbers[i] : 0.0;
+            i += used;
         }
         return g;
     }

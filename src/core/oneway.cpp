@@ -47,12 +47,6 @@ std::vector<double> group_means(std::span<const std::vector<double>> groups) {
     return means;
 }
 
-std::vector<double> group_medians(std::span<const std::vector<double>> groups) {
-    std::vector<double> medians;
-    for (const auto& g : groups) medians.push_back(median(g));
-    return medians;
-}
-
 std::size_t total_count(std::span<const std::vector<double>> groups) {
     std::size_t n = 0;
     for (const auto& g : groups) n += g.size();
@@ -250,8 +244,13 @@ TestResult compare_groups(const Groups& g, const std::string& method_given, Tran
         throw Refusal("needs at least 2 groups, found 1 (" + (k ? g.names[0] : std::string("none")) +
                       "); give group labels in groups, or two or more columns of values");
     require_two_values_per_group(g.names, g.values);
-    std::vector<std::vector<double>> values = g.values;
-    apply_transform(transform, values);
+    // The transformed values, or the groups themselves (no copy) without a transform.
+    std::vector<std::vector<double>> transformed;
+    if (transform != Transform::none) {
+        transformed = g.values;
+        apply_transform(transform, transformed);
+    }
+    const std::vector<std::vector<double>>& values = transform != Transform::none ? transformed : g.values;
     const bool ranks = method == "ranks";
     // Zero spread named by group, before the methods' own generic refusals.
     if (method == "welch" && k > 2)
@@ -302,7 +301,7 @@ TestResult compare_groups(const Groups& g, const std::string& method_given, Tran
     }
 
     // Per-group rows on the data's scale.
-    const std::vector<double> locations = ranks ? group_medians(values) : group_means(values);
+    const std::vector<double> locations = ranks ? std::vector<double>() : group_means(values);
     const std::string location_name = ranks                                ? "median"
                                       : ratio                             ? "geometric mean"
                                       : transform == Transform::none      ? "mean"

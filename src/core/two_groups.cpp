@@ -45,6 +45,17 @@ void require_two_values(std::span<const double> first, std::span<const double> s
     require_finite(second);
 }
 
+// Hedges' g and its interval from the two groups' summaries (on values scaled alike).
+EffectWithInterval hedges_g_of(const GroupSummary& a, const GroupSummary& b, double level) {
+    const double pooled_sd = std::sqrt((a.sum_of_squares + b.sum_of_squares) / (a.n + b.n - 2));
+    if (!(pooled_sd > 0)) return {not_available, not_available, not_available};
+    const double correction = 1 - 3 / (4 * (a.n + b.n) - 9);
+    const double d = (a.mean - b.mean) / pooled_sd;
+    const double root_pairs = std::sqrt(a.n * b.n / (a.n + b.n));  // t = d · √(n₁n₂/(n₁+n₂))
+    const Interval delta = noncentral_t_interval(d * root_pairs, a.n + b.n - 2, level);
+    return {d * correction, delta.low / root_pairs * correction, delta.high / root_pairs * correction};
+}
+
 double two_sided_t_p(double t, double df) {
     const boost::math::students_t dist(df);
     return std::min(1.0, 2.0 * cdf(complement(dist, std::fabs(t))));
@@ -80,7 +91,7 @@ TestResult t_test(std::span<const double> first_raw, std::span<const double> sec
     const double t = require_finite_statistic(difference / standard_error, "t");
     if (!(df > 0 && std::isfinite(df))) throw Refusal("the degrees of freedom cannot be computed for these data");
     const double margin = t_critical(df, level) * standard_error;
-    const EffectWithInterval g = hedges_g(first, second, level);
+    const EffectWithInterval g = hedges_g_of(a, b, level);
 
     TestResult r;
     r.test = pooled ? "Student's t-test (two groups, pooled variance)" : "Welch's t-test (two groups)";
@@ -107,14 +118,7 @@ EffectWithInterval hedges_g(std::span<const double> first_raw, std::span<const d
     const std::span<const double> both[] = {first_raw, second_raw};
     const double scale = power_of_two_scale(both);
     const std::vector<double> first = scaled(first_raw, scale), second = scaled(second_raw, scale);
-    const GroupSummary a = summarize(first), b = summarize(second);
-    const double pooled_sd = std::sqrt((a.sum_of_squares + b.sum_of_squares) / (a.n + b.n - 2));
-    if (!(pooled_sd > 0)) return {not_available, not_available, not_available};
-    const double correction = 1 - 3 / (4 * (a.n + b.n) - 9);
-    const double d = (a.mean - b.mean) / pooled_sd;
-    const double root_pairs = std::sqrt(a.n * b.n / (a.n + b.n));  // t = d · √(n₁n₂/(n₁+n₂))
-    const Interval delta = noncentral_t_interval(d * root_pairs, a.n + b.n - 2, level);
-    return {d * correction, delta.low / root_pairs * correction, delta.high / root_pairs * correction};
+    return hedges_g_of(summarize(first), summarize(second), level);
 }
 
 TestResult welch_t_test(std::span<const double> first, std::span<const double> second, double level) {
