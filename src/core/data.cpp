@@ -69,12 +69,6 @@ std::string place_of(const Range& r, std::size_t row, std::size_t column, const 
     return argument + " row " + std::to_string(row + 1);
 }
 
-void refuse_errors(const Range& r, const std::string& argument, std::size_t first_row) {
-    for (std::size_t row = first_row; row < r.rows; ++row)
-        for (std::size_t col = 0; col < r.columns; ++col)
-            if (r.at(row, col).kind == CellKind::error) throw Refusal(error_cell_message(r, row, col, argument));
-}
-
 }  // namespace
 
 bool is_header_text(const Cell& c) { return c.kind == CellKind::text && !is_missing_marker(c.text); }
@@ -528,35 +522,41 @@ Groups read_groups_as(const Range& values, const Range& groups, const std::strin
     // Wide format: each column a group. An empty cell is the end of a shorter column, not a
     // dropped observation; a text cell (n/a, -) below the header is dropped.
     g.wide = true;
-    refuse_errors(values, values_name, 0);
-    refuse_censored_cells(values, values_name, 0, values.columns, censored);
     bool header = false;
     for (std::size_t col = 0; col < values.columns; ++col)
         header = header || (censored ? censored_column_has_header(values, col) : numeric_column_has_header(values, col));
     g.has_header = header;
     const std::size_t start = header ? 1 : 0;
+    g.values.resize(values.columns);
+    if (censored) g.censored.resize(values.columns);
     for (std::size_t col = 0; col < values.columns; ++col) {
         const Cell& head = values.at(0, col);
         g.names.push_back(header && is_header_text(head) ? label_of(head) : "column " + std::to_string(col + 1));
-        std::vector<double> column;
-        std::vector<bool> flags;
-        for (std::size_t row = start; row < values.rows; ++row) {
+        g.values[col].reserve(values.rows - start);
+        if (censored) g.censored[col].reserve(values.rows - start);
+    }
+    // One pass, row by row as the cells lie: the refusals (errors first, then censored values, each
+    // the first in reading order) are noted and given after it.
+    const FrameBlock block{&values, kind, values_name};
+    FirstRefusals refusals(1);
+    for (std::size_t row = 0; row < values.rows; ++row)
+        for (std::size_t col = 0; col < values.columns; ++col) {
             const Cell& c = values.at(row, col);
+            if (c.kind == CellKind::error || c.kind == CellKind::text) refusals.note(block, 0, row, col, c);
+            if (row < start) continue;
             double limit = 0.0;
             if (is_value(c)) {
-                column.push_back(c.number);
-                flags.push_back(false);
+                g.values[col].push_back(c.number);
+                if (censored) g.censored[col].push_back(false);
             } else if (censored && c.kind == CellKind::text && censored_text(c.text, &limit) == CensoredText::censored) {
-                column.push_back(limit);
-                flags.push_back(true);
+                g.values[col].push_back(limit);
+                g.censored[col].push_back(true);
             } else if (c.kind != CellKind::empty) {
                 ++g.n_dropped;
             }
         }
-        g.n_used += column.size();
-        g.values.push_back(std::move(column));
-        if (censored) g.censored.push_back(std::move(flags));
-    }
+    refusals.refuse({block});
+    for (const auto& column : g.values) g.n_used += column.size();
     return g;
 }
 }  // namespace

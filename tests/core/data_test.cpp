@@ -70,6 +70,27 @@ TEST(ReadGroups, WideFormatNamesColumnsFromTextFirstRow) {
     EXPECT_EQ(g.n_dropped, 1u);
 }
 
+TEST(ReadGroups, WideFormatRefusesTheFirstErrorInReadingOrderBeforeCensoredValues) {
+    // Wide format reads row by row: the error in C3 (second column, first value row) comes before
+    // the one in B4, and any error before the censored value in B2.
+    Range block = test_support::block(4, 2, {txt("reed"), txt("sedge"), txt("<0.5"), num(5), num(2), Cell::make_error("#VALUE!"),
+                                             Cell::make_error("#N/A"), num(7)},
+                                      0, 1);
+    try {
+        read_groups(block, Range::omitted_argument());
+        FAIL() << "expected a refusal";
+    } catch (const Refusal& r) {
+        EXPECT_STREQ(r.what(), "C3 holds an error (#VALUE!)");
+    }
+    Range censored = test_support::block(3, 2, {txt("reed"), txt("sedge"), num(1), txt("ND"), txt("<0.5"), num(7)}, 0, 1);
+    try {
+        read_groups(censored, Range::omitted_argument());
+        FAIL() << "expected a refusal";
+    } catch (const Refusal& r) {
+        EXPECT_STREQ(r.what(), "C2 holds ND: write the detection limit as <0.5");
+    }
+}
+
 TEST(ReadGroups, WideFormatWithoutHeaderUsesColumnNumbers) {
     Range block;
     block.rows = 2;
