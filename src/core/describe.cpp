@@ -58,16 +58,20 @@ Table describe_groups(const Groups& groups, Transform transform, double level) {
         static constexpr double quartile_probabilities[] = {0.25, 0.5, 0.75};
         const std::vector<double> quartiles = quantiles_by_selection(work, quartile_probabilities);
 
-        const double sd = standard_deviation(raw);  // NaN for n = 1 → blank
+        // The mean and SD once each (standard_deviation's own arithmetic); without a transform the
+        // scaled values are the raw ones, so their mean and SD are these too.
+        const double raw_mean = mean(raw);
+        const double sd = n < 2 ? std::numeric_limits<double>::quiet_NaN()  // n = 1 → blank
+                                : std::sqrt(sum_of_squares(raw, raw_mean) / static_cast<double>(n - 1));
         const double se = sd / std::sqrt(static_cast<double>(n));
         // CV % = 100 · SD / |arithmetic mean| on the data's scale, whatever the transform; blank at a zero mean.
-        const double raw_mean = mean(raw);
         const double cv = raw_mean != 0 ? 100.0 * sd / std::fabs(raw_mean) : std::numeric_limits<double>::quiet_NaN();
-        const double centre = mean(scaled);
+        const bool same_scale = transform == Transform::none;
+        const double centre = same_scale ? raw_mean : mean(scaled);
         double low = std::numeric_limits<double>::quiet_NaN();
         double high = low;
         if (n >= 2) {
-            const double scaled_se = standard_deviation(scaled) / std::sqrt(static_cast<double>(n));
+            const double scaled_se = (same_scale ? sd : standard_deviation(scaled)) / std::sqrt(static_cast<double>(n));
             const boost::math::students_t t_dist(static_cast<double>(n - 1));
             const double t = boost::math::quantile(t_dist, 0.5 + level / 2.0);
             low = back_transform(transform, centre - t * scaled_se);
