@@ -55,6 +55,14 @@ std::vector<std::vector<double>> rescaled_groups(const Groups& groups) {
     std::vector<std::vector<double>> y(groups.values);
     if (highest == lowest) return y;  // no spread at all: refused by the caller
     const int exponent = range_exponent(lowest, highest);
+    // A product with a normal power of two is x·2^−e rounded once, as ldexp gives it, without a
+    // call per value; beyond the normal powers, ldexp.
+    if (exponent >= -1000 && exponent <= 1000) {
+        const double factor = std::ldexp(1.0, -exponent);
+        for (auto& g : y)
+            for (double& x : g) x *= factor;
+        return y;
+    }
     for (auto& g : y)
         for (double& x : g) x = std::ldexp(x, -exponent);
     return y;
@@ -67,6 +75,7 @@ std::vector<std::vector<double>> absolute_deviations(const std::vector<std::vect
     for (std::size_t i = 0; i < z.size(); ++i) {
         const std::vector<double>& g = groups[i];
         const double centre = from_median ? median(g) : mean_from_mid_range(g);
+        z[i].reserve(g.size());
         for (double x : g) z[i].push_back(std::fabs(x - centre));
     }
     return z;
@@ -79,6 +88,9 @@ struct AnovaF {
 AnovaF deviation_anova(const std::vector<std::vector<double>>& groups, bool from_median, const std::string& method) {
     const std::vector<std::vector<double>> z = absolute_deviations(groups, from_median);
     std::vector<double> all;
+    std::size_t total = 0;
+    for (const auto& zi : z) total += zi.size();
+    all.reserve(total);
     for (const auto& zi : z) all.insert(all.end(), zi.begin(), zi.end());
     const double grand = mean(all);
     Accumulator between, within;
