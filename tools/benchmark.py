@@ -68,6 +68,18 @@ def write_arrays(folder, n):
 
 # --- 1. The reference libraries, case by case -----------------------------------------------------
 
+def describe_parts(parts):
+    """DESCRIBE.GROUPS' numbers per group with NumPy (and SciPy's t quantile)."""
+    from scipy import stats
+    rows = []
+    for s in parts:
+        m, sd = s.mean(), s.std(ddof=1)
+        se = sd / np.sqrt(len(s))
+        h = stats.t.ppf(0.975, len(s) - 1) * se
+        rows.append((len(s), m, sd, se, m - h, m + h, np.median(s), s.min(), s.max()))
+    return rows
+
+
 def library_cases():
     """case name → (Quadrat call, reference call, function of (arrays, n) → thunk)."""
     from scipy import stats
@@ -123,17 +135,7 @@ def library_cases():
 
     def describe(d, n):
         x, g = d["v"][:n], d["g4"][:n]
-
-        def run():
-            rows = []
-            for i in range(4):
-                s = x[g == i]
-                m, sd = s.mean(), s.std(ddof=1)
-                se = sd / np.sqrt(len(s))
-                h = stats.t.ppf(0.975, len(s) - 1) * se
-                rows.append((len(s), m, sd, se, m - h, m + h, np.median(s), s.min(), s.max()))
-            return rows
-        return run
+        return lambda: describe_parts([x[g == i] for i in range(4)])
 
     def two(d, n, f):
         x, g = d["v"][:n], d["g2"][:n]
@@ -259,16 +261,7 @@ def stage_cases():
     def describe_presplit(d, n):
         x, g = d["v"][:n], d["g4"][:n]
         parts = [x[g == i] for i in range(4)]
-
-        def run():
-            rows = []
-            for s in parts:
-                m, sd = s.mean(), s.std(ddof=1)
-                se = sd / np.sqrt(len(s))
-                h = stats.t.ppf(0.975, len(s) - 1) * se
-                rows.append((len(s), m, sd, se, m - h, m + h, np.median(s), s.min(), s.max()))
-            return rows
-        return run
+        return lambda: describe_parts(parts)
 
     def tabulate(d, n):
         c1, c2 = d["c1"][:n], d["c2"][:n]
