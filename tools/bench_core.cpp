@@ -245,14 +245,14 @@ int run_cache(std::size_t largest) {
                 quadrat::addin::forget_all();
                 auto start = Clock::now();
                 for (const char* o : outputs) {
-                    c.arguments[3] = text(o);
+                    c.arguments.set(3, text(o));
                     quadrat::addin::call_fenced(*c.function, c.arguments);
                 }
                 ten_with = std::min(ten_with, ms_since(start));
                 start = Clock::now();
                 for (const char* o : outputs) {
                     quadrat::addin::forget_all();
-                    c.arguments[3] = text(o);
+                    c.arguments.set(3, text(o));
                     quadrat::addin::call_fenced(*c.function, c.arguments);
                 }
                 ten_without = std::min(ten_without, ms_since(start));

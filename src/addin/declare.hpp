@@ -38,8 +38,38 @@
 
 namespace quadrat::addin {
 
-// Arguments in call order, as the seam converted them; an omitted one has `omitted` set.
-using Arguments = std::vector<Range>;
+// Arguments in call order, as the seam converted them; an omitted one has `omitted` set. A range
+// may be shared with other calls (the seam's store of decoded ranges, read once per change), so
+// it is read-only here; `change` gives a private copy to alter (tests, the fuzzer).
+class Arguments {
+public:
+    Arguments() = default;
+    Arguments(std::initializer_list<Range> ranges) {
+        for (const Range& r : ranges) push_back(r);
+    }
+
+    void push_back(Range range) { ranges_.push_back(std::make_shared<const Range>(std::move(range))); }
+    void push_back(std::shared_ptr<const Range> range) { ranges_.push_back(std::move(range)); }
+    void set(std::size_t i, Range range) { ranges_.at(i) = std::make_shared<const Range>(std::move(range)); }
+    Range& change(std::size_t i) {
+        auto copy = std::make_shared<Range>(*ranges_.at(i));
+        ranges_[i] = copy;
+        return *copy;
+    }
+    // Up to n arguments, the new ones omitted.
+    void pad_to(std::size_t n) {
+        while (ranges_.size() < n) push_back(Range::omitted_argument());
+    }
+
+    const Range& operator[](std::size_t i) const { return *ranges_[i]; }
+    const Range& back() const { return *ranges_.back(); }
+    std::size_t size() const { return ranges_.size(); }
+    bool empty() const { return ranges_.empty(); }
+    void reserve(std::size_t n) { ranges_.reserve(n); }
+
+private:
+    std::vector<std::shared_ptr<const Range>> ranges_;
+};
 
 enum class ArgumentKind {
     data,     // numbers from cells (values, y, xs, …)

@@ -192,7 +192,7 @@ Table call_fenced(const Function& function, const Arguments& arguments) noexcept
             // the rest as omitted, not a read past the end.
             if (arguments.size() < function.arguments.size()) {
                 Arguments padded = arguments;
-                padded.resize(function.arguments.size(), Range::omitted_argument());
+                padded.pad_to(function.arguments.size());
                 return run(function, padded);
             }
             return run(function, arguments);

@@ -97,7 +97,7 @@ extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size
     // Shapes that line up are where the statistics run: sometimes copy the first argument's shape.
     if (args.size() > 1 && !args[0].omitted && (in.byte() & 1)) {
         for (std::size_t i = 1; i < args.size() && f.arguments[i].reference(); ++i) {
-            Range& r = args[i];
+            Range& r = args.change(i);
             r.rows = args[0].rows;
             r.columns = 1;
             r.omitted = false;
