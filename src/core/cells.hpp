@@ -2,6 +2,7 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <string>
 #include <variant>
 #include <vector>
@@ -33,6 +34,10 @@ struct Range {
     // Only for an argument declared to ask for it (TRACK.TREND `times`): its used cells hold date or
     // time content (numbers formatted as dates), so they are day numbers.
     bool dates = false;
+    // Nonzero when the seam decoded these cells once and shares them between calls (its store of
+    // read ranges): two ranges with the same id hold the same cells, so a cache key can name the
+    // id instead of copying every cell. 0: no such promise.
+    std::uint64_t content_id = 0;
     std::size_t first_row = 0;
     std::size_t first_column = 0;
 

@@ -46,7 +46,7 @@ TEST(ResultCache, AChangedCellOrFunctionRecomputes) {
     int calls = 0;
     Arguments a = arguments_with_output("p");
     remembered("f", a, 2, [&] { return counted(calls); });
-    a[0].cells[1].number = 2.0000000000000004;  // the next double: still a different cell
+    a.change(0).cells[1].number = 2.0000000000000004;  // the next double: still a different cell
     remembered("f", a, 2, [&] { return counted(calls); });
     remembered("g", a, 2, [&] { return counted(calls); });
     EXPECT_EQ(calls, 3);
@@ -55,15 +55,50 @@ TEST(ResultCache, AChangedCellOrFunctionRecomputes) {
 TEST(ResultCache, IsBoundedAndKeepsTheMostRecent) {
     forget_all();
     int calls = 0;
-    for (int i = 0; i < 40; ++i) {
+    // memo.cpp's capacity: 256 results.
+    for (int i = 0; i < 300; ++i) {
         Arguments a = {Range::column({static_cast<double>(i)})};
         remembered("f", a, 9, [&] { return counted(calls); });
     }
-    EXPECT_EQ(calls, 40);
-    remembered("f", {Range::column({39.0})}, 9, [&] { return counted(calls); });
-    EXPECT_EQ(calls, 40);  // the most recent is kept
+    EXPECT_EQ(calls, 300);
+    remembered("f", {Range::column({299.0})}, 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 300);  // the most recent is kept
     remembered("f", {Range::column({0.0})}, 9, [&] { return counted(calls); });
-    EXPECT_EQ(calls, 41);  // the oldest was evicted
+    EXPECT_EQ(calls, 301);  // the oldest was evicted
+}
+
+// Big results are bounded by the cells behind them (memo.cpp: 8 million): two results over
+// 3 million cells each are kept, a third evicts the oldest.
+TEST(ResultCache, IsBoundedByTheCellsBehindItsResults) {
+    forget_all();
+    int calls = 0;
+    auto big = [](double first) {
+        std::vector<double> xs(3'000'000, 1.0);
+        xs[0] = first;
+        Range r = Range::column(xs);
+        r.content_id = static_cast<std::uint64_t>(first) + 1;  // shared: the key names the id
+        return Arguments{r};
+    };
+    for (double first : {1.0, 2.0, 3.0}) remembered("f", big(first), 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 3);
+    remembered("f", big(3.0), 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 3);
+    remembered("f", big(1.0), 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 4);
+}
+
+// A shared range is keyed by its content id: the same id is the same data, another id recomputes.
+TEST(ResultCache, ASharedRangeIsKeyedByItsId) {
+    forget_all();
+    int calls = 0;
+    Range r = Range::column({1, 2, 3});
+    r.content_id = 7;
+    remembered("f", {r}, 9, [&] { return counted(calls); });
+    remembered("f", {r}, 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 1);
+    r.content_id = 8;
+    remembered("f", {r}, 9, [&] { return counted(calls); });
+    EXPECT_EQ(calls, 2);
 }
 
 TEST(ResultCache, ARefusalIsNotKept) {
@@ -86,9 +121,9 @@ TEST(ResultCache, KeysOnTheChosenPositions) {
     auto count = [&]() -> std::shared_ptr<const void> { return std::make_shared<const int>(++calls); };
     Arguments a = arguments_with_output("p");
     EXPECT_EQ(*std::static_pointer_cast<const int>(remembered_result("k", a, {0, 1}, count)), 1);
-    a[2] = Range::scalar(Cell::make_text("table"));
+    a.set(2, Range::scalar(Cell::make_text("table")));
     EXPECT_EQ(*std::static_pointer_cast<const int>(remembered_result("k", a, {0, 1}, count)), 1);
-    a[1].cells[2].text = "c";
+    a.change(1).cells[2].text = "c";
     EXPECT_EQ(*std::static_pointer_cast<const int>(remembered_result("k", a, {0, 1}, count)), 2);
 }
 
