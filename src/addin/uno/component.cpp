@@ -1,17 +1,22 @@
-// The UNO seam: the only file that sees office types. Thin and boring on purpose.
+// The UNO seam: with range_store.cpp, the only files that see office types. Thin and boring on purpose.
 // Each cell function (generated into functions.inc from the registry) does the same three steps:
-// convert the arguments into quadrat::Range → quadrat::addin::call_fenced → convert the Table
-// back into what the cell shows. A second fence here catches whatever the conversions throw, so
+// convert the arguments into quadrat::Range (a range argument from the document's store of read
+// ranges, range_store.hpp) → quadrat::addin::call_fenced → convert the Table back into what the
+// cell shows. A second fence here catches whatever the conversions throw, so
 // no exception ever crosses the UNO boundary (a crash would take the user's office down).
 //
 // Registered through configuration only (extension/quadrat.components + CalcAddIns.xcu): the
 // implementation offers the service org.quadrat.Functions and not the generic add-in service,
 // so Calc takes names and wizard texts from the .xcu and loads this library on first use.
 
+#include <array>
 #include <cmath>
+#include <cstdint>
 #include <functional>
+#include <memory>
 #include <string>
 
+#include <com/sun/star/beans/XPropertySet.hpp>
 #include <com/sun/star/lang/XServiceInfo.hpp>
 #include <com/sun/star/lang/XServiceName.hpp>
 #include <com/sun/star/sheet/CellFlags.hpp>
@@ -38,6 +43,7 @@
 
 #include "addin/clip.hpp"
 #include "addin/registry.hpp"
+#include "addin/uno/range_store.hpp"
 #include "core/cells.hpp"
 
 namespace css = com::sun::star;
@@ -113,24 +119,11 @@ Cell cell_from(const css::uno::Any& value) {
 // ranges (whole columns A:A, open-ended B2:B100000) are read down to the end of the used area.
 constexpr sal_Int32 rows_read_whole = 10000;
 
-// A reference argument. A long one is read only down to the last row of the sheet's used area,
-// so a whole column (A:A) costs its used rows; the start is never moved, so row positions and
-// cell names stay true. Cells come in one getDataArray() call; an error cell arrives as a
-// void value and is looked up to name its error (#DIV/0!, Err:504, …). `dates`: also say
-// whether the used cells hold date or time content (Range::dates).
-Range from_reference(const css::uno::Reference<css::table::XCellRange>& reference, std::size_t& sheet_rows, bool dates) {
-    sheet_rows = 0;
-    if (!reference.is()) return Range::omitted_argument();
-    Range range;
-    range.is_reference = true;
-    css::uno::Reference<css::sheet::XCellRangeAddressable> addressable(reference, css::uno::UNO_QUERY_THROW);
-    const css::table::CellRangeAddress address = addressable->getRangeAddress();
-    range.first_row = static_cast<std::size_t>(address.StartRow);
-    range.first_column = static_cast<std::size_t>(address.StartColumn);
-    sheet_rows = static_cast<std::size_t>(address.EndRow - address.StartRow + 1);
-
+// The last row of `reference` worth reading: its own last row, or for a long range the last row of
+// the sheet's used area when that comes first. The start is never moved, so row positions and
+// cell names stay true.
+sal_Int32 last_row_to_read(const css::uno::Reference<css::table::XCellRange>& reference, const css::table::CellRangeAddress& address) {
     sal_Int32 last_row = address.EndRow;
-    const sal_Int32 last_column = address.EndColumn;
     css::uno::Reference<css::sheet::XSheetCellRange> sheet_range(reference, css::uno::UNO_QUERY);
     if (sheet_range.is() && address.EndRow - address.StartRow + 1 > rows_read_whole) {
         css::uno::Reference<css::sheet::XSpreadsheet> sheet = sheet_range->getSpreadsheet();
@@ -140,25 +133,59 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
         if (used.is() && used_address.is()) {
             used->gotoStartOfUsedArea(false);
             used->gotoEndOfUsedArea(true);
-            const css::table::CellRangeAddress area = used_address->getRangeAddress();
             // Rows only: a block keeps its columns, so a wide-format column with nothing in it
             // yet is still a group.
-            last_row = std::min(last_row, area.EndRow);
+            last_row = std::min(last_row, used_address->getRangeAddress().EndRow);
         }
     }
-    if (last_row < address.StartRow) {
-        // Wholly below the used area: nothing in it.
-        range.columns = static_cast<std::size_t>(address.EndColumn - address.StartColumn + 1);
-        return range;
+    return last_row;
+}
+
+// Texts as UTF-8, each distinct office string converted once per read: Calc hands identical
+// texts of a column over as one shared string, so a label column of a few sites costs a few
+// conversions, not one per row.
+class TextCells {
+public:
+    Cell cell(const OUString& text) {
+        if (text.isEmpty()) return Cell{};
+        const rtl_uString* key = text.pData;
+        Slot& slot = slots_[(reinterpret_cast<std::uintptr_t>(key) >> 4) % slots_.size()];
+        if (slot.key != key) {
+            slot.key = key;
+            slot.utf8 = to_utf8(text);
+        }
+        return Cell::make_text(slot.utf8);
     }
 
+private:
+    struct Slot {
+        const rtl_uString* key = nullptr;  // alive as long as the block being read holds it
+        std::string utf8;
+    };
+    std::array<Slot, 64> slots_{};
+};
+
+// One reference argument, read: cells in one getDataArray() call over rows first..last_row; an
+// error cell arrives as a void value and is looked up to name its error (#DIV/0!, Err:504, …).
+// `dates`: also say whether the used cells hold date or time content (Range::dates).
+quadrat::seam::RangeRead read_reference(const css::uno::Reference<css::table::XCellRange>& reference,
+                                        const css::table::CellRangeAddress& address, sal_Int32 last_row, bool dates) {
+    quadrat::seam::RangeRead read;
+    Range& range = read.range;
+    range.is_reference = true;
+    range.first_row = static_cast<std::size_t>(address.StartRow);
+    range.first_column = static_cast<std::size_t>(address.StartColumn);
+    read.sheet_rows = static_cast<std::size_t>(address.EndRow - address.StartRow + 1);
+    range.columns = static_cast<std::size_t>(address.EndColumn - address.StartColumn + 1);
+    if (last_row < address.StartRow) return read;  // wholly below the used area: nothing in it
+
     css::uno::Reference<css::table::XCellRange> used_part =
-        reference->getCellRangeByPosition(0, 0, last_column - address.StartColumn, last_row - address.StartRow);
+        reference->getCellRangeByPosition(0, 0, address.EndColumn - address.StartColumn, last_row - address.StartRow);
     css::uno::Reference<css::sheet::XCellRangeData> data(used_part, css::uno::UNO_QUERY_THROW);
     const css::uno::Sequence<css::uno::Sequence<css::uno::Any>> rows = data->getDataArray();
     range.rows = static_cast<std::size_t>(rows.getLength());
-    range.columns = static_cast<std::size_t>(last_column - address.StartColumn + 1);
     range.cells.reserve(range.rows * range.columns);
+    TextCells texts;
     for (sal_Int32 r = 0; r < rows.getLength(); ++r) {
         const css::uno::Sequence<css::uno::Any>& row = rows[r];
         for (sal_Int32 c = 0; c < static_cast<sal_Int32>(range.columns); ++c) {
@@ -167,6 +194,10 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
                 continue;
             }
             const css::uno::Any& value = row[c];
+            if (value.getValueTypeClass() == css::uno::TypeClass_STRING) {
+                range.cells.push_back(texts.cell(*static_cast<const OUString*>(value.getValue())));
+                continue;
+            }
             if (value.hasValue()) {
                 range.cells.push_back(cell_from(value));
                 continue;
@@ -177,16 +208,36 @@ Range from_reference(const css::uno::Reference<css::table::XCellRange>& referenc
             range.cells.push_back(code != 0 ? Cell::make_error(error_name(code)) : Cell{});
         }
     }
+    css::uno::Reference<css::sheet::XCellRangesQuery> query(used_part, css::uno::UNO_QUERY);
+    auto holds = [&](sal_Int16 flags) {
+        if (!query.is()) return true;  // cannot tell: treated as holding them (never stored)
+        const css::uno::Reference<css::sheet::XSheetCellRanges> found = query->queryContentCells(flags);
+        return found.is() && found->getRangeAddresses().getLength() > 0;
+    };
+    // Formula cells can change at a recalculation without an edit: such a read is not stored.
+    read.has_formulas = holds(css::sheet::CellFlags::FORMULA);
     // Date formatting, only where the declaration asks (one query over the used part): numbers
     // formatted as dates or times are day numbers (TRACK.TREND's slope per year).
-    if (dates) {
-        css::uno::Reference<css::sheet::XCellRangesQuery> query(used_part, css::uno::UNO_QUERY);
-        if (query.is()) {
-            const css::uno::Reference<css::sheet::XSheetCellRanges> found = query->queryContentCells(css::sheet::CellFlags::DATETIME);
-            range.dates = found.is() && found->getRangeAddresses().getLength() > 0;
-        }
+    if (dates) range.dates = holds(css::sheet::CellFlags::DATETIME);
+    return read;
+}
+
+// A reference argument: from the document's store of read ranges (range_store.hpp), or read.
+std::shared_ptr<const quadrat::seam::RangeRead> from_reference(const void* document,
+                                                               const css::uno::Reference<css::table::XCellRange>& reference,
+                                                               bool dates) {
+    if (!reference.is()) {
+        auto omitted = std::make_shared<quadrat::seam::RangeRead>();
+        omitted->range = Range::omitted_argument();
+        return omitted;
     }
-    return range;
+    css::uno::Reference<css::sheet::XCellRangeAddressable> addressable(reference, css::uno::UNO_QUERY_THROW);
+    quadrat::seam::RangeKey key;
+    key.document = document;
+    key.address = addressable->getRangeAddress();
+    key.last_row = last_row_to_read(reference, key.address);
+    key.dates = dates;
+    return quadrat::seam::stored_read(key, reference, [&] { return read_reference(reference, key.address, key.last_row, dates); });
 }
 
 bool is_empty_value(const css::uno::Any& value) {
@@ -254,21 +305,22 @@ css::uno::Any any_from(const Table& table) {
 // references are read, so that a whole column can be cut to the rows a clipped reference kept.
 class Call {
 public:
-    explicit Call(std::size_t count) { arguments_.reserve(count); }
+    // `document`: the calling document (its store of read ranges), nullptr when there is none.
+    Call(std::size_t count, const void* document) : document_(document) { arguments_.reserve(count); }
 
     void reference(const css::uno::Reference<css::table::XCellRange>& argument, bool dates = false) {
-        std::size_t sheet_rows = 0;
-        arguments_.push_back(from_reference(argument, sheet_rows, dates));
-        if (sheet_rows > arguments_.back().rows) clips_.push_back({sheet_rows, arguments_.back().rows});
+        const auto read = from_reference(document_, argument, dates);
+        if (read->sheet_rows > read->range.rows) clips_.push_back({read->sheet_rows, read->range.rows});
+        arguments_.push_back(std::shared_ptr<const Range>(read, &read->range));
     }
     // The Any lives in the caller's frame for the whole call.
     void value(const css::uno::Any& argument) {
         pending_.push_back({arguments_.size(), &argument});
-        arguments_.emplace_back();
+        arguments_.push_back(Range{});
     }
 
     const Arguments& arguments() {
-        for (const Pending& p : pending_) arguments_[p.index] = from_any(*p.value, clips_);
+        for (const Pending& p : pending_) arguments_.set(p.index, from_any(*p.value, clips_));
         pending_.clear();
         return arguments_;
     }
@@ -278,6 +330,7 @@ private:
         std::size_t index;
         const css::uno::Any* value;
     };
+    const void* document_;
     Arguments arguments_;
     std::vector<Clip> clips_;
     std::vector<Pending> pending_;
@@ -304,11 +357,14 @@ public:
 
 private:
     // The fence around one call: conversions in, the fenced handler, conversion out.
-    static css::uno::Any answer(const char* method, const std::function<void(Call&)>& convert) noexcept {
+    static css::uno::Any answer(const char* method, const css::uno::Reference<css::beans::XPropertySet>& document,
+                                const std::function<void(Call&)>& convert) noexcept {
         try {
             const quadrat::addin::Function* function = quadrat::addin::find_function(method);
             if (!function) return css::uno::Any(OUString("this function is not available in this version"));
-            Call call(function->arguments.size());
+            // The document's identity: its XInterface (the one object UNO promises per component).
+            const css::uno::Reference<css::uno::XInterface> identity(document, css::uno::UNO_QUERY);
+            Call call(function->arguments.size(), identity.get());
             convert(call);
             return any_from(quadrat::addin::call_fenced(*function, call.arguments()));
         } catch (const std::bad_alloc&) {
