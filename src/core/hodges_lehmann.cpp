@@ -35,7 +35,7 @@ template <class Entry, class Start>
 Selected select_in_sorted_matrix(std::size_t rows, std::size_t columns, Entry entry, Start start, std::uint64_t k) {
     constexpr double unknown = std::numeric_limits<double>::quiet_NaN();
     const std::uint64_t target = k - 1;  // 0-based rank of the wanted entry
-    std::vector<std::size_t> lo(rows), hi(rows, columns), below_low(rows), up_to_high(rows);
+    std::vector<std::size_t> lo(rows), hi(rows, columns), below_low(rows), up_to_high(rows), up_to_low(rows), below_high(rows);
     for (std::size_t i = 0; i < rows; ++i) lo[i] = start(i);
     std::vector<std::uint64_t> prefix(rows + 1);
     std::vector<double> sample;
@@ -108,9 +108,24 @@ Selected select_in_sorted_matrix(std::size_t rows, std::size_t columns, Entry en
             continue;
         }
         if (low == high) return {low, target + 1 < through_high ? low : unknown};  // the bracket is one value (ties)
+        if (through_high - under_low < active) {  // the bracket narrows the window
+            for (std::size_t i = 0; i < rows; ++i) {
+                lo[i] = std::min(hi[i], std::max(lo[i], below_low[i]));
+                hi[i] = std::max(lo[i], std::min(hi[i], up_to_high[i]));
+            }
+            continue;
+        }
+        // Ties at the bracket's ends: when a few values of huge multiplicity fill the window (tied
+        // or nearly tied readings: 12.34 − 11.2 and 13.34 − 12.2 are two doubles near 1.14), a
+        // sample's bracket is the window's own ends and would narrow nothing. The wanted entry is
+        // then one of the ends, or lies strictly between them, and the window drops both ends.
+        const std::uint64_t through_low = count(low, true, up_to_low);
+        if (target < through_low) return {low, target + 1 < through_low ? low : unknown};
+        const std::uint64_t under_high = count(high, false, below_high);
+        if (target >= under_high) return {high, target + 1 < through_high ? high : unknown};
         for (std::size_t i = 0; i < rows; ++i) {
-            lo[i] = std::min(hi[i], std::max(lo[i], below_low[i]));
-            hi[i] = std::max(lo[i], std::min(hi[i], up_to_high[i]));
+            lo[i] = std::min(hi[i], std::max(lo[i], up_to_low[i]));
+            hi[i] = std::max(lo[i], std::min(hi[i], below_high[i]));
         }
     }
     throw Refusal("could not select an order statistic of differences; please report this data set");

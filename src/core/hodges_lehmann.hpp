@@ -4,9 +4,10 @@
 // Statist. 34, 598–611; Bauer 1972, JASA 67, 687–690).
 //
 // n₁·n₂ pairwise differences (or n(n+1)/2 Walsh averages) can be 10¹⁰ and more, so they are never
-// enumerated for large samples: an order statistic is selected from the implicitly sorted matrix in
-// O(n log n) per step (Johnson & Mizoguchi 1978, SIAM J. Comput. 7, 147–153; Monahan 1984, ACM TOMS
-// 10, 265–270). Every difference or average is rounded
+// enumerated for large samples: an order statistic is selected from the implicitly sorted matrix by
+// sampled brackets, O(n) per step and a few steps (Floyd & Rivest 1975, CACM 18, 165–172; the
+// matrix setting as in Johnson & Mizoguchi 1978, SIAM J. Comput. 7, 147–153, and Monahan 1984,
+// ACM TOMS 10, 265–270; hodges_lehmann.cpp says how ties are settled). Every difference or average is rounded
 // to 10 significant digits (FUNCTIONS.md, "Ties and precision"); rounding is monotone, so the
 // selection runs on the raw values and only the chosen one is rounded (the same value, far cheaper).
 #pragma once

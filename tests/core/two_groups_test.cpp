@@ -269,6 +269,72 @@ TEST(RankSum, MediansMatchBruteForce) {
     }
 }
 
+// Heavy ties in large groups: a few distinct values, so that the still-possible window ends up
+// holding a few tied values of huge multiplicity (a sampled bracket then cannot narrow it; the
+// selection must settle on a tied end of the bracket). Readings of 0 to 10 in steps of 0.5, 3000
+// and 2500 of them: 7.5·10⁶ differences and 4.5·10⁶ Walsh averages, of 41 distinct values each, counted (brute force by
+// counting, common practice) rather than listed. Exact equality.
+TEST(RankSum, HeavyTiesInLargeGroupsAreSelected) {
+    std::mt19937 rng(5);
+    std::binomial_distribution<int> value(20, 0.45);  // 0..20 half-steps, most mass in a few values
+    std::vector<double> x(3000), y(2500);
+    for (double& v : x) v = value(rng) * 0.5;
+    for (double& v : y) v = value(rng) * 0.5;
+    std::sort(x.begin(), x.end());
+    std::sort(y.begin(), y.end());
+    // Differences x − y in half-steps from −20 to 20: counts, then the k-th by cumulative counts.
+    std::vector<std::uint64_t> differences(41, 0), walsh(41, 0);
+    for (double a : x)
+        for (double b : y) ++differences[static_cast<std::size_t>(std::lround(2 * (a - b)) + 20)];
+    for (std::size_t i = 0; i < x.size(); ++i)
+        for (std::size_t j = i; j < x.size(); ++j) ++walsh[static_cast<std::size_t>(std::lround(2 * (x[i] + x[j])))];
+    const auto kth = [](const std::vector<std::uint64_t>& counts, std::uint64_t k, double step, double offset) {
+        std::uint64_t seen = 0;
+        for (std::size_t v = 0; v < counts.size(); ++v) {
+            seen += counts[v];
+            if (seen >= k) return static_cast<double>(v) * step + offset;
+        }
+        return std::nan("");
+    };
+    const std::uint64_t pairs = x.size() * y.size(), averages = x.size() * (x.size() + 1) / 2;
+    for (std::uint64_t k : {std::uint64_t{1}, pairs / 7, pairs / 4, pairs / 2, pairs / 2 + 1, 3 * pairs / 4, pairs})
+        ASSERT_EQ(pairwise_difference_order_statistic(x, y, k), kth(differences, k, 0.5, -10.0)) << "k=" << k;
+    for (std::uint64_t k : {std::uint64_t{1}, averages / 3, averages / 2, averages / 2 + 1, averages})
+        ASSERT_EQ(walsh_average_order_statistic(x, k), kth(walsh, k, 0.25, 0.0)) << "k=" << k;
+    const double middle = 0.5 * kth(differences, pairs / 2, 0.5, -10.0) + 0.5 * kth(differences, pairs / 2 + 1, 0.5, -10.0);
+    EXPECT_EQ(hodges_lehmann_shift(x, y), middle);
+}
+
+// Nearly tied differences: readings to one decimal give differences such as 12.3 − 11.2 and
+// 13.3 − 12.2, two doubles a few ulps apart, each value of huge multiplicity. The window then
+// holds only such a cluster and a sampled bracket is the cluster's own ends (it once stalled there
+// and refused a third of such samples of 500 against 500). Against brute force (all 250,000
+// rounded differences sorted; common practice): the median, the ranks around a 95% interval's
+// limits, and every 4999th. Exact equality.
+TEST(RankSum, NearlyTiedDifferencesAreSelected) {
+    for (unsigned seed = 0; seed < 12; ++seed) {
+        std::mt19937 rng(seed);
+        std::normal_distribution<double> reading(12.0, 1.0);
+        std::vector<double> x(500), y(500);
+        for (double& v : x) v = std::round(reading(rng) * 10) / 10;
+        for (double& v : y) v = std::round((reading(rng) + 0.3) * 10) / 10;
+        std::sort(x.begin(), x.end());
+        std::sort(y.begin(), y.end());
+        std::vector<double> all;
+        for (double a : x)
+            for (double b : y) all.push_back(round_significant(a - b));
+        std::sort(all.begin(), all.end());
+        const std::uint64_t count = all.size();
+        ASSERT_EQ(hodges_lehmann_shift(x, y), 0.5 * all[count / 2 - 1] + 0.5 * all[count / 2]) << "seed " << seed;
+        std::vector<std::uint64_t> ks;
+        const auto limit = static_cast<std::uint64_t>(count / 2.0 - 1.96 * std::sqrt(500.0 * 500.0 * 1001.0 / 12.0));
+        for (std::uint64_t d = 0; d < 8; ++d) ks.insert(ks.end(), {limit - 4 + d, count - limit - 3 + d});
+        for (std::uint64_t k = 1 + seed; k <= count; k += 4999) ks.push_back(k);
+        for (std::uint64_t k : ks)
+            ASSERT_EQ(pairwise_difference_order_statistic(x, y, k), all[k - 1]) << "seed " << seed << " k=" << k;
+    }
+}
+
 // 5·10⁴ values per group: 2.5·10⁹ differences, never listed. Must finish quickly and bounded; the
 // shift between two shifted copies of the same grid is the shift itself (by construction).
 TEST(RankSum, LargeGroupsAreSelectedNotEnumerated) {
