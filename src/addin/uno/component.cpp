@@ -209,16 +209,24 @@ quadrat::seam::RangeRead read_reference(const css::uno::Reference<css::table::XC
         }
     }
     css::uno::Reference<css::sheet::XCellRangesQuery> query(used_part, css::uno::UNO_QUERY);
-    auto holds = [&](sal_Int16 flags) {
-        if (!query.is()) return true;  // cannot tell: treated as holding them (never stored)
-        const css::uno::Reference<css::sheet::XSheetCellRanges> found = query->queryContentCells(flags);
-        return found.is() && found->getRangeAddresses().getLength() > 0;
-    };
     // Formula cells can change at a recalculation without an edit: such a read is not stored.
-    read.has_formulas = holds(css::sheet::CellFlags::FORMULA);
+    // (queryFormulaCells visits formula cells only; queryContentCells(FORMULA) would look up the
+    // number format of every value cell on its way.)
+    if (query.is()) {
+        using css::sheet::FormulaResult::VALUE;
+        using css::sheet::FormulaResult::STRING;
+        using css::sheet::FormulaResult::ERROR;
+        const css::uno::Reference<css::sheet::XSheetCellRanges> found = query->queryFormulaCells(VALUE | STRING | ERROR);
+        read.has_formulas = !found.is() || found->getRangeAddresses().getLength() > 0;
+    } else {
+        read.has_formulas = true;  // cannot tell: treated as holding them (never stored)
+    }
     // Date formatting, only where the declaration asks (one query over the used part): numbers
     // formatted as dates or times are day numbers (TRACK.TREND's slope per year).
-    if (dates) range.dates = holds(css::sheet::CellFlags::DATETIME);
+    if (dates && query.is()) {
+        const css::uno::Reference<css::sheet::XSheetCellRanges> found = query->queryContentCells(css::sheet::CellFlags::DATETIME);
+        range.dates = found.is() && found->getRangeAddresses().getLength() > 0;
+    }
     return read;
 }
 
