@@ -96,7 +96,7 @@ public:
     }
 
     void changed(std::uint64_t id) {
-            std::lock_guard<std::mutex> lock(guard);
+        std::lock_guard<std::mutex> lock(guard);
         auto it = find(id);
         if (it != entries.end()) it->current = false;
     }
@@ -122,10 +122,25 @@ std::atomic<std::uint64_t> next_content_id{1};
 class Watch : public cppu::WeakImplHelper1<css::util::XModifyListener> {
 public:
     explicit Watch(std::uint64_t id) : id_(id) {}
-    void SAL_CALL modified(const css::lang::EventObject&) override { store().changed(id_); }
-    void SAL_CALL disposing(const css::lang::EventObject&) override { store().disposed(id_); }
+    // Called by Calc: nothing may escape into it. Only the lock can fail here, and a store whose
+    // lock fails serves nothing (every call through it throws, and its cell shows the refusal).
+    void SAL_CALL modified(const css::lang::EventObject&) override {
+        try {
+            store().changed(id_);
+        } catch (...) {
+            forget();  // the same lock: if it failed above, this fails too, quietly
+        }
+    }
+    void SAL_CALL disposing(const css::lang::EventObject&) override { forget(); }
 
 private:
+    void forget() noexcept {
+        try {
+            store().disposed(id_);
+        } catch (...) {
+            // See modified().
+        }
+    }
     std::uint64_t id_;
 };
 
