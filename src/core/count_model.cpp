@@ -413,6 +413,13 @@ CountFit fit_counts(const CountData& data, CountMethod method) {
     for (const auto& name : data.names) out.terms.push_back(name);
     for (std::size_t j = 0; j < p; ++j) {
         const double se = std::sqrt(cov(Eigen::Index(j), Eigen::Index(j)));
+        // A nearly singular information (a predictor with almost no spread among the rows that
+        // carry the fit, found by the fuzzer) leaves no standard error: say so rather than pass
+        // a NaN on to the p-value.
+        if (!(se > 0) || !std::isfinite(se) || !std::isfinite(beta[Eigen::Index(j)]))
+            throw Refusal("the fit leaves no standard error for " + out.terms[j] +
+                          " (its information is nearly singular: a predictor barely varies where the counts are); remove that "
+                          "predictor or gather rows where it varies");
         const double z = beta[Eigen::Index(j)] / se;
         out.estimate.push_back(beta[Eigen::Index(j)]);
         out.std_error.push_back(se);
@@ -424,6 +431,8 @@ CountFit fit_counts(const CountData& data, CountMethod method) {
     out.deviance = deviance(d.y, mu, fit.k);
     out.null_deviance = deviance(d.y, means_at(null_design, negative_binomial ? null_gamma_at_k : null_fit.gamma), fit.k);
     out.lr_statistic = std::max(0.0, 2 * (out.log_likelihood - out.null_log_likelihood));
+    if (!std::isfinite(out.log_likelihood) || !std::isfinite(out.null_log_likelihood))
+        throw Refusal("the fit's likelihood is not a finite number; check the counts and effort");
     out.df = double(k);
     out.lr_p = boost::math::cdf(boost::math::complement(boost::math::chi_squared_distribution<double>(out.df), out.lr_statistic));
     out.aic = -2 * out.log_likelihood + 2 * double(p + (negative_binomial ? 1 : 0));
