@@ -324,6 +324,12 @@ LogisticFit fit_logistic(const LogisticData& d) {
     for (const auto& name : d.names) fit.terms.push_back(name);
     for (std::size_t j = 0; j < p; ++j) {
         const double se = std::sqrt(cov(j, j));
+        // As in FIT.COUNTS: a nearly singular weighted design leaves no standard error; say so
+        // rather than pass a NaN on to the p-value.
+        if (!(se > 0) || !std::isfinite(se) || !std::isfinite(beta[j]))
+            throw Refusal("the fit leaves no standard error for " + fit.terms[j] +
+                          " (its information is nearly singular: a predictor barely varies among the rows that carry "
+                          "the fit); remove that predictor or gather rows where it varies");
         const double z = beta[j] / se;
         fit.estimate.push_back(beta[j]);
         fit.std_error.push_back(se);
