@@ -213,6 +213,25 @@ TEST(RankSum, TooFewForInterval) {
     EXPECT_EQ(r.number("effect"), -1.0);
 }
 
+// Brute force for the selection tests (common practice): every rounded difference x_i − y_j, and
+// every rounded Walsh average (x_i + x_j)/2 over i ≤ j, listed and sorted.
+std::vector<double> sorted_differences(const std::vector<double>& x, const std::vector<double>& y) {
+    std::vector<double> all;
+    all.reserve(x.size() * y.size());
+    for (double a : x)
+        for (double b : y) all.push_back(round_significant(a - b));
+    std::sort(all.begin(), all.end());
+    return all;
+}
+
+std::vector<double> sorted_walsh_averages(const std::vector<double>& x) {
+    std::vector<double> all;
+    for (std::size_t i = 0; i < x.size(); ++i)
+        for (std::size_t j = i; j < x.size(); ++j) all.push_back(round_significant(0.5 * x[i] + 0.5 * x[j]));
+    std::sort(all.begin(), all.end());
+    return all;
+}
+
 // Selection of order statistics of pairwise differences against listing them all (brute force,
 // common practice): random sizes with ties, every k. Exact equality: the same rounded values. The
 // last trials are large enough (up to 400 × 400) for the pivot steps, not only the final listing.
@@ -225,17 +244,11 @@ TEST(RankSum, SelectionMatchesBruteForce) {
         for (double& v : y) v = value(rng) * 0.1 + (trial % 3) * 1e-3;
         std::sort(x.begin(), x.end());
         std::sort(y.begin(), y.end());
-        std::vector<double> all;
-        for (double a : x)
-            for (double b : y) all.push_back(round_significant(a - b));
-        std::sort(all.begin(), all.end());
+        const std::vector<double> all = sorted_differences(x, y);
         for (std::size_t k = 1; k <= all.size(); k += 1 + all.size() / 50)
             ASSERT_EQ(pairwise_difference_order_statistic(x, y, k), all[k - 1]) << trial << " k=" << k;
         // Walsh averages of x.
-        std::vector<double> walsh;
-        for (std::size_t i = 0; i < x.size(); ++i)
-            for (std::size_t j = i; j < x.size(); ++j) walsh.push_back(round_significant(0.5 * x[i] + 0.5 * x[j]));
-        std::sort(walsh.begin(), walsh.end());
+        const std::vector<double> walsh = sorted_walsh_averages(x);
         for (std::size_t k = 1; k <= walsh.size(); k += 1 + walsh.size() / 50)
             ASSERT_EQ(walsh_average_order_statistic(x, k), walsh[k - 1]) << trial << " k=" << k;
     }
@@ -257,13 +270,7 @@ TEST(RankSum, MediansMatchBruteForce) {
         for (double& v : y) v = value(rng) * 0.01 + 0.003;
         std::sort(x.begin(), x.end());
         std::sort(y.begin(), y.end());
-        std::vector<double> differences, walsh;
-        for (double a : x)
-            for (double b : y) differences.push_back(round_significant(a - b));
-        for (std::size_t i = 0; i < x.size(); ++i)
-            for (std::size_t j = i; j < x.size(); ++j) walsh.push_back(round_significant(0.5 * x[i] + 0.5 * x[j]));
-        std::sort(differences.begin(), differences.end());
-        std::sort(walsh.begin(), walsh.end());
+        const std::vector<double> differences = sorted_differences(x, y), walsh = sorted_walsh_averages(x);
         ASSERT_EQ(hodges_lehmann_shift(x, y), median_of_sorted(differences)) << trial;
         ASSERT_EQ(hodges_lehmann_pseudo_median(x), median_of_sorted(walsh)) << trial;
     }
@@ -320,10 +327,7 @@ TEST(RankSum, NearlyTiedDifferencesAreSelected) {
         for (double& v : y) v = std::round((reading(rng) + 0.3) * 10) / 10;
         std::sort(x.begin(), x.end());
         std::sort(y.begin(), y.end());
-        std::vector<double> all;
-        for (double a : x)
-            for (double b : y) all.push_back(round_significant(a - b));
-        std::sort(all.begin(), all.end());
+        const std::vector<double> all = sorted_differences(x, y);
         const std::uint64_t count = all.size();
         ASSERT_EQ(hodges_lehmann_shift(x, y), 0.5 * all[count / 2 - 1] + 0.5 * all[count / 2]) << "seed " << seed;
         std::vector<std::uint64_t> ks;
